@@ -1,0 +1,35 @@
+# Two commands on a fresh clone: `make run` and `make test`. Each creates .venv when needed.
+PYTHON ?= python3
+VENV := .venv
+BIN := $(VENV)/bin
+
+.PHONY: run test lint clean
+
+$(BIN)/python:
+	$(PYTHON) -m venv $(VENV)
+	$(BIN)/python -m pip install --quiet --upgrade pip
+
+$(VENV)/.installed: pyproject.toml | $(BIN)/python
+	$(BIN)/python -m pip install --quiet -e .
+	touch $@
+
+$(VENV)/.installed-test: pyproject.toml | $(BIN)/python
+	$(BIN)/python -m pip install --quiet -e '.[test]'
+	touch $@ $(VENV)/.installed
+
+run: $(VENV)/.installed
+	@mkdir -p out
+	@for f in sample_aircraft/*.toml; do \
+		$(BIN)/kneeboard table "$$f" > "out/$$(basename "$$f" .toml).txt" || exit $$?; \
+	done
+	@$(BIN)/kneeboard check sample_aircraft
+	@echo "Sample tables written to out/*.txt"
+
+test: $(VENV)/.installed-test
+	$(BIN)/python -m pytest -q
+
+lint: $(VENV)/.installed-test
+	$(BIN)/ruff check kneeboard tests
+
+clean:
+	rm -rf $(VENV) out .pytest_cache .hypothesis

@@ -1,0 +1,5 @@
+import sys
+
+from kneeboard.cli import main
+
+sys.exit(main())

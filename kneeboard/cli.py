@@ -1,0 +1,146 @@
+"""The command line: `kneeboard check | table | card`, calling the same functions as the app."""
+
+import argparse
+import os
+import sys
+from pathlib import Path
+
+from kneeboard import __version__, report, units
+from kneeboard.problems import Problem
+from kneeboard.profile_io import expand_paths, load_profile
+from kneeboard.tables import build
+from kneeboard.texts import CAUTION
+
+EXIT_OK, EXIT_PROBLEMS, EXIT_BUG = 0, 2, 70
+COMMANDS = ("check", "table")
+
+
+class UsageProblem(Exception):
+    """A bad option value; the message names the option."""
+
+
+def _parser() -> argparse.ArgumentParser:
+    p = argparse.ArgumentParser(
+        prog="kneeboard",
+        description="Cockpit cards of stall speed and margin by bank angle, from an aircraft's published figures.",
+        epilog=CAUTION,
+    )
+    p.add_argument("--version", action="version", version=f"kneeboard {__version__}")
+    sub = p.add_subparsers(dest="command", metavar="COMMAND")
+
+    check = sub.add_parser("check", help="validate profiles and list every problem")
+    check.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
+
+    table = sub.add_parser("table", help="print the computed table of one profile")
+    table.add_argument("profile", metavar="PROFILE")
+    table.add_argument("--weight", metavar="QTY", help='weight to compute for, e.g. "690 kg" or "1500 lb"')
+    table.add_argument("--bank", metavar="LIST", help="bank angles in degrees, e.g. 0,20,40")
+    table.add_argument("--speed-unit", choices=units.SPEED_UNITS)
+    table.add_argument("--distance-unit", choices=units.DISTANCE_UNITS)
+    table.add_argument("--format", choices=("text", "csv", "json"), default="text")
+    return p
+
+
+def _parse_weight(text: str | None) -> float | None:
+    if text is None:
+        return None
+    try:
+        value = units.parse(text, units.MASS)
+    except units.QuantityError as exc:
+        raise UsageProblem(f"--weight {text!r}: {exc}; expected {exc.expected}") from None
+    if not 0 < value <= 600_000:
+        raise UsageProblem(f"--weight {text!r}: out of range; expected a weight above 0")
+    return value
+
+
+def _parse_banks(text: str | None):
+    if text is None:
+        return None
+    try:
+        banks = [float(part) for part in text.split(",") if part.strip()]
+    except ValueError:
+        raise UsageProblem(f"--bank {text!r}: not a list of numbers; expected e.g. 0,20,40") from None
+    bad = [b for b in banks if not 0 <= b < 90]
+    if not banks or bad:
+        raise UsageProblem(f"--bank {text!r}: each bank must be 0 <= b < 90 degrees; expected e.g. 0,20,40")
+    return sorted(set(banks))
+
+
+def _print_problems(problems: list[Problem], stream) -> None:
+    for p in problems:
+        print(p, file=stream)
+
+
+def cmd_check(args) -> int:
+    files = expand_paths(args.profiles)
+    if not files:
+        print("kneeboard check: no profile files (*.toml) found", file=sys.stderr)
+        return EXIT_PROBLEMS
+    failed = 0
+    for path in files:
+        loaded = load_profile(path)
+        _print_problems(list(loaded.problems), sys.stdout)
+        if loaded.profile is None:
+            failed += 1
+            print(f"{path}: {len(loaded.errors)} error(s); no card can be made")
+            continue
+        a = loaded.profile.aircraft
+        names = ", ".join(c.name for c in loaded.profile.configurations)
+        warned = f", {len(loaded.warnings)} warning(s)" if loaded.warnings else ""
+        print(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(loaded.profile.configurations)} "
+              f"configuration(s): {names}; fingerprint {loaded.fingerprint}")
+    print(CAUTION)
+    return EXIT_PROBLEMS if failed else EXIT_OK
+
+
+def cmd_table(args) -> int:
+    weight = _parse_weight(args.weight)
+    banks = _parse_banks(args.bank)
+    loaded = load_profile(Path(args.profile))
+    machine = args.format != "text"
+    _print_problems(list(loaded.problems), sys.stderr)
+    if loaded.profile is None:
+        print(f"{args.profile}: {len(loaded.errors)} error(s); no table can be made", file=sys.stderr)
+        return EXIT_PROBLEMS
+    table = build(loaded.profile, weight, banks, args.speed_unit, args.distance_unit)
+    if weight is not None and table.over_max_weight:
+        print(f"warning: --weight {args.weight} is above the maximum weight", file=sys.stderr)
+    render = {"text": report.to_text, "csv": report.to_csv, "json": report.to_json}[args.format]
+    sys.stdout.write(render(table))
+    print(CAUTION, file=sys.stderr if machine else sys.stdout)
+    return EXIT_OK
+
+
+HANDLERS = {"check": cmd_check, "table": cmd_table}
+
+
+def main(argv: list[str] | None = None) -> int:
+    argv = sys.argv[1:] if argv is None else argv
+    parser = _parser()
+    args = parser.parse_args(argv)  # exits 2 with a usage message on bad options
+    if args.command is None:
+        parser.print_help()
+        return EXIT_OK
+    try:
+        return HANDLERS[args.command](args)
+    except UsageProblem as exc:
+        print(f"kneeboard {args.command}: {exc}", file=sys.stderr)
+        return EXIT_PROBLEMS
+    except KeyboardInterrupt:
+        print("kneeboard: interrupted", file=sys.stderr)
+        return 130
+    except Exception as exc:  # a bug, not bad input: one line, and the traceback on request
+        if os.environ.get("KNEEBOARD_DEBUG"):
+            raise
+        print(f"kneeboard: internal error, please report it: {type(exc).__name__}: {exc} "
+              "(set KNEEBOARD_DEBUG=1 for details)", file=sys.stderr)
+        return EXIT_BUG
+
+
+if __name__ == "__main__":
+    sys.exit(main())
+
+
+def main_exit() -> None:
+    """Console-script entry point."""
+    sys.exit(main())

@@ -1,0 +1,53 @@
+"""One error model for profiles and styles: every problem says where, what, and what would do."""
+
+from dataclasses import dataclass, replace
+from typing import Literal
+
+ERROR: Literal["error"] = "error"
+WARNING: Literal["warning"] = "warning"
+
+
+@dataclass(frozen=True)
+class Problem:
+    """Something wrong with one field of a profile or style file.
+
+    `path` names the field the way the file is organised, with 1-based indexes for repeated
+    tables ("configuration[2].stall_speed" is the second [[configuration]] table).
+    """
+
+    path: str  #: field path in the file
+    message: str  #: what is wrong
+    expected: str = ""  #: what would be accepted
+    value: object = None  #: the value as written, None when absent
+    severity: Literal["error", "warning"] = ERROR
+    file: str = ""  #: file the value came from
+
+    @property
+    def is_error(self) -> bool:
+        return self.severity == ERROR
+
+    def in_file(self, file: str) -> "Problem":
+        return replace(self, file=file)
+
+    def __str__(self) -> str:
+        where = f"{self.file}: " if self.file else ""
+        found = f" (found {_show(self.value)})" if self.value is not None else ""
+        wanted = f"; expected {self.expected}" if self.expected else ""
+        return f"{where}{self.severity}: {self.path}: {self.message}{found}{wanted}"
+
+
+def _show(value: object, limit: int = 40) -> str:
+    text = repr(value)
+    return text if len(text) <= limit else text[: limit - 3] + "..."
+
+
+class ProblemsError(Exception):
+    """Raised when a file cannot be used at all; carries every problem found."""
+
+    def __init__(self, problems: list[Problem]):
+        self.problems = list(problems)
+        super().__init__("\n".join(str(p) for p in self.problems))
+
+
+def errors(problems) -> list[Problem]:
+    return [p for p in problems if p.is_error]

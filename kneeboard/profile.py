@@ -1,0 +1,122 @@
+"""Aircraft profiles: immutable data, SI floats, validated on creation by `kneeboard.schema`.
+
+A profile holds what the flight manual publishes (stall speeds per configuration at a reference
+weight, weights, limits, a glider's polar) and what the card is for (the weight flown, the bank
+angles to print, units, the airfield's pressure altitude and temperature). Edits make new
+objects with `dataclasses.replace`; nothing here reads files or computes flight mechanics.
+"""
+
+from dataclasses import dataclass, replace
+
+CATEGORIES = ("normal", "utility", "acrobatic", "glider")
+SPEED_BASES = ("IAS", "CAS")
+DEFAULT_BANKS_DEG = (0.0, 15.0, 30.0, 45.0, 60.0)
+DEFAULT_PATTERN_FACTOR = 1.4
+AVGAS_DENSITY = 720.0  #: default fuel density [kg/m^3] (aviation gasoline, about 0.72 kg/L)
+
+
+@dataclass(frozen=True)
+class Calibration:
+    """Airspeed calibration pairs from the flight manual, both strictly ascending [m/s]."""
+
+    ias: tuple[float, ...]
+    cas: tuple[float, ...]
+
+
+@dataclass(frozen=True)
+class Configuration:
+    """One flap/gear configuration and the speeds the manual gives for it.
+
+    Speeds are in the profile's speed basis (IAS or CAS) [m/s] at the reference weight.
+    """
+
+    name: str
+    stall_speed: float  #: power off, wings level [m/s]
+    pattern_factor: float | None = DEFAULT_PATTERN_FACTOR  #: pattern speed / stall speed at card weight
+    pattern_speed: float | None = None  #: fixed pattern speed [m/s], instead of the factor
+    flap_limit_speed: float | None = None  #: VFE [m/s]
+    calibration: Calibration | None = None  #: own table; None uses the aircraft's
+
+
+@dataclass(frozen=True)
+class WeightItem:
+    """One item of a weight build-up; fuel and water may be given by volume."""
+
+    name: str
+    mass: float  #: [kg]
+    volume: float | None = None  #: [m^3] when the item was given by volume
+    density: float | None = None  #: [kg/m^3] when given by volume
+
+
+@dataclass(frozen=True)
+class Loading:
+    """The weight the card is made for: a total, or an empty weight plus items."""
+
+    total: float | None = None  #: [kg]
+    empty: float | None = None  #: [kg]
+    items: tuple[WeightItem, ...] = ()
+
+    @property
+    def mass(self) -> float:
+        """Total mass [kg]."""
+        if self.total is not None:
+            return self.total
+        return (self.empty or 0.0) + sum(item.mass for item in self.items)
+
+
+@dataclass(frozen=True)
+class Aircraft:
+    registration: str
+    model: str
+    category: str  #: one of CATEGORIES
+    max_weight: float  #: [kg]
+    reference_weight: float  #: weight the published speeds apply to [kg]
+    limit_load_factor: float  #: positive limit manoeuvring load factor [-]
+    maneuvering_speed: float | None = None  #: VA at reference weight [m/s]
+    speed_basis: str = "IAS"  #: how the file's speeds are given, one of SPEED_BASES
+    calibration: Calibration | None = None  #: flaps-up table, used by VA and configurations without one
+
+
+@dataclass(frozen=True)
+class Polar:
+    """A glider's measured speed polar: calibrated airspeed against sink rate [m/s]."""
+
+    weight: float  #: weight the polar was measured at [kg]
+    speeds: tuple[float, ...]
+    sinks: tuple[float, ...]  #: positive downward
+
+
+@dataclass(frozen=True)
+class CardSettings:
+    bank_angles_deg: tuple[float, ...] = DEFAULT_BANKS_DEG  #: ascending, each 0 <= b < 90
+    speed_unit: str = "kt"
+    distance_unit: str = "ft"
+    weight_unit: str = "kg"
+    buffer: float = 0.0  #: least margin the pilot wants to keep [m/s]
+    pressure_altitude: float = 0.0  #: where the turn figures apply [m]
+    temperature: float | None = None  #: outside air temperature [K]; None = standard
+    notes: str = ""
+
+
+@dataclass(frozen=True)
+class Profile:
+    aircraft: Aircraft
+    configurations: tuple[Configuration, ...]
+    card: CardSettings = CardSettings()
+    loading: Loading | None = None  #: None: the card is for the reference weight
+    glider: Polar | None = None
+
+    @property
+    def weight(self) -> float:
+        """The weight the card is computed for [kg]."""
+        return self.aircraft.reference_weight if self.loading is None else self.loading.mass
+
+    def with_weight(self, weight: float) -> "Profile":
+        """The same profile computed for another total weight [kg]."""
+        return replace(self, loading=Loading(total=weight))
+
+    def with_card(self, **changes) -> "Profile":
+        return replace(self, card=replace(self.card, **changes))
+
+    def calibration_for(self, configuration: Configuration) -> Calibration | None:
+        return configuration.calibration or self.aircraft.calibration

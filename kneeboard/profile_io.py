@@ -1,0 +1,111 @@
+"""Profile files: the only module that reads or writes TOML for profiles.
+
+Loading parses with the standard library's strict `tomllib`. Editing and saving go through a
+`tomlkit` document, which keeps the person's comments, key order, unknown keys and every value
+exactly as typed, so a save after an edit changes only the edited value.
+"""
+
+import hashlib
+import json
+import tomllib
+from dataclasses import dataclass
+from pathlib import Path
+
+import tomlkit
+
+from kneeboard.fileio import FileProblem, read_text, write_atomic
+from kneeboard.problems import Problem
+from kneeboard.profile import Profile
+from kneeboard.schema import profile_from_data
+
+PROFILE_SUFFIX = ".toml"
+
+
+def parse_text(text: str) -> tuple[dict | None, list[Problem]]:
+    """Plain data of a profile text, or None and the problem saying where the TOML is broken."""
+    try:
+        return tomllib.loads(text), []
+    except tomllib.TOMLDecodeError as exc:
+        return None, [Problem("(file)", f"is not valid TOML: {exc}", "a TOML file as described in the README")]
+    except RecursionError:
+        return None, [Problem("(file)", "nests too deeply to be a profile", "a TOML file as described in the README")]
+
+
+@dataclass(frozen=True)
+class ProfileFile:
+    """One profile file as read: the profile (None when it has errors) and every problem found."""
+
+    path: Path | None
+    profile: Profile | None
+    problems: tuple[Problem, ...]
+    fingerprint: str  #: short hash of the file's data, printed on the card; "" when unreadable
+
+    @property
+    def errors(self) -> list[Problem]:
+        return [p for p in self.problems if p.is_error]
+
+    @property
+    def warnings(self) -> list[Problem]:
+        return [p for p in self.problems if not p.is_error]
+
+
+def fingerprint(data: dict) -> str:
+    """Eight hex digits identifying a profile's data (not its comments or layout).
+
+    A card shows it so a pilot can tell whether the card was printed from the current profile.
+    """
+    canonical = json.dumps(data, sort_keys=True, ensure_ascii=True, separators=(",", ":"), default=str)
+    return hashlib.sha256(canonical.encode()).hexdigest()[:8].upper()
+
+
+def load_profile(path: Path) -> ProfileFile:
+    """Read and validate one profile file; never raises for anything the file contains."""
+    path = Path(path)
+    try:
+        text = read_text(path)
+    except FileProblem as exc:
+        return ProfileFile(path, None, (Problem("(file)", str(exc).removeprefix(f"{path}: "), file=str(path)),), "")
+    return profile_from_text(text, path)
+
+
+def profile_from_text(text: str, path: Path | None = None) -> ProfileFile:
+    data, problems = parse_text(text)
+    return profile_from_plain(data, path) if data is not None else ProfileFile(
+        path, None, tuple(p.in_file(str(path or "")) for p in problems), "")
+
+
+def profile_from_plain(data: dict, path: Path | None = None) -> ProfileFile:
+    """Validate already parsed data (from tomllib, or a tomlkit document's unwrap())."""
+    profile, problems = profile_from_data(data)
+    return ProfileFile(path, profile, tuple(p.in_file(str(path or "")) for p in problems), fingerprint(data))
+
+
+def load_document(path: Path) -> tomlkit.TOMLDocument:
+    """The editable document of a profile file; raises FileProblem when it cannot be parsed."""
+    return document_from_text(read_text(Path(path)), str(path))
+
+
+def document_from_text(text: str, file: str = "") -> tomlkit.TOMLDocument:
+    try:
+        return tomlkit.parse(text)
+    except Exception as exc:  # tomlkit raises its own ParseError family and occasionally others
+        raise FileProblem(f"{file}: is not valid TOML: {exc}") from None
+
+
+def save_document(document: tomlkit.TOMLDocument, path: Path) -> None:
+    """Write an edited document back, atomically."""
+    write_atomic(Path(path), tomlkit.dumps(document))
+
+
+def profile_files(folder: Path) -> list[Path]:
+    """The profile files of a folder (not its sub-folders), sorted by file name."""
+    return sorted(p for p in Path(folder).iterdir() if p.suffix == PROFILE_SUFFIX and p.is_file()
+                  and not p.name.startswith("."))
+
+
+def expand_paths(paths) -> list[Path]:
+    """Profile files named on a command line: files as given, folders expanded to their profiles."""
+    result = []
+    for p in map(Path, paths):
+        result.extend(profile_files(p) if p.is_dir() else [p])
+    return result

@@ -1,0 +1,165 @@
+"""Tables as text, CSV and JSON: the command line's output and the app's CSV export.
+
+Text and CSV print the card's rounded figures; JSON is the stable machine interface and
+carries full precision (see the README for its keys).
+"""
+
+import csv
+import io
+import json
+import math
+
+import numpy as np
+
+from kneeboard import units
+from kneeboard.tables import BUFFER, STALL, CardTable
+
+JSON_SCHEMA = 1
+
+
+def _opt(x):
+    return None if x is None or not math.isfinite(x) else float(x)
+
+
+def to_json_data(table: CardTable) -> dict:
+    """The machine interface: IAS in the chosen speed unit, distances in the distance unit, full precision."""
+    r = table.results
+    su, du = table.speed_unit, table.distance_unit
+
+    def spd(x):
+        return _opt(None if x is None else float(units.from_si(x, units.SPEED, su)))
+
+    def dist(x):
+        return _opt(float(units.from_si(x, units.LENGTH, du)))
+
+    configurations = []
+    for c in r.configurations:
+        rows = [
+            {
+                "bank_deg": float(np.degrees(b)),
+                "load_factor": float(n),
+                "stall_speed": spd(vs),
+                "margin": spd(m),
+                "turn_radius": dist(rad),
+                "turn_rate_deg_s": float(np.degrees(rate)),
+            }
+            for b, n, vs, m, rad, rate in zip(c.bank, c.load_factor, c.stall_speed, c.margin, c.turn_radius,
+                                              c.turn_rate)
+        ]
+        configurations.append({
+            "name": c.name,
+            "stall_speed": spd(c.level_stall_speed),
+            "pattern_speed": spd(c.pattern_speed),
+            "zero_margin_bank_deg": float(np.degrees(c.zero_margin_bank)),
+            "buffer_bank_deg": None if c.buffer_bank is None else float(np.degrees(c.buffer_bank)),
+            "rows": rows,
+        })
+    glider = None
+    if r.glider is not None:
+        g = r.glider
+        glider = {
+            "min_sink_speed": spd(g.min_sink_speed),
+            "min_sink_rate_m_s": float(g.min_sink_rate),
+            "rows": [
+                {
+                    "bank_deg": float(np.degrees(b)),
+                    "speed": spd(v),
+                    "sink_rate_m_s": float(s),
+                    "turn_radius": dist(rad),
+                    "circle_time_s": _opt(float(t)),
+                    "height_loss_180": dist(h),
+                }
+                for b, v, s, rad, t, h in zip(g.bank, g.speed, g.sink_rate, g.turn_radius, g.circle_time,
+                                              g.height_loss_180)
+            ],
+        }
+    return {
+        "schema": JSON_SCHEMA,
+        "registration": table.registration,
+        "model": table.model,
+        "weight_kg": float(r.weight),
+        "speed_unit": su,
+        "distance_unit": du,
+        "limit_load_factor": float(r.limit_load_factor),
+        "limit_bank_deg": float(np.degrees(r.limit_bank)),
+        "maneuvering_speed": spd(r.maneuvering_speed),
+        "configurations": configurations,
+        "glider": glider,
+    }
+
+
+def to_json(table: CardTable) -> str:
+    return json.dumps(to_json_data(table), indent=2)
+
+
+def _mark(row) -> str:
+    marks = {STALL: "STALL", BUFFER: "<buffer"}.get(row.state, "")
+    if row.over_limit:
+        marks += " >limit"
+    if row.extrapolated:
+        marks += " ~cal"
+    return marks.strip()
+
+
+def to_csv(table: CardTable) -> str:
+    """One line per configuration and bank, rounded figures as printed on the card."""
+    out = io.StringIO()
+    w = csv.writer(out, lineterminator="\n")
+    su, du = table.speed_unit, table.distance_unit
+    w.writerow(["registration", "configuration", "bank_deg", "load_factor", f"stall_speed_{su}",
+                f"pattern_speed_{su}", f"margin_{su}", f"turn_radius_{du}", "time_180_s", "time_360_s", "note"])
+    for c in table.configurations:
+        for row in c.rows:
+            w.writerow([table.registration, c.name, row.bank_text, row.load_factor.text, row.stall_speed.text,
+                        c.pattern_speed.text, row.margin.text, _text(row.turn_radius), _text(row.time_180),
+                        _text(row.time_360), _mark(row)])
+    return out.getvalue()
+
+
+def _text(printed) -> str:
+    return "" if printed is None else printed.text
+
+
+def to_text(table: CardTable) -> str:
+    """A plain-text table for a terminal, figures as the card prints them."""
+    su, du = table.speed_unit, table.distance_unit
+    lines = [
+        f"{table.registration}  {table.model}",
+        f"weight {table.weight.text} {table.weight_unit} (speeds published at {table.reference_weight.text} "
+        f"{table.weight_unit}){'  ABOVE MAXIMUM WEIGHT' if table.over_max_weight else ''}",
+        f"limit load factor {table.limit_load_factor.text} (level-turn bank {table.limit_bank.text} deg)"
+        + (f", maneuvering speed at this weight {table.maneuvering_speed.text} {su}" if table.maneuvering_speed
+           else ""),
+        f"turns at pressure altitude {table.pressure_altitude.text} {du}, {table.temperature_c.text} degC, "
+        f"density altitude {table.density_altitude.text} {du}; buffer {table.buffer.text} {su}",
+    ]
+    for c in table.configurations:
+        buffer_bank = f"{c.buffer_bank.text} deg" if c.buffer_bank else "none (margin below buffer)"
+        lines += [
+            "",
+            f"{c.name}: stall {c.stall_speed.text} {su}, pattern {c.pattern_speed.text} {su}, "
+            f"zero margin at {c.zero_margin_bank.text} deg, buffer kept to {buffer_bank}"
+            + (f", flap limit {c.flap_limit_speed.text} {su}" if c.flap_limit_speed else ""),
+            f"{'bank':>5} {'n':>5} {'stall':>6} {'margin':>7} {'radius':>7} {'180':>5} {'360':>5}",
+            f"{'deg':>5} {'':>5} {su:>6} {su:>7} {du:>7} {'s':>5} {'s':>5}",
+        ]
+        for row in c.rows:
+            lines.append(
+                f"{row.bank_text:>5} {row.load_factor.text:>5} {row.stall_speed.text:>6} {row.margin.text:>7} "
+                f"{_text(row.turn_radius):>7} {_text(row.time_180):>5} {_text(row.time_360):>5}  {_mark(row)}"
+            )
+    if table.glider:
+        g = table.glider
+        lines += [
+            "",
+            f"circling at minimum-sink angle of attack (straight: {g.min_sink_speed.text} {su}, "
+            f"sink {g.min_sink_rate.text} {table.sink_unit})",
+            f"{'bank':>5} {'speed':>6} {'sink':>5} {'radius':>7} {'circle':>7} {'180 loss':>9}",
+            f"{'deg':>5} {su:>6} {table.sink_unit:>5} {du:>7} {'s':>7} {du:>9}",
+        ]
+        for row in g.rows:
+            lines.append(f"{row.bank_text:>5} {row.speed.text:>6} {row.sink_rate.text:>5} "
+                         f"{_text(row.turn_radius):>7} {_text(row.circle_time):>7} {_text(row.height_loss_180):>9}")
+    if table.notes:
+        lines += ["", f"notes: {table.notes}"]
+    return "\n".join(lines) + "\n"

@@ -1,0 +1,220 @@
+"""The table builder: computed results turned into the figures a card prints, in the card's units.
+
+Every figure is rounded once, conservatively (see `kneeboard.rounding`), and carries its
+printed text; the card layout prints these texts and never re-rounds. Full precision stays in
+`kneeboard.compute.Results` for machine output.
+"""
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from kneeboard import rounding, units
+from kneeboard.compute import Results, compute
+from kneeboard.profile import Profile
+
+OK, BUFFER, STALL = "ok", "below-buffer", "stalled"  #: row states of a configuration table
+SINK_UNIT = {"m": "m/s", "ft": "kt"}  #: sink rates as a variometer in that country reads them
+SPEED_STEP = 1.0  #: printed speed resolution, in the speed unit
+LOAD_STEP = 0.01
+SINK_STEP = 0.1
+
+
+@dataclass(frozen=True)
+class Printed:
+    """A figure as printed: the conservatively rounded number and its text."""
+
+    value: float
+    text: str
+
+
+def _up(x, step=1.0) -> Printed:
+    v = rounding.up(x, step)
+    return Printed(v, rounding.text(v, step))
+
+
+def _down(x, step=1.0) -> Printed:
+    v = rounding.down(x, step)
+    return Printed(v, rounding.text(v, step))
+
+
+def _finite_up(x, step=1.0) -> Printed | None:
+    return _up(x, step) if math.isfinite(x) else None
+
+
+@dataclass(frozen=True)
+class BankRow:
+    bank_deg: float
+    bank_text: str
+    load_factor: Printed  #: rounded up
+    stall_speed: Printed  #: rounded up
+    margin: Printed  #: rounded down; negative when stalled
+    state: str  #: OK, BUFFER (margin below the buffer) or STALL (no margin left)
+    over_limit: bool  #: load factor above the limit load factor
+    extrapolated: bool  #: the calibration table was extrapolated for this stall speed
+    turn_radius: Printed | None  #: at the pattern speed, rounded up; None at 0 bank
+    time_180: Printed | None  #: [s] rounded up
+    time_360: Printed | None  #: [s] rounded up
+
+
+@dataclass(frozen=True)
+class ConfigurationTable:
+    name: str
+    stall_speed: Printed  #: wings level at the card weight, rounded up
+    pattern_speed: Printed  #: rounded up: flying the printed figure keeps at least the printed margin
+    zero_margin_bank: Printed  #: rounded down
+    buffer_bank: Printed | None  #: rounded down; None when the wings-level margin is below the buffer
+    flap_limit_speed: Printed | None  #: rounded down
+    rows: tuple[BankRow, ...]
+
+
+@dataclass(frozen=True)
+class GliderRow:
+    bank_deg: float
+    bank_text: str
+    speed: Printed  #: rounded up
+    sink_rate: Printed  #: rounded up, in the sink unit
+    turn_radius: Printed | None
+    circle_time: Printed | None  #: [s]
+    height_loss_180: Printed | None  #: in the distance unit
+
+
+@dataclass(frozen=True)
+class GliderTable:
+    min_sink_speed: Printed
+    min_sink_rate: Printed
+    rows: tuple[GliderRow, ...]
+
+
+@dataclass(frozen=True)
+class CardTable:
+    """Everything a card prints, already rounded and in the card's units."""
+
+    registration: str
+    model: str
+    speed_unit: str
+    distance_unit: str
+    weight_unit: str
+    sink_unit: str
+    weight: Printed  #: card weight, rounded up
+    reference_weight: Printed  #: rounded to nearest (a datum, not a safety figure)
+    max_weight: Printed
+    over_max_weight: bool
+    buffer: Printed
+    limit_load_factor: Printed
+    limit_bank: Printed  #: rounded down
+    maneuvering_speed: Printed | None  #: at card weight, rounded down
+    pressure_altitude: Printed
+    temperature_c: Printed
+    density_altitude: Printed  #: rounded up to 100 ft / 50 m
+    configurations: tuple[ConfigurationTable, ...]
+    glider: GliderTable | None
+    notes: str
+    results: Results  #: full precision, for machine output
+
+
+def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_unit=None,
+          distance_unit=None) -> CardTable:
+    """Compute `profile` and turn it into printed figures; units default to the profile's card settings."""
+    results = compute(profile, weight, banks_deg)
+    card = profile.card
+    su = speed_unit or card.speed_unit
+    du = distance_unit or card.distance_unit
+    wu = card.weight_unit
+    sink_unit = SINK_UNIT[du]
+
+    def spd(x):
+        return float(units.from_si(x, units.SPEED, su))
+
+    def dist(x):
+        return float(units.from_si(x, units.LENGTH, du))
+
+    def mass(x):
+        return float(units.from_si(x, units.MASS, wu))
+
+    configurations = tuple(_configuration(r, card.buffer, results.limit_load_factor, spd, dist)
+                           for r in results.configurations)
+    glider = None
+    if results.glider is not None:
+        g = results.glider
+
+        def sink(x):
+            return float(units.from_si(x, units.SPEED, sink_unit))
+
+        glider = GliderTable(
+            min_sink_speed=_up(spd(g.min_sink_speed)),
+            min_sink_rate=_up(sink(g.min_sink_rate), SINK_STEP),
+            rows=tuple(
+                GliderRow(
+                    bank_deg=float(np.degrees(b)),
+                    bank_text=_bank_text(b),
+                    speed=_up(spd(v)),
+                    sink_rate=_up(sink(s), SINK_STEP),
+                    turn_radius=_finite_up(dist(r)),
+                    circle_time=_finite_up(float(t)),
+                    height_loss_180=_finite_up(dist(h)),
+                )
+                for b, v, s, r, t, h in zip(g.bank, g.speed, g.sink_rate, g.turn_radius, g.circle_time,
+                                            g.height_loss_180)
+            ),
+        )
+    alt_step = 100.0 if du == "ft" else 50.0
+    return CardTable(
+        registration=profile.aircraft.registration,
+        model=profile.aircraft.model,
+        speed_unit=su,
+        distance_unit=du,
+        weight_unit=wu,
+        sink_unit=sink_unit,
+        weight=_up(mass(results.weight)),
+        reference_weight=Printed(rounding.nearest(mass(results.reference_weight)),
+                                 rounding.text(rounding.nearest(mass(results.reference_weight)), 1)),
+        max_weight=_down(mass(results.max_weight)),
+        over_max_weight=results.over_max_weight,
+        buffer=_up(spd(card.buffer)),
+        limit_load_factor=_down(results.limit_load_factor, 0.1),
+        limit_bank=_down(math.degrees(results.limit_bank)),
+        maneuvering_speed=None if results.maneuvering_speed is None else _down(spd(results.maneuvering_speed)),
+        pressure_altitude=_up(dist(results.pressure_altitude), 1.0),
+        temperature_c=Printed(round(results.temperature - 273.15), f"{round(results.temperature - 273.15):.0f}"),
+        density_altitude=_up(dist(results.density_altitude), alt_step),
+        configurations=configurations,
+        glider=glider,
+        notes=card.notes,
+        results=results,
+    )
+
+
+def _bank_text(bank_rad: float) -> str:
+    return f"{math.degrees(bank_rad):.4g}".rstrip(".")
+
+
+def _configuration(r, buffer: float, n_limit: float, spd, dist) -> ConfigurationTable:
+    rows = []
+    for i, b in enumerate(r.bank):
+        margin = float(r.margin[i])
+        state = STALL if margin <= 0.0 else BUFFER if margin < buffer else OK
+        level = b == 0.0
+        rows.append(BankRow(
+            bank_deg=float(np.degrees(b)),
+            bank_text=_bank_text(b),
+            load_factor=_up(float(r.load_factor[i]), LOAD_STEP),
+            stall_speed=_up(spd(r.stall_speed[i])),
+            margin=_down(spd(margin)),
+            state=state,
+            over_limit=bool(r.load_factor[i] > n_limit),
+            extrapolated=bool(r.stall_extrapolated[i]),
+            turn_radius=None if level else _up(dist(r.turn_radius[i])),
+            time_180=None if level else _up(float(r.time_180[i])),
+            time_360=None if level else _up(float(r.time_360[i])),
+        ))
+    return ConfigurationTable(
+        name=r.name,
+        stall_speed=_up(spd(r.level_stall_speed)),
+        pattern_speed=_up(spd(r.pattern_speed)),
+        zero_margin_bank=_down(math.degrees(r.zero_margin_bank)),
+        buffer_bank=None if r.buffer_bank is None else _down(math.degrees(r.buffer_bank)),
+        flap_limit_speed=None if r.flap_limit_speed is None else _down(spd(r.flap_limit_speed)),
+        rows=tuple(rows),
+    )

@@ -1,0 +1,162 @@
+"""The one pint registry of kneeboard: every quantity is parsed and formatted here and nowhere else.
+
+A profile value is a string of a number and a unit ("52 kt", "1150 kg", "15 degC"). It is
+parsed with a strict pattern (a plain decimal number, then a unit expression that pint
+resolves) rather than pint's expression evaluator, so a file can only ever yield a number of
+the expected kind: no arithmetic, no powers that take forever, nothing executed.
+"""
+
+import math
+import re
+from dataclasses import dataclass
+from functools import lru_cache
+
+import pint
+
+ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
+# Spellings pilots write that pint does not know.
+ureg.define("kts = knot")
+ureg.define("fpm = foot / minute")
+
+
+@dataclass(frozen=True)
+class Kind:
+    """A kind of physical quantity a profile field holds."""
+
+    name: str  #: what a person calls it: "speed"
+    dimensionality: str  #: pint dimensionality it must have
+    si_unit: str  #: unit of the float the program works with
+    examples: str  #: what would be accepted, for messages
+
+
+SPEED = Kind("speed", "[length] / [time]", "m/s", '"52 kt", "96 km/h" or "60 mph"')
+MASS = Kind("mass", "[mass]", "kg", '"750 kg" or "1650 lb"')
+LENGTH = Kind("length", "[length]", "m", '"1000 ft" or "300 m"')
+VOLUME = Kind("volume", "[length] ** 3", "m**3", '"100 L" or "26 gal"')
+DENSITY = Kind("density", "[mass] / [length] ** 3", "kg/m**3", '"0.72 kg/L"')
+TEMPERATURE = Kind("temperature", "[temperature]", "K", '"15 degC", "59 degF" or "288 K"')
+
+#: Display units a card may use, as written in profiles and styles.
+SPEED_UNITS = ("kt", "mph", "km/h")
+DISTANCE_UNITS = ("ft", "m")
+WEIGHT_UNITS = ("kg", "lb")
+
+MAX_TEXT = 64
+_NUMBER_UNIT = re.compile(r"\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*\Z")
+_UNIT_CHARS = re.compile(r"[A-Za-z_°µ/*^ .()0-9-]+\Z")
+
+
+class QuantityError(ValueError):
+    """A value that is not a quantity of the expected kind; `expected` says what would be."""
+
+    def __init__(self, message: str, expected: str):
+        super().__init__(message)
+        self.expected = expected
+
+
+@lru_cache(maxsize=512)
+def _unit(text: str):
+    """Resolve a unit expression once; pint objects are immutable, so caching is safe."""
+    if not _UNIT_CHARS.match(text):
+        raise QuantityError(f"{text!r} is not a unit", "")
+    try:
+        return ureg.parse_units(text)
+    except Exception as exc:  # pint raises several unrelated types for junk
+        raise QuantityError(f"unknown unit {text!r}", "") from exc
+
+
+@lru_cache(maxsize=512)
+def _factor(unit_text: str, si_unit: str) -> float:
+    return float(ureg.Quantity(1.0, _unit(unit_text)).to(si_unit).magnitude)
+
+
+def split(text: str) -> tuple[float, str]:
+    """Split "52 kt" into (52.0, "kt"); raises QuantityError when it is not number-and-unit."""
+    m = _NUMBER_UNIT.match(text) if len(text) <= MAX_TEXT else None
+    if not m:
+        raise QuantityError("not a number followed by a unit", "")
+    return float(m.group(1)), m.group(2)
+
+
+def parse(value: object, kind: Kind) -> float:
+    """Parse a profile value into the SI float of `kind`; raises QuantityError with the reason.
+
+    Accepts only a string "number unit" whose unit has the dimension of `kind`.
+    """
+    expected = f"a {kind.name} such as {kind.examples}"
+    if isinstance(value, bool) or not isinstance(value, str):
+        if isinstance(value, (int, float)):
+            raise QuantityError("a bare number has no unit; write it with its unit", expected)
+        raise QuantityError(f"expected text with a number and a unit, not {type(value).__name__}", expected)
+    if len(value) > MAX_TEXT:
+        raise QuantityError(f"text of {len(value)} characters is too long for a quantity", expected)
+    try:
+        number, unit_text = split(value)
+        if not unit_text:
+            raise QuantityError("the unit is missing", expected)
+        unit = _unit(unit_text)
+    except QuantityError as exc:
+        raise QuantityError(str(exc), expected) from None
+    if not math.isfinite(number):
+        raise QuantityError("the number is too large", expected)
+    if unit.dimensionality != ureg.get_dimensionality(kind.dimensionality):
+        raise QuantityError(f"{unit_text!r} is a unit of {_describe(unit)}, not of {kind.name}", expected)
+    if kind is TEMPERATURE:
+        if "delta" in str(unit):
+            raise QuantityError(f"{unit_text!r} is a temperature difference, not a temperature", expected)
+        result = float(ureg.Quantity(number, unit).to("K").magnitude)
+    else:
+        if unit.dimensionality == ureg.get_dimensionality("[temperature]"):
+            raise QuantityError("a temperature unit here makes no sense", expected)
+        result = number * _factor(unit_text, kind.si_unit)
+    if not math.isfinite(result):
+        raise QuantityError("the number is too large", expected)
+    return result
+
+
+def _describe(unit) -> str:
+    dims = unit.dimensionality
+    for kind in (SPEED, MASS, LENGTH, VOLUME, DENSITY, TEMPERATURE):
+        if dims == ureg.get_dimensionality(kind.dimensionality):
+            return kind.name
+    return str(dims) if dims else "a pure number"
+
+
+def unit_of(value: str) -> str:
+    """The unit part of a quantity string as written ("kt" of "52 kt"); "" when there is none."""
+    try:
+        return split(value)[1]
+    except QuantityError:
+        return ""
+
+
+def display_unit(value: object, options: tuple[str, ...]) -> str | None:
+    """Which of the display `options` the unit of a written quantity is ("knots" -> "kt"), or None."""
+    if not isinstance(value, str):
+        return None
+    try:
+        unit_text = split(value)[1]
+        for option in options:
+            same_kind = _unit(option).dimensionality == _unit(unit_text).dimensionality
+            if same_kind and abs(_factor(unit_text, option) - 1.0) < 1e-12:
+                return option
+        return None
+    except QuantityError:
+        return None
+
+
+def from_si(value, kind: Kind, unit: str):
+    """Express an SI float (or numpy array) of `kind` in `unit` ("kt", "ft", "lb"...)."""
+    if kind is TEMPERATURE:
+        return ureg.Quantity(value, "K").to(unit).magnitude
+    return value / _factor(unit, kind.si_unit)
+
+
+def to_si(value, kind: Kind, unit: str):
+    """Express a number (or numpy array) given in `unit` as the SI float of `kind`."""
+    return value * _factor(unit, kind.si_unit)
+
+
+def format_quantity(value: float, kind: Kind, unit: str, decimals: int = 0) -> str:
+    """Format an SI float as text in `unit`, e.g. "52 kt", so it parses back to (about) the same."""
+    return f"{from_si(value, kind, unit):.{decimals}f} {unit}"

@@ -1,0 +1,119 @@
+"""Level-turn mechanics against the FAA handbooks (sources named at each check)."""
+
+import math
+
+import numpy as np
+import pytest
+from hypothesis import given
+from hypothesis import strategies as st
+
+from kneeboard.aero import turns
+from kneeboard.aero.atmosphere import G0
+
+KT = 1852.0 / 3600.0
+
+
+@pytest.mark.parametrize(
+    "bank_deg, n, rel",
+    [
+        # FAA-CT-8080-2H figure 2 "Load Factor Chart", same chart in FAA-H-8083-25 (PHAK),
+        # "Aerodynamics of Flight": printed values.
+        (0, 1.0, 1e-9),
+        (10, 1.015, 1e-3),
+        (30, 1.154, 1e-3),
+        (45, 1.414, 1e-3),
+        (60, 2.000, 1e-9),
+        (70, 2.923, 1e-3),
+        (80, 5.76, 5e-3),  # the chart prints 5.747; exact 5.7588 (../shared/REFERENCES.md)
+    ],
+)
+def test_load_factor_matches_faa_chart(bank_deg, n, rel):
+    assert turns.load_factor(math.radians(bank_deg)) == pytest.approx(n, rel=rel)
+
+
+@pytest.mark.parametrize("bank_deg, increase", [(30, 0.0746), (45, 0.1892), (60, 0.4142)])
+def test_stall_speed_increase_in_bank(bank_deg, increase):
+    # PHAK (FAA-H-8083-25) load factor chart: stall speed rises with sqrt(n); about 7 %, 19 %, 41 %.
+    vs = 50 * KT
+    assert turns.stall_speed_in_bank(vs, math.radians(bank_deg)) / vs - 1 == pytest.approx(increase, abs=5e-4)
+
+
+def test_fifty_knot_stall_becomes_hundred_at_four_g():
+    # FAA-H-8083-25A, "Load Factors and Stalling Speeds": a 50 kt stall speed becomes 100 kt at 4 G.
+    bank_4g = math.acos(1 / 4)
+    assert turns.stall_speed_in_bank(50 * KT, bank_4g) / KT == pytest.approx(100.0)
+
+
+def test_three_g_at_seventy_degrees():
+    # FAA-H-8083-3A (Airplane Flying Handbook), chapter 9: about 3 G at 70 degrees of bank.
+    assert turns.load_factor(math.radians(70)) == pytest.approx(3.0, abs=0.1)
+
+
+def test_pattern_factor_1_4_leaves_no_margin_near_60_degrees():
+    # Common practice, no source: 1.4 x stall speed leaves zero margin at about 60 degrees (sqrt(2) = 1.414).
+    vs = 47 * KT
+    bank = turns.bank_at_stall_speed(vs, 1.4 * vs)
+    assert math.degrees(bank) == pytest.approx(60, abs=1.0)
+    # and exactly sqrt(2) gives exactly 60 degrees
+    assert math.degrees(turns.bank_at_stall_speed(vs, math.sqrt(2) * vs)) == pytest.approx(60.0)
+
+
+def test_bank_at_stall_speed_none_below_level_stall():
+    assert np.isnan(turns.bank_at_stall_speed(50.0, 40.0))
+    assert turns.bank_at_stall_speed(50.0, 50.0) == pytest.approx(0.0)
+
+
+def test_turn_radius_and_rate_si_exact():
+    # R = V^2 / (g tan phi), omega = g tan phi / V (FAA-H-8083-15, Instrument Flying Handbook): SI exactly.
+    v, phi = 61.73, math.radians(30)
+    assert turns.turn_radius(v, phi) == pytest.approx(v**2 / (G0 * math.tan(phi)), rel=1e-12)
+    assert turns.turn_rate(v, phi) == pytest.approx(G0 * math.tan(phi) / v, rel=1e-12)
+    assert turns.turn_time(v, phi, 2 * math.pi) == pytest.approx(2 * math.pi * v / (G0 * math.tan(phi)))
+
+
+def test_handbook_worked_example_120_kt_30_degrees():
+    # FAA-H-8083-25A "Rate of Turn": 120 kt at 30 degrees, 5.25 deg/s and 68.6 s per 360 degrees;
+    # "Radius of Turn": about 2,214 ft. The handbook's constants are rounded: within 0.5 %.
+    v, phi = 120 * KT, math.radians(30)
+    assert math.degrees(turns.turn_rate(v, phi)) == pytest.approx(5.25, rel=5e-3)
+    assert turns.turn_time(v, phi, 2 * math.pi) == pytest.approx(68.6, rel=5e-3)
+    assert turns.turn_radius(v, phi) / 0.3048 == pytest.approx(2214, rel=5e-3)
+
+
+@given(st.floats(40, 250), st.floats(1, 80))
+def test_handbook_forms_within_half_a_percent(v_kt, bank_deg):
+    # PHAK forms R[ft] = V[kt]^2 / (11.26 tan phi), rate = 1091 tan phi / V[kt]; exact constants 11.29 and 1092.2.
+    phi = math.radians(bank_deg)
+    radius_ft = turns.turn_radius(v_kt * KT, phi) / 0.3048
+    rate_deg = math.degrees(turns.turn_rate(v_kt * KT, phi))
+    assert radius_ft == pytest.approx(v_kt**2 / (11.26 * math.tan(phi)), rel=5e-3)
+    assert rate_deg == pytest.approx(1091 * math.tan(phi) / v_kt, rel=5e-3)
+
+
+@pytest.mark.parametrize("v_kt, bank_deg", [(100, 15.4), (120, 18.3)])
+def test_standard_rate_bank(v_kt, bank_deg):
+    # FAA-H-8083-15 (IFH) chapter 7: standard-rate bank is about 15 % of TAS (100 kt -> 15, 120 kt -> 18);
+    # the exact banks are 15.4 and 18.3 degrees (computed).
+    bank = math.degrees(turns.bank_for_turn_rate(v_kt * KT, math.radians(3)))
+    assert bank == pytest.approx(bank_deg, abs=0.1)
+    assert bank == pytest.approx(0.15 * v_kt, abs=0.6)  # the rule of thumb, as an approximation
+
+
+def test_limit_bank():
+    # Level-turn bank at the limit load factor: arccos(1 / n). 3.8 -> 74.7 degrees (computed).
+    assert math.degrees(turns.limit_bank(3.8)) == pytest.approx(74.74, abs=0.01)
+    assert math.degrees(turns.limit_bank(2.0)) == pytest.approx(60.0)
+
+
+@given(st.floats(10, 200), st.floats(0, 89), st.floats(0, 89))
+def test_stall_speed_rises_with_bank(vs, a, b):
+    lo, hi = sorted((a, b))
+    assert turns.stall_speed_in_bank(vs, math.radians(lo)) <= turns.stall_speed_in_bank(vs, math.radians(hi))
+
+
+def test_vectorised_over_banks_and_aircraft():
+    vs = np.array([[40.0], [50.0]]) * KT  # two aircraft
+    banks = np.radians([0, 30, 60])  # three banks
+    out = turns.stall_speed_in_bank(vs, banks)
+    assert out.shape == (2, 3)
+    assert out[1, 2] / KT == pytest.approx(50 * math.sqrt(2))

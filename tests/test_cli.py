@@ -1,0 +1,118 @@
+"""The command line as a person or a script uses it: exit codes, messages, the JSON interface."""
+
+import json
+import subprocess
+import sys
+
+import pytest
+from conftest import MINIMAL, SAMPLES
+
+from kneeboard.cli import main
+
+JSON_KEYS = {"schema", "registration", "model", "weight_kg", "speed_unit", "distance_unit", "limit_load_factor",
+             "limit_bank_deg", "maneuvering_speed", "configurations", "glider"}
+CONFIG_KEYS = {"name", "stall_speed", "pattern_speed", "zero_margin_bank_deg", "buffer_bank_deg", "rows"}
+ROW_KEYS = {"bank_deg", "load_factor", "stall_speed", "margin", "turn_radius", "turn_rate_deg_s"}
+GLIDER_KEYS = {"min_sink_speed", "min_sink_rate_m_s", "rows"}
+GLIDER_ROW_KEYS = {"bank_deg", "speed", "sink_rate_m_s", "turn_radius", "circle_time_s", "height_loss_180"}
+
+
+def run(capsys, *args):
+    code = main(list(args))
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def test_check_all_samples(capsys):
+    code, out, _ = run(capsys, "check", str(SAMPLES))
+    assert code == 0
+    assert out.count(": ok") == len(list(SAMPLES.glob("*.toml")))
+    assert "flight manual" in out  # the caution
+
+
+@pytest.mark.parametrize("path", sorted(SAMPLES.glob("*.toml")), ids=lambda p: p.stem)
+def test_table_json_keys(capsys, path):
+    code, out, err = run(capsys, "table", str(path), "--format", "json")
+    assert code == 0
+    data = json.loads(out)
+    assert set(data) == JSON_KEYS
+    assert data["schema"] == 1
+    for c in data["configurations"]:
+        assert set(c) == CONFIG_KEYS
+        for row in c["rows"]:
+            assert set(row) == ROW_KEYS
+        assert c["rows"][0]["bank_deg"] != 0 or c["rows"][0]["turn_radius"] is None
+    if data["glider"] is not None:
+        assert set(data["glider"]) == GLIDER_KEYS
+        assert all(set(r) == GLIDER_ROW_KEYS for r in data["glider"]["rows"])
+    assert "flight manual" in err  # caution on stderr when stdout is a machine format
+
+
+def test_table_options(capsys, tmp_path):
+    f = tmp_path / "p.toml"
+    f.write_text(MINIMAL)
+    code, out, _ = run(capsys, "table", str(f), "--weight", "1500 lb", "--bank", "0,20,40",
+                       "--speed-unit", "km/h", "--format", "json")
+    assert code == 0
+    data = json.loads(out)
+    assert data["weight_kg"] == pytest.approx(1500 * 0.45359237)
+    assert [r["bank_deg"] for r in data["configurations"][0]["rows"]] == [0, 20, 40]
+    assert data["speed_unit"] == "km/h"
+    # 50 kt at 750 kg scaled to 680.4 kg, in km/h
+    assert data["configurations"][0]["stall_speed"] == pytest.approx(50 * 1.852 * (680.388555 / 750) ** 0.5)
+
+
+def test_table_csv_and_text(capsys):
+    path = SAMPLES / "demo_trainer.toml"
+    code, out, err = run(capsys, "table", str(path), "--format", "csv")
+    assert code == 0 and out.startswith("registration,configuration,bank_deg")
+    assert "flight manual" in err
+    code, out, _ = run(capsys, "table", str(path))
+    assert code == 0 and "DEMO-TRN" in out and "flight manual" in out
+
+
+@pytest.mark.parametrize(
+    "change, field",
+    [
+        (('"750 kg"', '"-750 kg"'), "aircraft.max_weight"),
+        (('"50 kt"', '"50 kg"'), "configuration[1].stall_speed"),
+    ],
+)
+def test_bad_profile_one_line_per_problem_exit_2(capsys, tmp_path, change, field):
+    f = tmp_path / "bad.toml"
+    f.write_text(MINIMAL.replace(*change))
+    for command in ("check", "table"):
+        code, out, err = run(capsys, command, str(f))
+        assert code == 2
+        lines = [line for line in (out + err).splitlines() if "error:" in line]
+        assert len(lines) == 1 and field in lines[0] and str(f) in lines[0]
+
+
+def test_bank_of_90_and_missing_configuration(capsys, tmp_path):
+    f = tmp_path / "bank.toml"
+    f.write_text(MINIMAL + "[card]\nbank_angles = [0, 90]\n")
+    g = tmp_path / "noconf.toml"
+    g.write_text(MINIMAL.split("[[configuration]]")[0])
+    code, out, _ = run(capsys, "check", str(f), str(g))
+    assert code == 2
+    assert "card.bank_angles[2]" in out and "configuration: no configuration" in out
+
+
+def test_bad_options(capsys, tmp_path):
+    f = tmp_path / "p.toml"
+    f.write_text(MINIMAL)
+    code, _, err = run(capsys, "table", str(f), "--weight", "700 kt")
+    assert code == 2 and "--weight" in err and "mass" in err
+    code, _, err = run(capsys, "table", str(f), "--bank", "0,95")
+    assert code == 2 and "--bank" in err
+    code, _, err = run(capsys, "table", str(tmp_path / "missing.toml"))
+    assert code == 2 and "no such file" in err
+
+
+def test_console_script_has_no_traceback(tmp_path):
+    f = tmp_path / "junk.toml"
+    f.write_bytes(b"\xff\xfe not utf8 [[[")
+    proc = subprocess.run([sys.executable, "-m", "kneeboard", "check", str(f)], capture_output=True, text=True)
+    assert proc.returncode == 2
+    assert "Traceback" not in proc.stdout + proc.stderr
+    assert "UTF-8" in proc.stdout
