@@ -6,13 +6,18 @@ import sys
 from pathlib import Path
 
 from kneeboard import __version__, report, units
+from kneeboard.card.geometry import CARD_SIZES, SHEET_SIZES
+from kneeboard.card.style import load_style
+from kneeboard.export import make_cards, write_each, write_fleet, write_pngs
+from kneeboard.fileio import FileProblem
 from kneeboard.problems import Problem
 from kneeboard.profile_io import expand_paths, load_profile
 from kneeboard.tables import build
 from kneeboard.texts import CAUTION
 
 EXIT_OK, EXIT_PROBLEMS, EXIT_BUG = 0, 2, 70
-COMMANDS = ("check", "table")
+COMMANDS = ("check", "table", "card")
+PROGRESS_ABOVE = 5  #: more aircraft than this get a progress line on stderr
 
 
 class UsageProblem(Exception):
@@ -38,6 +43,16 @@ def _parser() -> argparse.ArgumentParser:
     table.add_argument("--speed-unit", choices=units.SPEED_UNITS)
     table.add_argument("--distance-unit", choices=units.DISTANCE_UNITS)
     table.add_argument("--format", choices=("text", "csv", "json"), default="text")
+    card = sub.add_parser("card", help="make cockpit cards as PDF (one aircraft or a whole folder)")
+    card.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
+    card.add_argument("-o", "--output", metavar="OUT.pdf", help="one PDF with every card")
+    card.add_argument("--each", metavar="DIR", help="one PDF per aircraft in DIR, named by registration")
+    card.add_argument("--size", choices=tuple(CARD_SIZES), help="card size (default: the style's, a5)")
+    card.add_argument("--landscape", action="store_true", help="turn the card sideways")
+    card.add_argument("--style", metavar="STYLE.toml", help="card style (default: resources/default_style.toml)")
+    card.add_argument("--weight", metavar="QTY", help='weight for every card, e.g. "690 kg"')
+    card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help="impose several cards on Letter or A4 sheets")
+    card.add_argument("--png", metavar="DPI", type=int, help="also write each card page as PNG at DPI")
     return p
 
 
@@ -111,7 +126,69 @@ def cmd_table(args) -> int:
     return EXIT_OK
 
 
-HANDLERS = {"check": cmd_check, "table": cmd_table}
+def cmd_card(args) -> int:
+    if not args.output and not args.each:
+        raise UsageProblem("say where to write: -o OUT.pdf, --each DIR, or both")
+    if args.png is not None and not 36 <= args.png <= 1200:
+        raise UsageProblem(f"--png {args.png}: expected a resolution from 36 to 1200 dpi")
+    weight = _parse_weight(args.weight)
+    style, problems = load_style(Path(args.style) if args.style else None)
+    _print_problems(problems, sys.stderr)
+    if style is None:
+        print(f"kneeboard card: the style {args.style} has errors; no card made", file=sys.stderr)
+        return EXIT_PROBLEMS
+    if args.size:
+        style = style.with_changes(size=args.size)
+    if args.landscape:
+        style = style.with_changes(landscape=True)
+    paths = expand_paths(args.profiles)
+    if not paths:
+        print("kneeboard card: no profile files (*.toml) found", file=sys.stderr)
+        return EXIT_PROBLEMS
+    show = len(paths) > PROGRESS_ABOVE
+
+    def progress(done, total, name):
+        if show and name:
+            print(f"card {done + 1} of {total}: {name}", file=sys.stderr)
+        return True
+
+    batch = make_cards(paths, style, weight, progress=progress)
+    _print_problems(batch.warnings, sys.stderr)
+    for failure in batch.failures:
+        for line in failure.lines:
+            print(line, file=sys.stderr)
+        print(f"{failure.path}: skipped", file=sys.stderr)
+    failed = bool(batch.failures)
+    if batch.cards:
+        try:
+            if args.output:
+                out = Path(args.output)
+                write_fleet(batch.cards, out, args.sheet)
+                pages = "sheets" if args.sheet else "pages"
+                print(f"wrote {out}: {len(batch.cards)} card(s) on {_count_pages(out)} {pages}")
+                if args.png:
+                    pngs = write_pngs(batch.cards, out.parent, f"{out.stem}-", args.png)
+                    print(f"wrote {len(pngs)} PNG page(s) at {args.png} dpi beside {out.name}")
+            if args.each:
+                written = write_each(batch.cards, Path(args.each))
+                print(f"wrote {len(written)} PDF(s) in {args.each}")
+                if args.png:
+                    pngs = write_pngs(batch.cards, Path(args.each), "", args.png)
+                    print(f"wrote {len(pngs)} PNG page(s) at {args.png} dpi in {args.each}")
+        except FileProblem as exc:
+            print(f"kneeboard card: {exc}", file=sys.stderr)
+            failed = True
+    else:
+        print("kneeboard card: no card could be made", file=sys.stderr)
+    print(CAUTION)
+    return EXIT_PROBLEMS if failed or not batch.cards else EXIT_OK
+
+
+def _count_pages(path: Path) -> int:
+    return path.read_bytes().count(b"/Type /Page\n") or path.read_bytes().count(b"/Type /Page ")
+
+
+HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card}
 
 
 def main(argv: list[str] | None = None) -> int:

@@ -88,6 +88,21 @@ class GliderTable:
 
 
 @dataclass(frozen=True)
+class Curve:
+    """Stall speed against bank for the chart, at full precision in the card's speed unit (plotted, not printed)."""
+
+    name: str
+    bank_deg: np.ndarray
+    stall_speed: np.ndarray
+    pattern_speed: float
+    zero_margin_bank_deg: float
+    buffer_bank_deg: float | None
+
+
+CURVE_BANKS_DEG = np.arange(0.0, 85.5, 0.5)
+
+
+@dataclass(frozen=True)
 class CardTable:
     """Everything a card prints, already rounded and in the card's units."""
 
@@ -112,6 +127,7 @@ class CardTable:
     glider: GliderTable | None
     notes: str
     results: Results  #: full precision, for machine output
+    curves: tuple[Curve, ...]  #: for the chart
 
 
 def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_unit=None,
@@ -183,6 +199,22 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
         glider=glider,
         notes=card.notes,
         results=results,
+        curves=_curves(profile, weight, su),
+    )
+
+
+def _curves(profile: Profile, weight, speed_unit: str) -> tuple[Curve, ...]:
+    fine = compute(profile, weight, CURVE_BANKS_DEG)
+    return tuple(
+        Curve(
+            name=c.name,
+            bank_deg=CURVE_BANKS_DEG,
+            stall_speed=np.asarray(units.from_si(c.stall_speed, units.SPEED, speed_unit)),
+            pattern_speed=float(units.from_si(c.pattern_speed, units.SPEED, speed_unit)),
+            zero_margin_bank_deg=math.degrees(c.zero_margin_bank),
+            buffer_bank_deg=None if c.buffer_bank is None else math.degrees(c.buffer_bank),
+        )
+        for c in fine.configurations
     )
 
 

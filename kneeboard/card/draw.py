@@ -1,0 +1,110 @@
+"""Shared pieces of the card blocks: the context they draw from, type sizes, and a small op collector.
+
+Blocks draw top-down in local coordinates: the block's top edge is y = 0 and everything lies
+below it (negative y); the layout then moves the block into place on the page.
+"""
+
+from dataclasses import dataclass
+
+from kneeboard.card import fonts
+from kneeboard.card.ops import CAUTION, FIGURE, HEADING, LABEL, SMALL, TITLE, Circle, Line, Path, Rect, Text
+from kneeboard.card.style import CardStyle
+from kneeboard.tables import CardTable
+
+INK = "#111111"
+GREY = "#5f5f5f"
+RULE = "#9a9a9a"
+SHADE = "#ececec"  #: alternate table rows: survives black-and-white printing as light grey
+HATCH = "#6e6e6e"
+WHITE = "#ffffff"
+
+MIN_TEXT = 7.0  #: no text on any card is smaller [pt]
+REGISTRATION = "registration"  #: not a role of its own: a TITLE at this base size
+
+#: Base type sizes at font scale 1 on A5 [pt]; every role but FIGURE is held at MIN_TEXT or more.
+BASE_SIZE = {REGISTRATION: 24.0, TITLE: 11.0, HEADING: 9.5, FIGURE: 15.0, LABEL: 8.5, SMALL: 7.5, CAUTION: 7.0}
+SECONDARY = 0.8  #: figures of the smaller tables, relative to the bank table's figures
+
+
+class DoesNotFit(Exception):
+    """A block that cannot be laid out in the space offered; `block` names it."""
+
+    def __init__(self, block: str, reason: str):
+        super().__init__(f"{block}: {reason}")
+        self.block = block
+        self.reason = reason
+
+
+@dataclass(frozen=True)
+class Context:
+    """What every block draws from: the printed table, the style, and the type scale of this attempt."""
+
+    table: CardTable
+    style: CardStyle
+    scale: float
+    fingerprint: str
+    made_on: str
+    logo_png: bytes | None = None
+
+    def size(self, role: str) -> float:
+        size = BASE_SIZE[role] * self.scale
+        return size if role == FIGURE else max(size, MIN_TEXT)
+
+    @property
+    def figure(self) -> float:
+        return self.size(FIGURE)
+
+    @property
+    def secondary_figure(self) -> float:
+        return self.size(FIGURE) * SECONDARY
+
+
+@dataclass(frozen=True)
+class Block:
+    name: str
+    height: float
+    ops: tuple
+
+
+class Draw:
+    """Collects the ops of one block."""
+
+    def __init__(self, ctx: Context):
+        self.ctx = ctx
+        self.ops: list = []
+
+    def text(self, x, y, s, role=LABEL, bold=False, align="left", color=INK, size=None):
+        size = self.ctx.size(role) if size is None else size
+        self.ops.append(Text(x, y, s, fonts.BOLD if bold else fonts.REGULAR, size, color, align, role))
+
+    def line(self, x1, y1, x2, y2, color=INK, width=0.5, dash=()):
+        self.ops.append(Line(x1, y1, x2, y2, color, width, tuple(dash)))
+
+    def rect(self, x, top, w, h, fill=None, stroke=None, width=0.5, hatch=None, radius=0.0):
+        self.ops.append(Rect(x, top - h, w, h, fill, stroke, width, hatch, radius))
+
+    def path(self, points, color=INK, width=0.75, dash=(), closed=False, fill=None, fill_alpha=1.0):
+        self.ops.append(Path(tuple(points), color, width, tuple(dash), closed, fill, fill_alpha))
+
+    def circle(self, x, y, r, fill=INK, stroke=None, width=0.75):
+        self.ops.append(Circle(x, y, r, fill, stroke, width))
+
+    def block(self, name: str, height: float) -> Block:
+        return Block(name, height, tuple(self.ops))
+
+
+def baseline(top: float, row_height: float, size: float) -> float:
+    """Baseline that centres capitals of `size` in a row whose top edge is at `top`."""
+    return top - (row_height + fonts.ascent(size)) / 2
+
+
+def fit_lines(block: str, text: str, font: str, size: float, max_width: float, max_lines: int) -> list[str]:
+    """Wrap `text`; raise DoesNotFit when it needs more lines, or a word is wider, than allowed."""
+    lines = fonts.wrap(text, font, size, max_width)
+    if len(lines) > max_lines or any(fonts.width(line, font, size) > max_width + 0.01 for line in lines):
+        raise DoesNotFit(block, f"{text!r} does not fit in {max_width:.0f} pt")
+    return lines
+
+
+def weight_text(table: CardTable) -> str:
+    return f"{table.weight.text} {table.weight_unit}"

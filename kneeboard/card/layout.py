@@ -1,0 +1,178 @@
+"""The one card layout: places blocks on pages from the table builder's output and a style.
+
+Blocks flow in the style's order into one column (portrait) or two (landscape). What does not
+fit on the front moves to a back page; if even that is not enough, the type shrinks step by
+step, never below the legibility floor (7 pt for any text; table figures 10 pt on A5 and half
+letter, 8 pt on the smaller cards). When nothing helps, LayoutError names the block. Nothing is
+ever cut silently.
+"""
+
+from dataclasses import dataclass
+
+from kneeboard.card import blocks, chart, grids
+from kneeboard.card.draw import RULE, SECONDARY, Context, DoesNotFit
+from kneeboard.card.geometry import BINDING_MARGIN, LARGE_CARDS, MM, SAFE_MARGIN, PageBox, page_box
+from kneeboard.card.ops import Circle, Page, moved
+from kneeboard.card.style import CardStyle
+from kneeboard.tables import CardTable
+
+#: Type scale each card size starts from, before the style's font scale.
+SIZE_SCALE = {"a5": 1.0, "half-letter": 1.0, "5x8": 0.92, "4x6": 0.78}
+SHRINK = 0.95
+FRONT_ONLY = ("header", "margin-table")  #: a card without these on its front is no card
+MIN_FIGURE_LARGE = 10.0
+MIN_FIGURE_SMALL = 8.0
+MIN_COLUMN = 220.0  #: narrowest column worth flowing into [pt]
+BUILDERS = {
+    "header": blocks.header,
+    "margin-table": grids.margin_table,
+    "limits": grids.limits_table,
+    "turns": grids.turns_table,
+    "circling": grids.circling_table,
+    "notes": blocks.notes,
+}
+
+
+class LayoutError(Exception):
+    """Content that cannot be printed legibly on the chosen card; says which block and why."""
+
+    def __init__(self, block: str, message: str):
+        super().__init__(message)
+        self.block = block
+
+
+@dataclass(frozen=True)
+class CardLayout:
+    pages: tuple[Page, ...]
+    scale: float  #: the type scale the content fitted at
+    min_figure: float  #: the legibility floor for table figures on this size [pt]
+
+
+def min_figure_size(size: str) -> float:
+    return MIN_FIGURE_LARGE if size in LARGE_CARDS else MIN_FIGURE_SMALL
+
+
+def applicable(name: str, table: CardTable) -> bool:
+    if name == "circling":
+        return table.glider is not None
+    if name == "notes":
+        return bool(table.notes.strip())
+    return True
+
+
+def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: str,
+                logo_png: bytes | None = None) -> CardLayout:
+    box = page_box(style.size, style.landscape, style.binding)
+    front = [b for b in style.front if applicable(b, table)]
+    back = [b for b in style.back if applicable(b, table)]
+    floor = min_figure_size(style.size)
+    scale = style.font_scale * SIZE_SCALE[style.size]
+    last: DoesNotFit | None = None
+    while True:
+        ctx = Context(table, style, scale, fingerprint, made_on, logo_png)
+        if ctx.figure * SECONDARY < floor - 1e-9:
+            break
+        try:
+            return CardLayout(_flow(ctx, box, front, back, two_columns=style.landscape), scale, floor)
+        except DoesNotFit as exc:
+            last = exc
+        if style.landscape:  # a block too wide for half a landscape page may fit across all of it
+            try:
+                return CardLayout(_flow(ctx, box, front, back, two_columns=False), scale, floor)
+            except DoesNotFit as exc:
+                last = exc
+        scale *= SHRINK
+    block = last.block if last else "card"
+    raise LayoutError(
+        block,
+        f"the {block} block does not fit on a {style.size}{' landscape' if style.landscape else ''} card even with "
+        f"a back page and the smallest legible type ({last.reason if last else 'no room'}); choose a larger "
+        "size, fewer bank angles or configurations, or turn blocks off in the style",
+    )
+
+
+def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_columns: bool) -> tuple[Page, ...]:
+    """Assign blocks to the columns of the front and back pages, then place them.
+
+    Fixed blocks are measured once; the chart is assigned at its least readable height and then
+    grows into whatever room its column has left, up to its preferred height.
+    """
+    gap = 9.0 * ctx.scale
+    # landscape pages flow in two columns when each is still wide enough for a table
+    columns = 2 if two_columns and (box.content_width - gap) / 2 >= MIN_COLUMN else 1
+    col_w = (box.content_width - (columns - 1) * gap) / columns
+    caution_h = blocks.caution(ctx, box.content_width, 1, 2).height
+    bottom = box.bottom + caution_h + gap * 0.6
+    built = {name: BUILDERS[name](ctx, col_w) for name in dict.fromkeys(front + back)
+             if name in BUILDERS and name != "header"}
+    if "header" in front or "header" in back:  # the header spans the whole width, on the front
+        built["header"] = blocks.header(ctx, box.content_width)
+
+    def height(name):
+        return chart.minimum_height(ctx, col_w) if name == "margin-chart" else built[name].height
+
+    pages = []  # per page: (top block, [column: [names]])
+    queue = list(front)
+    overflow: list[str] = []
+    for side in (1, 2):
+        if side == 2:
+            queue = overflow + list(back)
+            if not queue:
+                break
+        top_block = built.get("header") if side == 1 else None
+        if side == 2:
+            top_block = blocks.back_header(ctx, box.content_width)
+        queue = [n for n in queue if n != "header"]
+        column_top = box.top - (top_block.height + gap * 0.8 if top_block else 0.0)
+        cols: list[list[str]] = [[] for _ in range(columns)]
+        rooms = [column_top - bottom] * columns
+        overflow = []
+        for name in queue:
+            # first fit: the first column with room, so a small block may fill a gap a big one left
+            for c in range(columns):
+                need = height(name) + (gap if cols[c] else 0.0)
+                if need <= rooms[c]:
+                    cols[c].append(name)
+                    rooms[c] -= need
+                    break
+            else:
+                if side == 2 or name in FRONT_ONLY:
+                    raise DoesNotFit(name, "not enough room on the " + ("back" if side == 2 else "front"))
+                overflow.append(name)
+        pages.append((top_block, cols, column_top))
+    total = len(pages)
+    result = []
+    for side, (top_block, cols, column_top) in enumerate(pages, start=1):
+        ops, placed = [], []
+        if top_block is not None:
+            ops += moved(top_block.ops, box.left, box.top)
+            placed.append(top_block.name)
+        for c, names in enumerate(cols):
+            used = sum(height(n) for n in names) + gap * max(len(names) - 1, 0)
+            spare = column_top - bottom - used
+            y = column_top
+            for name in names:
+                if name == "margin-chart":
+                    h = min(chart.preferred_height(ctx, col_w), chart.minimum_height(ctx, col_w) + spare)
+                    b = chart.margin_chart(ctx, col_w, h)
+                else:
+                    b = built[name]
+                ops += moved(b.ops, box.left + c * (col_w + gap), y)
+                placed.append(name)
+                y -= b.height + gap
+        caution = blocks.caution(ctx, box.content_width, side, total)
+        ops += moved(caution.ops, box.left, box.bottom + caution.height) + _binding_marks(box, ctx.style.binding)
+        result.append(Page(box.width, box.height, tuple(ops), tuple(placed) + ("caution",)))
+    return tuple(result)
+
+
+def _binding_marks(box: PageBox, binding: str) -> list:
+    """Punch guides: two holes 80 mm apart (ISO 838), centred in the binding edge."""
+    if binding == "none":
+        return []
+    offset = (SAFE_MARGIN + BINDING_MARGIN) / 2
+    if binding == "left":
+        centres = [(offset, box.height / 2 - 40 * MM), (offset, box.height / 2 + 40 * MM)]
+    else:
+        centres = [(box.width / 2 - 40 * MM, box.height - offset), (box.width / 2 + 40 * MM, box.height - offset)]
+    return [Circle(x, y, 2.75 * MM, fill=None, stroke=RULE, width=0.5) for x, y in centres]

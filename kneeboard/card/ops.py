@@ -1,0 +1,106 @@
+"""What a card page is made of: drawing operations in PDF points, origin at the bottom left.
+
+The layout produces these; the renderer draws them. They carry no behaviour beyond moving,
+so the same page can be drawn alone or imposed on a sheet.
+"""
+
+from dataclasses import dataclass, replace
+
+# Roles of text, for the legibility rules: figures are the numbers a pilot reads off a table.
+FIGURE, LABEL, HEADING, TITLE, SMALL, CAUTION = "figure", "label", "heading", "title", "small", "caution"
+
+
+@dataclass(frozen=True)
+class Text:
+    x: float
+    y: float  #: baseline
+    text: str
+    font: str  #: registered font name
+    size: float  #: [pt]
+    color: str = "#000000"
+    align: str = "left"  #: left | right | centre
+    role: str = LABEL
+
+    def moved(self, dx, dy):
+        return replace(self, x=self.x + dx, y=self.y + dy)
+
+
+@dataclass(frozen=True)
+class Line:
+    x1: float
+    y1: float
+    x2: float
+    y2: float
+    color: str = "#000000"
+    width: float = 0.5
+    dash: tuple[float, ...] = ()
+
+    def moved(self, dx, dy):
+        return replace(self, x1=self.x1 + dx, y1=self.y1 + dy, x2=self.x2 + dx, y2=self.y2 + dy)
+
+
+@dataclass(frozen=True)
+class Rect:
+    x: float
+    y: float  #: bottom
+    w: float
+    h: float
+    fill: str | None = None
+    stroke: str | None = None
+    width: float = 0.5
+    hatch: str | None = None  #: colour of diagonal hatching inside, for black-and-white marking
+    radius: float = 0.0
+
+    def moved(self, dx, dy):
+        return replace(self, x=self.x + dx, y=self.y + dy)
+
+
+@dataclass(frozen=True)
+class Path:
+    points: tuple[tuple[float, float], ...]
+    color: str | None = "#000000"
+    width: float = 0.75
+    dash: tuple[float, ...] = ()
+    closed: bool = False
+    fill: str | None = None
+    fill_alpha: float = 1.0
+
+    def moved(self, dx, dy):
+        return replace(self, points=tuple((x + dx, y + dy) for x, y in self.points))
+
+
+@dataclass(frozen=True)
+class Circle:
+    x: float
+    y: float
+    r: float
+    fill: str | None = "#000000"
+    stroke: str | None = None
+    width: float = 0.75
+
+    def moved(self, dx, dy):
+        return replace(self, x=self.x + dx, y=self.y + dy)
+
+
+@dataclass(frozen=True)
+class Image:
+    x: float
+    y: float
+    w: float
+    h: float
+    png: bytes  #: PNG data (SVG logos are converted before they get here)
+
+    def moved(self, dx, dy):
+        return replace(self, x=self.x + dx, y=self.y + dy)
+
+
+@dataclass(frozen=True)
+class Page:
+    width: float
+    height: float
+    ops: tuple
+    blocks: tuple[str, ...] = ()  #: names of the blocks on this page, in order
+
+
+def moved(ops, dx: float, dy: float) -> list:
+    return [op.moved(dx, dy) for op in ops]

@@ -1,0 +1,166 @@
+"""Card styles: a small TOML file a school applies to its whole fleet.
+
+Like profiles, a style is data: every bad value becomes a Problem naming the field, and a logo
+path may not leave the style's own folder.
+"""
+
+import re
+import tomllib
+from dataclasses import dataclass, field, replace
+from pathlib import Path
+
+from kneeboard import units
+from kneeboard.card.geometry import CARD_SIZES
+from kneeboard.fileio import FileProblem, read_text
+from kneeboard.problems import WARNING, Problem
+
+STYLE_VERSION = 1
+#: Every block a card can show, in the default order. The caution is always printed, on every page.
+BLOCKS = ("header", "margin-table", "margin-chart", "limits", "turns", "circling", "notes")
+BINDINGS = ("none", "left", "top")
+DEFAULT_STYLE = Path(__file__).resolve().parents[2] / "resources" / "default_style.toml"
+_COLOUR = re.compile(r"#[0-9A-Fa-f]{6}\Z")
+MAX_LOGO_BYTES = 2 * 1024 * 1024
+
+
+@dataclass(frozen=True)
+class CardStyle:
+    organisation: str = ""
+    logo: Path | None = None  #: resolved path of a PNG or SVG inside the style's folder
+    accent: str = "#1B5E8C"  #: "#RRGGBB"
+    font_scale: float = 1.0
+    size: str = "a5"
+    landscape: bool = False
+    binding: str = "none"  #: "none" | "left" | "top": a wider edge for a punch or ring binder
+    front: tuple[str, ...] = BLOCKS  #: blocks in order; what does not fit moves to the back
+    back: tuple[str, ...] = ()  #: blocks always printed on a back page
+    bank_angles_deg: tuple[float, ...] | None = None  #: overrides the profiles' when set
+    speed_unit: str | None = None
+    distance_unit: str | None = None
+    source: Path | None = field(default=None, compare=False)
+
+    def with_changes(self, **changes) -> "CardStyle":
+        return replace(self, **changes)
+
+
+def load_style(path: Path | None = None) -> tuple[CardStyle | None, list[Problem]]:
+    """Read a style file (default: the shipped one); None and the problems when it has errors."""
+    path = Path(path) if path is not None else DEFAULT_STYLE
+    try:
+        data = tomllib.loads(read_text(path))
+    except FileProblem as exc:
+        return None, [Problem("(file)", str(exc).removeprefix(f"{path}: "), file=str(path))]
+    except tomllib.TOMLDecodeError as exc:
+        return None, [Problem("(file)", f"is not valid TOML: {exc}", file=str(path))]
+    style, problems = style_from_data(data, path.parent)
+    problems = [p.in_file(str(path)) for p in problems]
+    return (None if any(p.is_error for p in problems) else replace(style, source=path)), problems
+
+
+def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]:
+    found: list[Problem] = []
+    default = CardStyle()
+
+    def bad(key, message, expected, value=None, severity="error"):
+        found.append(Problem(key, message, expected, value, severity))
+
+    known = {"style", "organisation", "logo", "accent", "font_scale", "size", "orientation", "binding", "front",
+             "back", "bank_angles", "speed_unit", "distance_unit"}
+    for key in data:
+        if key not in known:
+            bad(key, "unknown key, not used", "", data[key], WARNING)
+    version = data.get("style", STYLE_VERSION)
+    if not isinstance(version, int) or isinstance(version, bool) or version > STYLE_VERSION or version < 1:
+        bad("style", "is not a style format this kneeboard reads", f"style = {STYLE_VERSION}", version)
+
+    def text(key, default_value, options=None, limit=60):
+        value = data.get(key, default_value)
+        if not isinstance(value, str) or len(value) > limit or (options and value not in options):
+            expected = " | ".join(options) if options else f"text of up to {limit} characters"
+            bad(key, "is not accepted", expected, value)
+            return default_value
+        return value
+
+    organisation = text("organisation", "")
+    accent = text("accent", default.accent)
+    if not _COLOUR.match(accent):
+        bad("accent", "is not a colour", 'a colour as "#RRGGBB", e.g. "#1B5E8C"', accent)
+        accent = default.accent
+    size = text("size", default.size, tuple(CARD_SIZES))
+    orientation = text("orientation", "portrait", ("portrait", "landscape"))
+    binding = text("binding", "none", BINDINGS)
+    scale = data.get("font_scale", 1.0)
+    if isinstance(scale, bool) or not isinstance(scale, (int, float)) or not 0.7 <= scale <= 1.6:
+        bad("font_scale", "is out of range", "a number from 0.7 to 1.6", scale)
+        scale = 1.0
+    front = _blocks(data, "front", BLOCKS, bad)
+    back = _blocks(data, "back", (), bad)
+    for name in set(front) & set(back):
+        bad("back", f"{name!r} is listed on both the front and the back", "each block once", name)
+    logo = _logo(data.get("logo"), folder, bad)
+    banks = data.get("bank_angles")
+    if banks is not None and not (
+        isinstance(banks, list) and 1 <= len(banks) <= 24
+        and all(isinstance(b, (int, float)) and not isinstance(b, bool) and 0 <= b < 90 for b in banks)
+    ):
+        bad("bank_angles", "must be a list of banks in degrees", "1 to 24 numbers, each 0 <= b < 90", banks)
+        banks = None
+    speed_unit = data.get("speed_unit")
+    if speed_unit is not None and speed_unit not in units.SPEED_UNITS:
+        bad("speed_unit", "is not accepted", " | ".join(units.SPEED_UNITS), speed_unit)
+        speed_unit = None
+    distance_unit = data.get("distance_unit")
+    if distance_unit is not None and distance_unit not in units.DISTANCE_UNITS:
+        bad("distance_unit", "is not accepted", " | ".join(units.DISTANCE_UNITS), distance_unit)
+        distance_unit = None
+    return CardStyle(
+        organisation=organisation,
+        logo=logo,
+        accent=accent,
+        font_scale=float(scale),
+        size=size,
+        landscape=orientation == "landscape",
+        binding=binding,
+        front=front,
+        back=back,
+        bank_angles_deg=None if banks is None else tuple(sorted({float(b) for b in banks})),
+        speed_unit=speed_unit,
+        distance_unit=distance_unit,
+    ), found
+
+
+def _blocks(data, key, default, bad):
+    value = data.get(key, list(default))
+    if not isinstance(value, list) or not all(isinstance(v, str) for v in value):
+        bad(key, "must be a list of block names", ", ".join(BLOCKS), value)
+        return tuple(default)
+    unknown = [v for v in value if v not in BLOCKS]
+    if unknown:
+        bad(key, f"names unknown blocks: {', '.join(map(str, unknown))}", ", ".join(BLOCKS), value)
+    if len(set(value)) != len(value):
+        bad(key, "lists a block twice", "each block once", value)
+    return tuple(dict.fromkeys(v for v in value if v in BLOCKS))
+
+
+def _logo(value, folder: Path, bad) -> Path | None:
+    if value in (None, ""):
+        return None
+    expected = "a PNG or SVG file in the style's folder or below it"
+    if not isinstance(value, str) or len(value) > 200:
+        bad("logo", "is not a file name", expected, value)
+        return None
+    base = folder.resolve()
+    path = (base / value).resolve()
+    if Path(value).is_absolute() or not path.is_relative_to(base):
+        bad("logo", "points outside the style's folder; refused", expected, value)
+        return None
+    if path.suffix.lower() not in (".png", ".svg"):
+        bad("logo", "is not a PNG or SVG file", expected, value)
+        return None
+    if not path.is_file():
+        bad("logo", "no such file", expected, value)
+        return None
+    if path.stat().st_size > MAX_LOGO_BYTES:
+        bad("logo", "is larger than 2 MiB", "a logo file under 2 MiB", value)
+        return None
+    return path

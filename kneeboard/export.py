@@ -1,0 +1,107 @@
+"""Making and writing cards for one aircraft or a fleet: the command line and the app both use this.
+
+A profile with errors, or whose card cannot be laid out, is reported and skipped; the others are
+still made. Every file is written atomically.
+"""
+
+import re
+from collections.abc import Callable
+from dataclasses import dataclass, field
+from pathlib import Path
+
+from kneeboard.card import Card, LayoutError, build_card, card_pdf, fleet_pdf
+from kneeboard.card.sheets import SheetError
+from kneeboard.card.style import CardStyle
+from kneeboard.fileio import FileProblem, write_atomic
+from kneeboard.problems import Problem
+from kneeboard.profile_io import load_profile
+
+
+@dataclass
+class Failure:
+    path: Path
+    lines: list[str]  #: what went wrong, one line each
+
+
+@dataclass
+class Batch:
+    cards: list[Card] = field(default_factory=list)
+    sources: dict[str, Path] = field(default_factory=dict)  #: registration -> profile file
+    failures: list[Failure] = field(default_factory=list)
+    warnings: list[Problem] = field(default_factory=list)
+    cancelled: bool = False
+
+
+def make_cards(paths: list[Path], style: CardStyle, weight: float | None = None, made_on: str | None = None,
+               progress: Callable[[int, int, str], bool] | None = None) -> Batch:
+    """Cards of `paths`, in registration order. `progress(done, total, name)` may return False to cancel."""
+    batch = Batch()
+    made = []
+    for i, path in enumerate(paths, start=1):
+        if progress is not None and progress(i - 1, len(paths), path.name) is False:
+            batch.cancelled = True
+            break
+        loaded = load_profile(path)
+        batch.warnings += loaded.warnings
+        if loaded.profile is None:
+            batch.failures.append(Failure(path, [str(p) for p in loaded.errors]))
+            continue
+        try:
+            card = build_card(loaded.profile, style, loaded.fingerprint, weight, made_on)
+        except LayoutError as exc:
+            batch.failures.append(Failure(path, [f"{path}: {exc}"]))
+            continue
+        made.append((card.registration.casefold(), str(path), card))
+        batch.sources[card.registration] = path
+    if progress is not None and not batch.cancelled:
+        progress(len(paths), len(paths), "")
+    batch.cards = [card for _, _, card in sorted(made, key=lambda item: item[:2])]
+    return batch
+
+
+def safe_name(registration: str) -> str:
+    """A file name from a registration: letters, digits, '-' and '_' only."""
+    name = re.sub(r"[^A-Za-z0-9_-]+", "_", registration).strip("_.")
+    return name or "card"
+
+
+def write_fleet(cards: list[Card], out: Path, sheet: str | None = None) -> None:
+    """All cards in one PDF (imposed on `sheet` if given), written atomically."""
+    try:
+        data = fleet_pdf(cards, sheet)
+    except SheetError as exc:
+        raise FileProblem(f"{out}: {exc}") from None
+    write_atomic(out, data)
+
+
+def write_each(cards: list[Card], folder: Path) -> list[Path]:
+    """One PDF per aircraft in `folder`, named by registration; returns the files written."""
+    if not folder.is_dir():
+        try:
+            folder.mkdir(parents=True)
+        except OSError as exc:
+            raise FileProblem(f"{folder}: cannot create the folder ({exc.strerror or exc})") from None
+    written, used = [], set()
+    for card in cards:
+        name = safe_name(card.registration)
+        stem, n = name, 2
+        while stem.casefold() in used:
+            stem, n = f"{name}-{n}", n + 1
+        used.add(stem.casefold())
+        path = folder / f"{stem}.pdf"
+        write_atomic(path, card_pdf(card))
+        written.append(path)
+    return written
+
+
+def write_pngs(cards: list[Card], folder: Path, prefix: str, dpi: int) -> list[Path]:
+    """Each card page as a PNG at `dpi`, named PREFIX<REGISTRATION>-front.png / -back.png."""
+    from kneeboard.card.raster import pdf_to_pngs
+
+    written = []
+    for card in cards:
+        for side, png in zip(("front", "back"), pdf_to_pngs(card_pdf(card), dpi)):
+            path = folder / f"{prefix}{safe_name(card.registration)}-{side}.png"
+            write_atomic(path, png)
+            written.append(path)
+    return written

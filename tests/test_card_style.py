@@ -1,0 +1,77 @@
+"""Card style files: defaults, every bad value named, logos confined to the style's folder."""
+
+import base64
+
+import pytest
+from card_helpers import MADE_ON, loaded
+
+from kneeboard.card import build_card
+from kneeboard.card.ops import Image, Text
+from kneeboard.card.style import BLOCKS, DEFAULT_STYLE, load_style
+
+# a 2 x 1 pixel PNG (invented test image)
+PNG = base64.b64decode(
+    "iVBORw0KGgoAAAANSUhEUgAAAAIAAAABCAYAAAD0In+KAAAAEUlEQVR4nGNgYGD4z8DAwMAAAAgAAdXo4W8AAAAASUVORK5CYII="
+)
+SVG = '<svg xmlns="http://www.w3.org/2000/svg" width="40" height="20"><rect width="40" height="20" fill="#246"/></svg>'
+
+
+def test_default_style_ships_and_loads():
+    assert DEFAULT_STYLE.is_file()
+    style, problems = load_style()
+    assert problems == [] and style.size == "a5" and style.front == BLOCKS
+
+
+def write(tmp_path, text, name="style.toml"):
+    path = tmp_path / name
+    path.write_text(text)
+    return path
+
+
+@pytest.mark.parametrize("line, key", [
+    ('size = "a3"', "size"),
+    ('accent = "blue"', "accent"),
+    ("font_scale = 5", "font_scale"),
+    ('front = ["header", "weather"]', "front"),
+    ('orientation = "sideways"', "orientation"),
+    ("bank_angles = [0, 95]", "bank_angles"),
+    ('speed_unit = "furlong/fortnight"', "speed_unit"),
+    ("style = 9", "style"),
+])
+def test_bad_values_are_named(tmp_path, line, key):
+    style, problems = load_style(write(tmp_path, line + "\n"))
+    assert style is None
+    assert [p.path for p in problems if p.is_error] == [key]
+
+
+def test_logo_outside_the_folder_is_refused(tmp_path):
+    style, problems = load_style(write(tmp_path, 'logo = "../../etc/passwd"\n'))
+    assert style is None and "outside" in problems[0].message
+    style, problems = load_style(write(tmp_path, 'logo = "/etc/hostname"\n'))
+    assert style is None
+
+
+def test_png_and_svg_logos_are_printed(tmp_path):
+    (tmp_path / "logo.png").write_bytes(PNG)
+    (tmp_path / "logo.svg").write_text(SVG)
+    lp = loaded("demo_microlight")
+    for name in ("logo.png", "logo.svg"):
+        style, problems = load_style(write(tmp_path, f'logo = "{name}"\norganisation = "Demo Flying Club"\n'))
+        assert problems == [], problems
+        c = build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+        images = [op for op in c.pages[0].ops if isinstance(op, Image)]
+        assert len(images) == 1 and images[0].png.startswith(b"\x89PNG")
+        assert "Demo Flying Club" in {op.text for op in c.pages[0].ops if isinstance(op, Text)}
+
+
+def test_style_overrides_banks_and_units(tmp_path):
+    style, _ = load_style(write(tmp_path, 'bank_angles = [0, 20, 40]\nspeed_unit = "mph"\n'))
+    lp = loaded("demo_trainer")
+    c = build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+    assert [r.bank_text for r in c.table.configurations[0].rows] == ["0", "20", "40"]
+    assert c.table.speed_unit == "mph"
+
+
+def test_unknown_key_warns(tmp_path):
+    style, problems = load_style(write(tmp_path, 'colour_scheme = "night"\n'))
+    assert style is not None and [p.severity for p in problems] == ["warning"]
