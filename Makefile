@@ -22,8 +22,9 @@ run: $(VENV)/.installed
 	@for f in sample_aircraft/*.toml; do \
 		$(BIN)/kneeboard table "$$f" > "out/$$(basename "$$f" .toml).txt" || exit $$?; \
 	done
-	@$(BIN)/kneeboard check sample_aircraft
-	@echo "Sample tables written to out/*.txt"
+	@$(BIN)/kneeboard card sample_aircraft -o out/sample_cards.pdf --png 100
+	@$(BIN)/kneeboard card sample_aircraft -o out/sample_sheets_letter.pdf --size 5x8 --sheet letter > /dev/null
+	@echo "Sample tables and cards written to out/"
 
 test: $(VENV)/.installed-test
 	$(BIN)/python -m pytest -q
