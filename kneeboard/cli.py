@@ -7,7 +7,7 @@ from pathlib import Path
 
 from kneeboard import __version__, report, units
 from kneeboard.card.geometry import CARD_SIZES, SHEET_SIZES
-from kneeboard.card.style import load_style
+from kneeboard.card.style import fleet_style_path, load_style
 from kneeboard.export import make_cards, write_each, write_fleet, write_pngs
 from kneeboard.fileio import FileProblem
 from kneeboard.problems import Problem
@@ -49,7 +49,8 @@ def _parser() -> argparse.ArgumentParser:
     card.add_argument("--each", metavar="DIR", help="one PDF per aircraft in DIR, named by registration")
     card.add_argument("--size", choices=tuple(CARD_SIZES), help="card size (default: the style's, a5)")
     card.add_argument("--landscape", action="store_true", help="turn the card sideways")
-    card.add_argument("--style", metavar="STYLE.toml", help="card style (default: resources/default_style.toml)")
+    card.add_argument("--style", metavar="STYLE.toml",
+                      help="card style (default: the folder's fleet.style.toml, else resources/default.style.toml)")
     card.add_argument("--weight", metavar="QTY", help='weight for every card, e.g. "690 kg"')
     card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help="impose several cards on Letter or A4 sheets")
     card.add_argument("--png", metavar="DPI", type=int, help="also write each card page as PNG at DPI")
@@ -132,7 +133,8 @@ def cmd_card(args) -> int:
     if args.png is not None and not 36 <= args.png <= 1200:
         raise UsageProblem(f"--png {args.png}: expected a resolution from 36 to 1200 dpi")
     weight = _parse_weight(args.weight)
-    style, problems = load_style(Path(args.style) if args.style else None)
+    style_path = Path(args.style) if args.style else _fleet_style(args.profiles)
+    style, problems = load_style(style_path)
     _print_problems(problems, sys.stderr)
     if style is None:
         print(f"kneeboard card: the style {args.style} has errors; no card made", file=sys.stderr)
@@ -182,6 +184,12 @@ def cmd_card(args) -> int:
         print("kneeboard card: no card could be made", file=sys.stderr)
     print(CAUTION)
     return EXIT_PROBLEMS if failed or not batch.cards else EXIT_OK
+
+
+def _fleet_style(paths) -> Path | None:
+    """With no --style, a folder's own fleet.style.toml, when exactly one folder is given and has one."""
+    folders = [Path(p) for p in paths if Path(p).is_dir()]
+    return fleet_style_path(folders[0]) if len(folders) == 1 else None
 
 
 def _count_pages(path: Path) -> int:

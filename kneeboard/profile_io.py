@@ -19,6 +19,7 @@ from kneeboard.profile import Profile
 from kneeboard.schema import profile_from_data
 
 PROFILE_SUFFIX = ".toml"
+STYLE_SUFFIX = ".style.toml"  #: card styles live beside profiles but are not profiles
 
 
 def parse_text(text: str) -> tuple[dict | None, list[Problem]]:
@@ -100,7 +101,7 @@ def save_document(document: tomlkit.TOMLDocument, path: Path) -> None:
 def profile_files(folder: Path) -> list[Path]:
     """The profile files of a folder (not its sub-folders), sorted by file name."""
     return sorted(p for p in Path(folder).iterdir() if p.suffix == PROFILE_SUFFIX and p.is_file()
-                  and not p.name.startswith("."))
+                  and not p.name.startswith(".") and not p.name.endswith(STYLE_SUFFIX))
 
 
 def expand_paths(paths) -> list[Path]:

@@ -122,3 +122,16 @@ def test_style_with_errors_stops(capsys, tmp_path):
     style.write_text('size = "poster"\n')
     code, _, err = run(capsys, "card", SAMPLES, "-o", tmp_path / "x.pdf", "--style", style)
     assert code == 2 and "size" in err
+
+
+def test_folder_uses_its_fleet_style(capsys, tmp_path):
+    folder = tmp_path / "fleet"
+    folder.mkdir()
+    (folder / "demo_microlight.toml").write_bytes((SAMPLES / "demo_microlight.toml").read_bytes())
+    (folder / "fleet.style.toml").write_text('size = "4x6"\norganisation = "Demo Flying Club"\n')
+    out = tmp_path / "f.pdf"
+    code, _, err = run(capsys, "card", folder, "-o", out)
+    assert code == 0, err  # the style file is not read as a profile
+    first = pages(out)[0]
+    assert float(first.mediabox.width) == pytest.approx(288, abs=0.1)
+    assert "Demo Flying Club" in first.extract_text()

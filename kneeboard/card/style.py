@@ -18,7 +18,15 @@ STYLE_VERSION = 1
 #: Every block a card can show, in the default order. The caution is always printed, on every page.
 BLOCKS = ("header", "margin-table", "margin-chart", "limits", "turns", "circling", "notes")
 BINDINGS = ("none", "left", "top")
-DEFAULT_STYLE = Path(__file__).resolve().parents[2] / "resources" / "default_style.toml"
+DEFAULT_STYLE = Path(__file__).resolve().parents[2] / "resources" / "default.style.toml"
+STYLE_SUFFIX = ".style.toml"  #: style files end so, which keeps them out of a folder's profiles
+FLEET_STYLE = "fleet.style.toml"  #: the style a fleet folder's cards use, when it has one
+
+
+def fleet_style_path(folder: Path) -> Path | None:
+    """The fleet's own style file in `folder`, or None when it uses the default."""
+    path = Path(folder) / FLEET_STYLE
+    return path if path.is_file() else None
 _COLOUR = re.compile(r"#[0-9A-Fa-f]{6}\Z")
 MAX_LOGO_BYTES = 2 * 1024 * 1024
 
