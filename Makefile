@@ -3,7 +3,7 @@ PYTHON ?= python3
 VENV := .venv
 BIN := $(VENV)/bin
 
-.PHONY: run test lint clean
+.PHONY: run cards test lint clean
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
@@ -17,7 +17,16 @@ $(VENV)/.installed-test: pyproject.toml | $(BIN)/python
 	$(BIN)/python -m pip install --quiet -e '.[test]'
 	touch $@ $(VENV)/.installed
 
+# Opens the app on the sample fleet; on a machine without a screen it writes the sample cards instead.
 run: $(VENV)/.installed
+	@if [ -n "$$DISPLAY$$WAYLAND_DISPLAY" ] || [ "$$(uname)" = Darwin ]; then \
+		$(BIN)/kneeboard sample_aircraft; \
+	else \
+		echo "No screen found: writing the sample cards instead of opening the app."; \
+		$(MAKE) --no-print-directory cards; \
+	fi
+
+cards: $(VENV)/.installed
 	@mkdir -p out
 	@for f in sample_aircraft/*.toml; do \
 		$(BIN)/kneeboard table "$$f" > "out/$$(basename "$$f" .toml).txt" || exit $$?; \

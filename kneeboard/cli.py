@@ -201,6 +201,10 @@ HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card}
 
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
+    if not argv or (argv[0] not in COMMANDS and not argv[0].startswith("-")):
+        from kneeboard.app.main import run  # the desktop app, on a folder or profile if one is named
+
+        return run(argv[0] if argv else None)
     parser = _parser()
     args = parser.parse_args(argv)  # exits 2 with a usage message on bad options
     if args.command is None:

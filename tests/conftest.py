@@ -1,6 +1,7 @@
 """Test configuration: headless Qt for every test, and shared fixtures."""
 
 import os
+import shutil
 from pathlib import Path
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
@@ -32,3 +33,37 @@ def sample_paths():
 @pytest.fixture
 def minimal_text():
     return MINIMAL
+
+
+# --- GUI fixtures: a main window on a private copy of the sample fleet, with private settings ---
+
+
+@pytest.fixture
+def fleet(tmp_path):
+    folder = tmp_path / "fleet"
+    shutil.copytree(SAMPLES, folder)
+    return folder
+
+
+@pytest.fixture
+def settings(tmp_path):
+    from PySide6.QtCore import QSettings
+
+    return QSettings(str(tmp_path / "settings.ini"), QSettings.Format.IniFormat)
+
+
+@pytest.fixture
+def window(qtbot, fleet, settings):
+    from kneeboard.app.window import MainWindow
+
+    w = MainWindow(settings)
+    qtbot.addWidget(w)
+    w.problems_seen = []
+    w.show_problems = lambda title, text: w.problems_seen.append((title, text))
+    w.answers = []
+    w.ask_unsaved = lambda: w.answers.pop(0) if w.answers else "discard"
+    w.show()
+    w.open_profile(fleet / "demo_trainer.toml")
+    qtbot.wait(w.timer.interval() + 20)
+    assert w.preview.wait_idle(10_000)
+    return w

@@ -85,9 +85,9 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
     block = last.block if last else "card"
     raise LayoutError(
         block,
-        f"the {block} block does not fit on a {style.size}{' landscape' if style.landscape else ''} card even with "
-        f"a back page and the smallest legible type ({last.reason if last else 'no room'}); choose a larger "
-        "size, fewer bank angles or configurations, or turn blocks off in the style",
+        f"The {block} block does not fit on a {style.size}{' landscape' if style.landscape else ''} card, even "
+        f"with a back page and the smallest legible type ({last.reason if last else 'no room'}). Choose a larger "
+        "size, fewer bank angles or configurations, or turn blocks off in the style.",
     )
 
 

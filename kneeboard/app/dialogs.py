@@ -1,0 +1,251 @@
+"""The app's dialogs: compare with saved, the formulas, the caution, problems of a file, and fleet export.
+
+Thin widgets: every figure, judgement and file comes from the core (`kneeboard.compare`,
+`kneeboard.problems`, `kneeboard.export`); these only show it. Nothing here rounds or computes.
+"""
+
+from collections.abc import Callable
+from html import escape
+from pathlib import Path
+
+from PySide6.QtCore import QSettings, Qt
+from PySide6.QtGui import QFont, QGuiApplication
+from PySide6.QtWidgets import (
+    QAbstractItemView,
+    QDialog,
+    QDialogButtonBox,
+    QHeaderView,
+    QLabel,
+    QMessageBox,
+    QProgressDialog,
+    QPushButton,
+    QTableWidget,
+    QTableWidgetItem,
+    QTextBrowser,
+    QVBoxLayout,
+    QWidget,
+)
+
+from kneeboard.card.style import CardStyle
+from kneeboard.compare import Change
+from kneeboard.export import Batch, Failure, make_cards, write_each, write_fleet
+from kneeboard.fileio import FileProblem
+from kneeboard.problems import Problem
+from kneeboard.texts import CAUTION, FORMULAS_HTML
+
+NOT_PRINTED = "not printed"  #: shown where a figure was not printed before, or no longer is
+WORSE_MARK = "! less room: "  #: leads a figure that got worse; the row is bold too, so colour is never needed
+NO_CHANGE = "No printed figure changed"
+CAUTION_KEY = "caution/acknowledged"  #: settings key recording that the caution was shown
+CAUTION_TITLE = "Before you use these figures"
+COMPARE_COLUMNS = ("Figure", "Printed now", "After your changes")
+PROBLEM_COLUMNS = ("Severity", "Field", "What is wrong", "Found", "Expected")
+
+
+def _table(columns, rows: list[tuple[str, ...]], bold_rows: set[int] = frozenset(), tips=None) -> QTableWidget:
+    """A read-only table of text rows; rows in `bold_rows` are set in bold."""
+    table = QTableWidget(len(rows), len(columns))
+    table.setHorizontalHeaderLabels(list(columns))
+    table.setEditTriggers(QAbstractItemView.EditTrigger.NoEditTriggers)
+    table.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
+    table.setWordWrap(True)
+    table.verticalHeader().setVisible(False)
+    header = table.horizontalHeader()
+    header.setSectionResizeMode(QHeaderView.ResizeMode.ResizeToContents)
+    header.setStretchLastSection(True)
+    for i, row in enumerate(rows):
+        for j, text in enumerate(row):
+            item = QTableWidgetItem(text)
+            if i in bold_rows:
+                font = QFont(item.font())
+                font.setBold(True)
+                item.setFont(font)
+            if tips is not None and tips[i]:
+                item.setToolTip(tips[i])
+            table.setItem(i, j, item)
+    return table
+
+
+def _cell_texts(table: QTableWidget) -> list[tuple[str, ...]]:
+    return [tuple(table.item(i, j).text() for j in range(table.columnCount())) for i in range(table.rowCount())]
+
+
+class CompareDialog(QDialog):
+    """The printed figures that a change would alter: what the card prints now, and what it would print."""
+
+    def __init__(self, changes: list[Change], registration: str, parent: QWidget | None = None):
+        super().__init__(parent)
+        self.setWindowTitle(f"Compare with saved: {registration}")
+        self._changes = list(changes)
+        self._registration = registration
+        worse = {i for i, c in enumerate(self._changes) if c.worse}
+        rows = [(f"{WORSE_MARK}{c.label}" if i in worse else c.label, c.old or NOT_PRINTED, c.new or NOT_PRINTED)
+                for i, c in enumerate(self._changes)]
+        tips = ["Less room before the stall than the card printed now" if i in worse else ""
+                for i in range(len(rows))]
+
+        layout = QVBoxLayout(self)
+        self.summary = QLabel(self._summary(len(worse)))
+        self.summary.setWordWrap(True)
+        layout.addWidget(self.summary)
+        self.table = _table(COMPARE_COLUMNS, rows, worse, tips)
+        self.table.setAccessibleName("Printed figures that change")
+        self.table.setVisible(bool(rows))
+        layout.addWidget(self.table)
+
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
+        self.copy_button = QPushButton("Copy as text")
+        buttons.addButton(self.copy_button, QDialogButtonBox.ButtonRole.ActionRole)
+        self.copy_button.clicked.connect(self.copy_to_clipboard)
+        buttons.rejected.connect(self.reject)
+        layout.addWidget(buttons)
+        self.resize(640, 420 if rows else 160)
+
+    def _summary(self, n_worse: int) -> str:
+        if not self._changes:
+            return f"{NO_CHANGE} on the card of {self._registration}: the printed card is still current."
+        text = (f"{len(self._changes)} printed figure(s) on the card of {self._registration} read differently "
+                "after your changes: print a new card.")
+        if n_worse:
+            text += (f" Less room before the stall ({n_worse}): a smaller margin or bank, or a higher stall speed; "
+                     f"those rows are in bold and begin with \u201c{WORSE_MARK.strip()}\u201d.")
+        return text
+
+    def row_count(self) -> int:
+        return self.table.rowCount()
+
+    def rows(self) -> list[tuple[str, str, str]]:
+        """The table's cells as shown, row by row."""
+        return _cell_texts(self.table)
+
+    def as_text(self) -> str:
+        """The plain-text list the copy button puts on the clipboard."""
+        if not self._changes:
+            return f"{self._registration}: {NO_CHANGE}\n"
+        lines = [f"{self._registration}: printed figures that change ({COMPARE_COLUMNS[1].lower()} -> "
+                 f"{COMPARE_COLUMNS[2].lower()})"]
+        lines += [f"{figure}: {old} -> {new}" for figure, old, new in self.rows()]
+        return "\n".join(lines) + "\n"
+
+    def copy_to_clipboard(self) -> None:
+        QGuiApplication.clipboard().setText(self.as_text())
+
+
+class FormulaHelpDialog(QDialog):
+    """The formulas behind every figure and their sources, under the caution."""
+
+    def __init__(self, parent: QWidget | None = None):
+        super().__init__(parent)
+        self.setWindowTitle("How the figures are computed")
+        layout = QVBoxLayout(self)
+        self.browser = QTextBrowser()
+        self.browser.setOpenExternalLinks(False)  # the app never goes online
+        self.browser.setHtml(f"<p><b>{escape(CAUTION)}</b></p>{FORMULAS_HTML}")
+        layout.addWidget(self.browser)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
+        buttons.rejected.connect(self.reject)
+        layout.addWidget(buttons)
+        self.resize(760, 560)
+
+
+def _message_box(parent: QWidget | None, title: str, text: str) -> None:
+    QMessageBox.warning(parent, title, text)
+
+
+def show_caution_once(parent: QWidget | None, settings: QSettings,
+                      ask: Callable[[QWidget | None, str, str], None] | None = None) -> bool:
+    """Show the caution on first start and record it in `settings`; True if it was shown now.
+
+    `ask(parent, title, text)` replaces the message box (tests pass a recorder).
+    """
+    if settings.value(CAUTION_KEY, False, type=bool):
+        return False
+    (ask or _message_box)(parent, CAUTION_TITLE, CAUTION)
+    settings.setValue(CAUTION_KEY, True)
+    settings.sync()
+    return True
+
+
+def _found(value: object, limit: int = 60) -> str:
+    """A value as written in the file, quoted like the command line quotes it."""
+    if value is None:
+        return ""
+    text = repr(value)
+    return text if len(text) <= limit else text[: limit - 3] + "..."
+
+
+class ProblemsDialog(QDialog):
+    """Every problem of a profile or style file, one per row, errors before warnings."""
+
+    def __init__(self, title: str, problems: list[Problem], parent: QWidget | None = None):
+        super().__init__(parent)
+        self.setWindowTitle(title)
+        ordered = sorted(problems, key=lambda p: not p.is_error)  # stable: file order within each severity
+        rows = [(p.severity.upper(), p.path, p.message, _found(p.value), p.expected) for p in ordered]
+        errors = sum(p.is_error for p in ordered)
+        layout = QVBoxLayout(self)
+        summary = f"{errors} error(s), {len(ordered) - errors} warning(s)."
+        if errors:
+            summary += " No card can be made until every error is corrected; warnings are shown on the way."
+        self.summary = QLabel(summary)
+        self.summary.setWordWrap(True)
+        layout.addWidget(self.summary)
+        self.table = _table(PROBLEM_COLUMNS, rows, {i for i, p in enumerate(ordered) if p.is_error},
+                            [str(p) for p in ordered])
+        self.table.setAccessibleName("Problems")
+        layout.addWidget(self.table)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
+        buttons.rejected.connect(self.reject)
+        layout.addWidget(buttons)
+        self.resize(760, 360)
+
+    def rows(self) -> list[tuple[str, str, str, str, str]]:
+        return _cell_texts(self.table)
+
+
+def _progress_dialog(parent: QWidget | None, total: int) -> QProgressDialog:
+    dialog = QProgressDialog("Making cards", "Cancel", 0, total, parent)
+    dialog.setWindowTitle("Making cards")
+    # Window-modal: setValue then processes events, so Cancel answers while cards are being made.
+    dialog.setWindowModality(Qt.WindowModality.WindowModal)
+    dialog.setMinimumDuration(0)
+    dialog.setAutoClose(False)
+    return dialog
+
+
+def export_fleet(parent: QWidget | None, paths: list[Path], style: CardStyle, out: Path | None, each: Path | None,
+                 sheet: str | None, weight: float | None = None, progress_factory=None) -> Batch:
+    """Make the cards of `paths` with a cancellable progress dialog and write them as `kneeboard card` does.
+
+    `out` gets one PDF with every card (imposed on `sheet` if given), `each` one PDF per aircraft;
+    `weight` [kg] applies to every card. Profiles that fail and files that cannot be written are in
+    the returned batch's failures; when cancelled nothing is written. `progress_factory(parent, total)`
+    replaces the QProgressDialog (it needs setValue, setLabelText, wasCanceled and close).
+    """
+    if out is None and each is None:
+        raise ValueError("export_fleet needs out, each, or both")
+    dialog = (progress_factory or _progress_dialog)(parent, len(paths))
+
+    def progress(done: int, total: int, name: str) -> bool:
+        if name:
+            dialog.setLabelText(f"Card {done + 1} of {total}: {name}")
+        dialog.setValue(done)
+        return not dialog.wasCanceled()
+
+    try:
+        batch = make_cards(list(paths), style, weight, progress=progress)
+    finally:
+        dialog.close()
+    if batch.cancelled or not batch.cards:
+        return batch
+    target = out
+    try:
+        if out is not None:
+            write_fleet(batch.cards, Path(out), sheet)
+        if each is not None:
+            target = each
+            write_each(batch.cards, Path(each))
+    except FileProblem as exc:
+        # As on the command line: the first file that cannot be written stops the writing.
+        batch.failures.append(Failure(Path(target), [str(exc)]))
+    return batch

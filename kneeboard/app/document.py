@@ -1,0 +1,208 @@
+"""An open profile: the file's TOML document, its undo history, and the profile read from it.
+
+The document is the one truth the editor edits: values are stored exactly as typed (a wrong
+entry stays in the document, and the problem it causes is shown), comments and unknown keys
+survive, and every edit goes through Qt's undo stack as a before/after snapshot of the whole
+text, so undoing back to the start gives the original file byte for byte.
+"""
+
+import copy
+from dataclasses import dataclass
+from pathlib import Path
+
+import tomlkit
+from PySide6.QtCore import QObject, Signal
+from PySide6.QtGui import QUndoCommand, QUndoStack
+
+from kneeboard.fileio import FileProblem, read_text, write_atomic
+from kneeboard.profile_io import ProfileFile, document_from_text, profile_from_plain
+
+Key = tuple  #: a path into the document: ("configuration", 0, "stall_speed")
+
+
+@dataclass(frozen=True)
+class Snapshot:
+    text: str
+
+
+class _Edit(QUndoCommand):
+    """One edit as before/after text; consecutive edits of one field merge into one step."""
+
+    def __init__(self, doc: "ProfileDocument", before: str, after: str, label: str, merge_id: int):
+        super().__init__(label)
+        self.doc, self.before, self.after, self.merge_id = doc, before, after, merge_id
+
+    def id(self) -> int:  # noqa: A003 - Qt's name
+        return self.merge_id
+
+    def mergeWith(self, other) -> bool:  # noqa: N802 - Qt's name
+        if other.id() != self.merge_id or self.merge_id < 0:
+            return False
+        self.after = other.after
+        return True
+
+    def redo(self):
+        self.doc._load_text(self.after)
+
+    def undo(self):
+        self.doc._load_text(self.before)
+
+
+def key_text(key: Key) -> str:
+    """The field path of problems for a document key: ("configuration", 1, "name") -> "configuration[2].name"."""
+    out = ""
+    for part in key:
+        out += f"[{part + 1}]" if isinstance(part, int) else (f".{part}" if out else part)
+    return out
+
+
+class ProfileDocument(QObject):
+    changed = Signal()  #: after every edit, undo and redo
+    modifiedChanged = Signal(bool)
+
+    def __init__(self, text: str, path: Path | None = None, parent=None):
+        super().__init__(parent)
+        self.path = Path(path) if path is not None else None
+        self.undo_stack = QUndoStack(self)
+        # a bound method, not a lambda: Qt drops the connection when this object goes away
+        self.undo_stack.cleanChanged.connect(self._clean_changed)
+        self.saved_text = text
+        self._doc = document_from_text(text, str(path or ""))
+        self._text = text
+        self._loaded: ProfileFile | None = None
+
+    def _clean_changed(self, clean: bool) -> None:
+        self.modifiedChanged.emit(not clean)
+
+    # --- reading -------------------------------------------------------------------------------
+    @classmethod
+    def open(cls, path: Path, parent=None) -> "ProfileDocument":
+        """Raises FileProblem when the file cannot be read or is not TOML at all."""
+        return cls(read_text(Path(path)), path, parent)
+
+    def text(self) -> str:
+        return self._text
+
+    @property
+    def modified(self) -> bool:
+        return not self.undo_stack.isClean()
+
+    @property
+    def loaded(self) -> ProfileFile:
+        """The profile read from the current text, with every problem; cached until the next edit."""
+        if self._loaded is None:
+            self._loaded = profile_from_plain(self._doc.unwrap(), self.path)
+        return self._loaded
+
+    def saved(self) -> ProfileFile:
+        """The profile as last saved (or as opened)."""
+        from kneeboard.profile_io import profile_from_text
+
+        return profile_from_text(self.saved_text, self.path)
+
+    def get(self, key: Key, default=None):
+        node = self._doc
+        for part in key:
+            try:
+                node = node[part]
+            except (KeyError, IndexError, TypeError):
+                return default
+        return node.unwrap() if hasattr(node, "unwrap") else node
+
+    def count(self, key: Key) -> int:
+        value = self.get(key)
+        return len(value) if isinstance(value, list) else 0
+
+    # --- editing -------------------------------------------------------------------------------
+    def set(self, key: Key, value, label: str | None = None, merge: bool = True) -> None:
+        """Set the value at `key` (creating tables on the way); None or "" removes an optional key."""
+        def change(doc):
+            parent = _walk(doc, key[:-1], create=True)
+            if value is None or value == "":
+                if isinstance(parent, dict) and key[-1] in parent:
+                    del parent[key[-1]]
+            else:
+                parent[key[-1]] = value
+
+        self.apply(change, label or f"Edit {key_text(key)}", hash(key) & 0x3FFFFFFF if merge else -1)
+
+    def remove(self, key: Key, label: str | None = None) -> None:
+        def change(doc):
+            parent = _walk(doc, key[:-1])
+            if parent is not None:
+                del parent[key[-1]]
+
+        self.apply(change, label or f"Remove {key_text(key)}")
+
+    def apply(self, change, label: str, merge_id: int = -1) -> None:
+        """Run `change(document)` on a copy; if the text changed, push it as one undoable step."""
+        doc = copy.deepcopy(self._doc)
+        try:
+            change(doc)
+        except (KeyError, IndexError, TypeError, ValueError):
+            return  # the edit does not apply to this document's shape: nothing happens
+        after = tomlkit.dumps(doc)
+        if after != self._text:
+            self.undo_stack.push(_Edit(self, self._text, after, label, merge_id))
+
+    # --- structure ----------------------------------------------------------------------------
+    def add_table(self, key: Key, values: dict, label: str, index: int | None = None) -> None:
+        """Append (or insert at `index`) a table to the array of tables at `key`."""
+        def change(doc):
+            parent = _walk(doc, key[:-1], create=True)
+            if key[-1] not in parent:
+                parent[key[-1]] = tomlkit.aot()
+            table = tomlkit.table()
+            for k, v in values.items():
+                table[k] = v
+            aot = parent[key[-1]]
+            aot.insert(len(aot) if index is None else index, table)
+
+        self.apply(change, label)
+
+    def duplicate_table(self, key: Key, index: int, rename: str, label: str) -> None:
+        def change(doc):
+            aot = _walk(doc, key)
+            table = copy.deepcopy(aot[index])
+            table["name"] = rename
+            aot.insert(index + 1, table)
+
+        self.apply(change, label)
+
+    def move_table(self, key: Key, index: int, delta: int, label: str) -> None:
+        def change(doc):
+            aot = _walk(doc, key)
+            target = index + delta
+            if not 0 <= target < len(aot):
+                raise IndexError(target)
+            aot.insert(target, aot.pop(index))
+
+        self.apply(change, label)
+
+    # --- saving --------------------------------------------------------------------------------
+    def save(self, path: Path | None = None) -> None:
+        """Write the document atomically; raises FileProblem and keeps the edits when it fails."""
+        target = Path(path) if path is not None else self.path
+        if target is None:
+            raise FileProblem("the profile has no file yet; choose where to save it")
+        write_atomic(target, self._text)
+        self.path = target
+        self.saved_text = self._text
+        self._loaded = None
+        self.undo_stack.setClean()
+        self.changed.emit()
+
+    def _load_text(self, text: str) -> None:
+        self._doc = document_from_text(text, str(self.path or ""))
+        self._text = text
+        self._loaded = None
+        self.changed.emit()
+
+
+def _walk(doc, key: Key, create: bool = False):
+    node = doc
+    for part in key:
+        if isinstance(part, str) and create and part not in node:
+            node[part] = tomlkit.table()
+        node = node[part]
+    return node

@@ -1,0 +1,409 @@
+"""The profile editor: every field of the profile file, bound to a key of the open document.
+
+Widgets here only display and edit: values go into the document exactly as typed, the document
+reads them into a profile, and the problems it finds come back to the fields that caused them.
+"""
+
+from PySide6.QtCore import Signal
+from PySide6.QtWidgets import (
+    QCheckBox,
+    QFormLayout,
+    QGroupBox,
+    QHBoxLayout,
+    QLabel,
+    QListWidget,
+    QPushButton,
+    QScrollArea,
+    QTabWidget,
+    QVBoxLayout,
+    QWidget,
+)
+
+from kneeboard import units
+from kneeboard.aero.limits import CATEGORY_LIMIT_LOAD
+from kneeboard.app.document import ProfileDocument, key_text
+from kneeboard.app.fields import ChoiceField, Field, NotesField, NumberField, PairsField, TextField
+from kneeboard.app.items import ItemsField
+from kneeboard.problems import Problem
+from kneeboard.profile import CATEGORIES, SPEED_BASES
+
+CONFIG = "configuration"
+DEFAULT = "(default)"
+
+
+class ProfileEditor(QScrollArea):
+    """All sections of one profile. `focus_problem(path)` brings a problem's field into view."""
+
+    problemsShown = Signal(int, int)  #: errors, warnings
+
+    def __init__(self, doc: ProfileDocument, parent=None):
+        super().__init__(parent)
+        self.doc = doc
+        self.setWidgetResizable(True)
+        body = QWidget()
+        self.setWidget(body)
+        self.box = QVBoxLayout(body)
+        self.fields: dict[str, Field] = {}
+        self.kinds: dict[str, units.Kind] = {}
+        self.keys: dict[str, tuple] = {}
+        self.problem_list = QListWidget()
+        self.problem_list.setMaximumHeight(110)
+        self.all_clear = QLabel("No problems: the card can be printed.")
+        self.all_clear.setStyleSheet("color: #1B5E20; font-weight: bold;")
+        self.problem_list.itemActivated.connect(lambda item: self.focus_problem(item.data(256)))
+        problems = QGroupBox("Problems")
+        problems_box = QVBoxLayout(problems)
+        problems_box.addWidget(self.all_clear)
+        problems_box.addWidget(self.problem_list)
+        self.problems_box = problems
+        self.box.addWidget(problems)
+        self._aircraft()
+        self._weight()
+        self._configurations()
+        self._glider()
+        self._card()
+        self.box.addStretch(1)
+        doc.changed.connect(self.refresh)
+        self.refresh()
+
+    # --- building ------------------------------------------------------------------------------
+    def _bind(self, form: QFormLayout | None, label: str, key: tuple, field: Field, kind=None) -> Field:
+        path = key_text(key)
+        self.fields[path] = field
+        self.keys[path] = key
+        if kind is not None:
+            self.kinds[path] = kind
+        field.edited.connect(lambda value, key=key, label=label: self.doc.set(key, value, f"Change {label}"))
+        if form is not None:
+            form.addRow(label, field)
+        return field
+
+    def _group(self, title: str) -> QFormLayout:
+        group = QGroupBox(title)
+        form = QFormLayout(group)
+        self.box.addWidget(group)
+        return form
+
+    def _aircraft(self):
+        f = self._group("Aircraft")
+        a = ("aircraft",)
+        self._bind(f, "Registration", a + ("registration",), TextField("e.g. DEMO-01"))
+        self._bind(f, "Model", a + ("model",), TextField("what the card calls it"))
+        self._bind(f, "Category", a + ("category",), ChoiceField(CATEGORIES))
+        self._bind(f, "Maximum weight", a + ("max_weight",), TextField('e.g. "750 kg" or "1650 lb"'), units.MASS)
+        self._bind(f, "Speeds published at", a + ("reference_weight",), TextField("default: maximum weight"),
+                   units.MASS)
+        self._bind(f, "Limit load factor", a + ("limit_load_factor",), NumberField("default for the category"))
+        self._bind(f, "Maneuvering speed VA", a + ("maneuvering_speed",), TextField("optional, at that weight"),
+                   units.SPEED)
+        self._bind(f, "Speeds given as", a + ("speed_basis",), ChoiceField(SPEED_BASES))
+        self._bind(f, "Calibration, flaps up", a + ("calibration",), PairsField(("IAS", "CAS")))
+
+    def _weight(self):
+        f = self._group("Weight for this card")
+        self.weight_mode = ChoiceField(("reference", "total", "build-up"), {
+            "reference": "The weight the speeds were published at", "total": "A total weight",
+            "build-up": "Empty weight plus items"})
+        self.weight_mode.edited.connect(self._set_weight_mode)
+        f.addRow("Weight", self.weight_mode)
+        self.fields["weight"] = self.weight_mode  # problems of the weight as a whole show here
+        self._bind(f, "Total", ("weight", "total"), TextField('e.g. "690 kg"'), units.MASS)
+        self._bind(f, "Empty weight", ("weight", "empty"), TextField('e.g. "480 kg"'), units.MASS)
+        items = ItemsField()
+        self._bind(None, "items", ("weight", "item"), items)
+        f.addRow("Items", items)
+        self.weight_form = f
+
+    def _configurations(self):
+        group = QGroupBox("Configurations")
+        v = QVBoxLayout(group)
+        buttons = QHBoxLayout()
+        self.config_buttons = {}
+        for name, slot in (("Add", self._add_config), ("Duplicate", self._duplicate_config),
+                           ("Remove", self._remove_config), ("Move left", lambda: self._move_config(-1)),
+                           ("Move right", lambda: self._move_config(1))):
+            b = QPushButton(name)
+            b.clicked.connect(slot)
+            buttons.addWidget(b)
+            self.config_buttons[name] = b
+        buttons.addStretch(1)
+        v.addLayout(buttons)
+        self.config_tabs = QTabWidget()
+        v.addWidget(self.config_tabs)
+        self.box.addWidget(group)
+
+    def _config_form(self, i: int) -> QWidget:
+        page = QWidget()
+        f = QFormLayout(page)
+        c = (CONFIG, i)
+        self._bind(f, "Name", c + ("name",), TextField("e.g. Flaps up"))
+        self._bind(f, "Stall speed", c + ("stall_speed",), TextField("power off, wings level"), units.SPEED)
+        mode = ChoiceField(("factor", "fixed"), {"factor": "A factor of the stall speed",
+                                                 "fixed": "A fixed speed"})
+        mode.edited.connect(lambda value, i=i: self._set_pattern_mode(i, value))
+        f.addRow("Pattern speed", mode)
+        self.fields[f"{CONFIG}[{i + 1}].pattern_mode"] = mode
+        self._bind(f, "Factor", c + ("pattern_factor",), NumberField("default 1.4"))
+        self._bind(f, "Fixed speed", c + ("pattern_speed",), TextField('e.g. "68 kt"'), units.SPEED)
+        self._bind(f, "Flap limit VFE", c + ("flap_limit_speed",), TextField("optional"), units.SPEED)
+        self._bind(f, "Calibration", c + ("calibration",), PairsField(("IAS", "CAS")))
+        return page
+
+    def _glider(self):
+        f = self._group("Glider polar")
+        self.is_glider = QCheckBox("This aircraft has a speed polar (gliders)")
+        self.is_glider.clicked.connect(self._set_glider)
+        f.addRow(self.is_glider)
+        self._bind(f, "Measured at", ("glider", "polar_weight"), TextField('e.g. "400 kg"'), units.MASS)
+        self._bind(f, "Polar", ("glider", "polar"), PairsField(("speed", "sink rate")))
+
+    def _card(self):
+        f = self._group("Card")
+        k = ("card",)
+        self._bind(f, "Bank angles", k + ("bank_angles",), BanksField())
+        self._bind(f, "Speed unit", k + ("speed_unit",), ChoiceField((None,) + units.SPEED_UNITS, {None: DEFAULT}))
+        self._bind(f, "Distance unit", k + ("distance_unit",),
+                   ChoiceField((None,) + units.DISTANCE_UNITS, {None: DEFAULT}))
+        self._bind(f, "Weight unit", k + ("weight_unit",), ChoiceField((None,) + units.WEIGHT_UNITS, {None: DEFAULT}))
+        self._bind(f, "Buffer", k + ("buffer",), TextField('the least margin to keep, e.g. "5 kt"'), units.SPEED)
+        self._bind(f, "Pressure altitude", k + ("pressure_altitude",), TextField('e.g. "1000 ft"'), units.LENGTH)
+        self._bind(f, "Temperature", k + ("temperature",), TextField("default: standard atmosphere"),
+                   units.TEMPERATURE)
+        self._bind(f, "Notes", k + ("notes",), NotesField())
+
+    # --- structural edits ------------------------------------------------------------------------
+    def _current_config(self) -> int:
+        return max(self.config_tabs.currentIndex(), 0)
+
+    def _add_config(self):
+        n = self.doc.count((CONFIG,))
+        unit = self.card_units()[0]
+        self.doc.add_table((CONFIG,), {"name": f"Configuration {n + 1}", "stall_speed": f"50 {unit}"},
+                           "Add configuration")
+        self.config_tabs.setCurrentIndex(n)
+
+    def _duplicate_config(self):
+        i = self._current_config()
+        name = self.doc.get((CONFIG, i, "name"), "Configuration")
+        self.doc.duplicate_table((CONFIG,), i, f"{name} (copy)", "Duplicate configuration")
+        self.config_tabs.setCurrentIndex(i + 1)
+
+    def _remove_config(self):
+        i = self._current_config()
+        if self.doc.count((CONFIG,)) > 1:
+            self.doc.remove((CONFIG, i), "Remove configuration")
+
+    def _move_config(self, delta: int):
+        i = self._current_config()
+        self.doc.move_table((CONFIG,), i, delta, "Move configuration")
+        self.config_tabs.setCurrentIndex(max(0, min(i + delta, self.doc.count((CONFIG,)) - 1)))
+
+    def _set_pattern_mode(self, i: int, mode: str):
+        c = (CONFIG, i)
+        loaded = self.doc.loaded
+
+        def change(doc):
+            table = doc[CONFIG][i]
+            if mode == "fixed" and "pattern_speed" not in table:
+                table.pop("pattern_factor", None)
+                table["pattern_speed"] = self._pattern_speed_text(loaded, i)
+            elif mode == "factor" and "pattern_speed" in table:
+                del table["pattern_speed"]
+                table["pattern_factor"] = 1.4
+
+        self.doc.apply(change, "Change pattern speed")
+        del c
+
+    def _pattern_speed_text(self, loaded, i: int) -> str:
+        unit = self.card_units()[0]
+        if loaded.profile is not None:
+            from kneeboard.tables import build
+
+            table = build(loaded.profile)
+            return f"{table.configurations[i].pattern_speed.text} {table.speed_unit}"
+        return f"70 {unit}"
+
+    def _set_weight_mode(self, mode: str):
+        loaded = self.doc.loaded
+        unit = self.card_units()[2]
+        current = None
+        if loaded.profile is not None:
+            current = units.format_quantity(loaded.profile.weight, units.MASS, unit)
+
+        def change(doc):
+            if mode == "reference":
+                doc.pop("weight", None)
+                return
+            if "weight" not in doc:
+                import tomlkit
+
+                doc["weight"] = tomlkit.table()
+            w = doc["weight"]
+            if mode == "total" and "total" not in w:
+                for key in ("empty", "item"):
+                    w.pop(key, None)
+                w["total"] = current or f"0 {unit}"
+            elif mode == "build-up" and "empty" not in w:
+                w.pop("total", None)
+                w["empty"] = current or f"0 {unit}"
+
+        self.doc.apply(change, "Change how the weight is given")
+
+    def _set_glider(self, on: bool):
+        if on and self.doc.get(("glider",)) is None:
+            unit = self.card_units()[2]
+            weight = self.doc.get(("aircraft", "max_weight")) or f"400 {unit}"
+            self.doc.set(("glider", "polar_weight"), weight, "Add polar", merge=False)
+        elif not on and self.doc.get(("glider",)) is not None:
+            self.doc.remove(("glider",), "Remove polar")
+
+    # --- showing the document ------------------------------------------------------------------
+    def card_units(self) -> tuple[str, str, str]:
+        """Speed, distance and weight units of the card (the profile's, or defaults while it has errors)."""
+        p = self.doc.loaded.profile
+        if p is not None:
+            return p.card.speed_unit, p.card.distance_unit, p.card.weight_unit
+        return (self.doc.get(("card", "speed_unit")) or "kt", self.doc.get(("card", "distance_unit")) or "ft",
+                self.doc.get(("card", "weight_unit")) or "kg")
+
+    def refresh(self):
+        self._sync_config_tabs()
+        for path, field in self.fields.items():
+            key = self.keys.get(path)
+            if key is not None:
+                field.set_value(self.doc.get(key))
+        self._sync_modes()
+        self._show_conversions()
+        self._show_problems(list(self.doc.loaded.problems))
+
+    def _sync_config_tabs(self):
+        n = self.doc.count((CONFIG,))
+        names = [str(self.doc.get((CONFIG, i, "name"), "") or f"#{i + 1}") for i in range(n)]
+        while self.config_tabs.count() < n:
+            i = self.config_tabs.count()
+            self.config_tabs.addTab(self._config_form(i), names[i])
+        while self.config_tabs.count() > n:
+            i = self.config_tabs.count() - 1
+            page = self.config_tabs.widget(i)
+            self.config_tabs.removeTab(i)
+            page.deleteLater()
+            prefix = f"{CONFIG}[{i + 1}]"
+            for path in [p for p in self.fields if p.startswith(prefix)]:
+                self.fields.pop(path)
+                self.keys.pop(path, None)
+                self.kinds.pop(path, None)
+        for i, name in enumerate(names):
+            if self.config_tabs.tabText(i) != name:
+                self.config_tabs.setTabText(i, name)
+        self.config_buttons["Remove"].setEnabled(n > 1)
+
+    def _sync_modes(self):
+        w = self.doc.get(("weight",))
+        mode = "reference" if not isinstance(w, dict) else ("total" if "total" in w else "build-up")
+        self.weight_mode.set_value(mode)
+        form = self.weight_form
+        for path, show in (("weight.total", mode == "total"), ("weight.empty", mode == "build-up"),
+                           ("weight.item", mode == "build-up")):
+            form.setRowVisible(self.fields[path], show)
+        for i in range(self.doc.count((CONFIG,))):
+            fixed = self.doc.get((CONFIG, i, "pattern_speed")) is not None
+            self.fields[f"{CONFIG}[{i + 1}].pattern_mode"].set_value("fixed" if fixed else "factor")
+            page = self.config_tabs.widget(i)
+            page.layout().setRowVisible(self.fields[f"{CONFIG}[{i + 1}].pattern_factor"], not fixed)
+            page.layout().setRowVisible(self.fields[f"{CONFIG}[{i + 1}].pattern_speed"], fixed)
+        glider = self.doc.get(("glider",)) is not None
+        self.is_glider.setChecked(glider)
+        for path in ("glider.polar_weight", "glider.polar"):
+            self.fields[path].setEnabled(glider)
+        category = self.doc.get(("aircraft", "category")) or "normal"
+        n = CATEGORY_LIMIT_LOAD.get(category)
+        if n:
+            self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(f"{n} for the {category} category")
+
+    def _show_conversions(self):
+        speed_unit, distance_unit, weight_unit = self.card_units()
+        targets = {units.SPEED.name: speed_unit, units.MASS.name: weight_unit, units.LENGTH.name: distance_unit,
+                   units.TEMPERATURE.name: "degC"}
+        for path, kind in self.kinds.items():
+            field = self.fields.get(path)
+            if field is not None:
+                field.set_beside(converted(field.value() if hasattr(field, "value") else "", kind,
+                                           targets.get(kind.name)))
+
+    def _show_problems(self, problems: list[Problem]):
+        for field in self.fields.values():
+            field.set_problem(None)
+        self.problem_list.clear()
+        errors = [p for p in problems if p.is_error]
+        warnings = [p for p in problems if not p.is_error]
+        for p in errors + warnings:
+            field = self.field_for(p.path)
+            if field is not None and (field.problem is None or (p.is_error and not field.problem.is_error)):
+                field.set_problem(p)
+            self.problem_list.addItem(f"{p.severity}: {p.path}: {p.message}")
+            self.problem_list.item(self.problem_list.count() - 1).setData(256, p.path)
+        self.problem_list.setVisible(bool(problems))
+        self.all_clear.setVisible(not problems)
+        self.problem_list.setFixedHeight(min(110, 8 + 20 * max(len(problems), 1)))
+        self.problemsShown.emit(len(errors), len(warnings))
+
+    def field_for(self, path: str) -> Field | None:
+        """The field a problem belongs to: its own, or the nearest enclosing one."""
+        while path:
+            if path in self.fields:
+                return self.fields[path]
+            cut = max(path.rfind("."), path.rfind("["))
+            path = path[:cut] if cut > 0 else ""
+        return None
+
+    def focus_problem(self, path: str):
+        field = self.field_for(path or "")
+        if field is None:
+            return
+        if path.startswith(CONFIG + "["):
+            self.config_tabs.setCurrentIndex(int(path[len(CONFIG) + 1:].split("]")[0]) - 1)
+        self.ensureWidgetVisible(field)
+        field.input.setFocus()
+
+
+def converted(text: str, kind: units.Kind, unit: str | None) -> str:
+    """ "= 25.4 kt" for a valid entry in another unit than the card's; "" otherwise."""
+    if not unit or not isinstance(text, str) or not text.strip():
+        return ""
+    try:
+        si = units.parse(text, kind)
+    except units.QuantityError:
+        return ""
+    if units.display_unit(text, (unit,)) == unit:
+        return ""
+    value = units.from_si(si, kind, unit)
+    shown = "°C" if unit == "degC" else unit
+    return f"= {value:.1f} {shown}" if abs(value) < 100 else f"= {value:.0f} {shown}"
+
+
+class BanksField(TextField):
+    """Bank angles typed as "0, 15, 30, 45, 60"; kept as text when it is not a list of numbers."""
+
+    def __init__(self, parent=None):
+        super().__init__("degrees, e.g. 0, 15, 30, 45, 60", parent)
+        self.input.textEdited.disconnect()
+        self.input.textEdited.connect(lambda text: self.edited.emit(parse_banks(text)))
+
+    def set_value(self, value) -> None:
+        if isinstance(value, list):
+            value = ", ".join(f"{b:g}" if isinstance(b, (int, float)) else str(b) for b in value)
+        super().set_value(value)
+
+
+def parse_banks(text: str):
+    parts = [p.strip() for p in text.replace(";", ",").split(",") if p.strip()]
+    if not parts:
+        return None
+    numbers = []
+    for p in parts:
+        try:
+            number = float(p)
+        except ValueError:
+            return text  # kept as typed: the profile check says what is wrong with it
+        numbers.append(int(number) if number.is_integer() else number)
+    return numbers

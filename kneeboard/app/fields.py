@@ -1,0 +1,226 @@
+"""Editor fields: a line for what the person types, the value in the card's units beside it, and
+the problem (if any) right under it. A field never rejects input: what is typed stays, and the
+document decides what it means.
+"""
+
+from PySide6.QtCore import Qt, Signal
+from PySide6.QtWidgets import (
+    QAbstractItemView,
+    QComboBox,
+    QHBoxLayout,
+    QHeaderView,
+    QLabel,
+    QLineEdit,
+    QPlainTextEdit,
+    QPushButton,
+    QTableWidget,
+    QTableWidgetItem,
+    QVBoxLayout,
+    QWidget,
+)
+
+from kneeboard.problems import Problem
+
+ERROR_STYLE = "color: #A11D1D;"
+WARNING_STYLE = "color: #8A5A00;"
+
+
+class Field(QWidget):
+    """Base: an input, an optional read-out beside it, and a problem line under it."""
+
+    edited = Signal(object)  #: the new value as the person typed it
+
+    def __init__(self, editor: QWidget, parent=None):
+        super().__init__(parent)
+        self.input = editor
+        self.beside = QLabel()
+        self.beside.setObjectName("converted")
+        self.beside.setStyleSheet("color: #555;")
+        self.problem_label = QLabel()
+        self.problem_label.setWordWrap(True)
+        self.problem_label.setObjectName("problem")
+        self.problem_label.hide()
+        row = QHBoxLayout()
+        row.setContentsMargins(0, 0, 0, 0)
+        row.addWidget(editor, 1)
+        row.addWidget(self.beside)
+        box = QVBoxLayout(self)
+        box.setContentsMargins(0, 0, 0, 0)
+        box.setSpacing(1)
+        box.addLayout(row)
+        box.addWidget(self.problem_label)
+        self.problem: Problem | None = None
+
+    def set_problem(self, problem: Problem | None) -> None:
+        """Mark the field with the reason, or clear the mark."""
+        self.problem = problem
+        if problem is None:
+            self.problem_label.hide()
+            self.input.setStyleSheet("")
+            self.input.setToolTip("")
+            return
+        text = problem.message + (f"; expected {problem.expected}" if problem.expected else "")
+        prefix = "Error: " if problem.is_error else "Warning: "
+        self.problem_label.setText(prefix + text)
+        self.problem_label.setStyleSheet(ERROR_STYLE if problem.is_error else WARNING_STYLE)
+        self.problem_label.show()
+        colour = "#C62828" if problem.is_error else "#C77700"
+        self.input.setStyleSheet(f"border: 2px solid {colour};")
+        self.input.setToolTip(prefix + text)
+
+    def set_beside(self, text: str) -> None:
+        self.beside.setText(text)
+
+
+class TextField(Field):
+    """Free text, or a quantity such as "52 kt": the document stores exactly what is typed."""
+
+    def __init__(self, placeholder: str = "", parent=None):
+        super().__init__(QLineEdit(), parent)
+        self.input.setPlaceholderText(placeholder)
+        self.input.textEdited.connect(self.edited.emit)
+
+    def value(self) -> str:
+        return self.input.text()
+
+    def set_value(self, value) -> None:
+        text = "" if value is None else str(value)
+        if self.input.text() != text:
+            pos = self.input.cursorPosition()
+            self.input.setText(text)
+            self.input.setCursorPosition(min(pos, len(text)))
+
+
+class NumberField(TextField):
+    """A plain number (a load factor, a pattern factor); what is not a number is kept as text."""
+
+    def __init__(self, placeholder: str = "", parent=None):
+        super().__init__(placeholder, parent)
+        self.input.textEdited.disconnect()
+        self.input.textEdited.connect(lambda text: self.edited.emit(parse_number(text)))
+
+    def set_value(self, value) -> None:
+        super().set_value(format_number(value))
+
+
+def parse_number(text: str):
+    """12 -> 12, "1.4" -> 1.4, "" -> None, anything else stays text so its problem can be shown."""
+    text = text.strip()
+    if not text:
+        return None
+    try:
+        number = float(text)
+    except ValueError:
+        return text
+    return int(number) if number.is_integer() and "." not in text and "e" not in text.lower() else number
+
+
+def format_number(value) -> str:
+    if value is None:
+        return ""
+    if isinstance(value, float) and value.is_integer():
+        return f"{value:.1f}"
+    return str(value)
+
+
+class ChoiceField(Field):
+    def __init__(self, options: tuple[str, ...], labels: dict[str, str] | None = None, parent=None):
+        super().__init__(QComboBox(), parent)
+        for option in options:
+            self.input.addItem((labels or {}).get(option, option), option)
+        self.input.activated.connect(lambda i: self.edited.emit(self.input.itemData(i)))
+
+    def set_value(self, value) -> None:
+        i = next((k for k in range(self.input.count()) if self.input.itemData(k) == value), -1)
+        if i < 0 and value is not None:  # a value from the file we do not offer: show it, flagged
+            self.input.addItem(str(value), value)
+            i = self.input.count() - 1
+        if i >= 0 and i != self.input.currentIndex():
+            self.input.setCurrentIndex(i)
+
+    def value(self):
+        return self.input.currentData()
+
+
+class NotesField(Field):
+    def __init__(self, parent=None):
+        super().__init__(QPlainTextEdit(), parent)
+        self.input.setFixedHeight(70)
+        self.input.textChanged.connect(self._changed)
+        self._quiet = False
+
+    def _changed(self):
+        if not self._quiet:
+            self.edited.emit(self.input.toPlainText())
+
+    def set_value(self, value) -> None:
+        text = value or ""
+        if self.input.toPlainText() != text:
+            self._quiet = True
+            self.input.setPlainText(text)
+            self._quiet = False
+
+
+class PairsField(Field):
+    """A table of [a, b] quantity pairs (a calibration table, a polar) with add and remove."""
+
+    def __init__(self, headers: tuple[str, str], add_label: str = "Add row", parent=None):
+        table = QTableWidget(0, 2)
+        table.setHorizontalHeaderLabels(list(headers))
+        table.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Stretch)
+        table.verticalHeader().setVisible(False)
+        table.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
+        table.setMinimumHeight(110)
+        super().__init__(table, parent)
+        table.hide()
+        self.add = QPushButton(add_label)
+        self.delete = QPushButton("Remove row")
+        buttons = QHBoxLayout()
+        buttons.addWidget(self.add)
+        buttons.addWidget(self.delete)
+        buttons.addStretch(1)
+        self.layout().insertLayout(1, buttons)
+        self._quiet = False
+        table.itemChanged.connect(self._changed)
+        self.add.clicked.connect(self._add)
+        self.delete.clicked.connect(self._remove)
+
+    def rows(self) -> list[list[str]]:
+        t = self.input
+        return [[(t.item(r, c).text() if t.item(r, c) else "") for c in range(2)] for r in range(t.rowCount())]
+
+    def set_value(self, value) -> None:
+        rows = [[str(x) for x in pair] if isinstance(pair, list) else [str(pair), ""] for pair in (value or [])]
+        if rows == self.rows():
+            return
+        self._quiet = True
+        self.input.setRowCount(len(rows))
+        for r, pair in enumerate(rows):
+            for c in range(2):
+                self.input.setItem(r, c, QTableWidgetItem(pair[c] if c < len(pair) else ""))
+        self._quiet = False
+        self.input.setVisible(bool(rows))  # an empty table is just its "Add row" button
+        self.delete.setEnabled(bool(rows))
+
+    def _changed(self, _item=None):
+        if not self._quiet:
+            self.edited.emit(self.rows() or None)
+
+    def _add(self):
+        rows = self.rows()
+        last = rows[-1] if rows else ["", ""]
+        self.edited.emit(rows + [list(last)])
+
+    def _remove(self):
+        rows = self.rows()
+        r = self.input.currentRow()
+        if rows:
+            del rows[r if 0 <= r < len(rows) else -1]
+        self.edited.emit(rows or None)
+
+
+def heading(text: str) -> QLabel:
+    label = QLabel(text)
+    label.setStyleSheet("font-weight: bold;")
+    label.setAlignment(Qt.AlignmentFlag.AlignLeft)
+    return label

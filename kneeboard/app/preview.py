@@ -1,0 +1,497 @@
+"""The live card preview: the card's own PDF bytes, built off the GUI thread and shown with QtPdf.
+
+There is one renderer: a job returns exactly the bytes that would be written or printed, and this
+widget only displays them. This is the only module of the app that imports QtPdf.
+
+Threading: a job runs on the global QThreadPool. At most one job of a widget runs and at most one
+waits (the newest; those in between are dropped unseen); a result older than the newest request
+is dropped too. Results reach the GUI thread through a relay owned by the application, not by the
+widget, so a result arriving after the widget is gone finds a living receiver that discards it.
+"""
+
+import logging
+import weakref
+from collections.abc import Callable
+from dataclasses import dataclass
+from time import perf_counter
+
+import shiboken6
+from PySide6.QtCore import (
+    QBuffer,
+    QByteArray,
+    QCoreApplication,
+    QEventLoop,
+    QIODevice,
+    QObject,
+    QPointF,
+    QRunnable,
+    QSize,
+    QSizeF,
+    Qt,
+    QThreadPool,
+    QTimer,
+    Signal,
+    Slot,
+)
+from PySide6.QtGui import QAction, QActionGroup, QColor, QImage, QKeySequence, QPainter
+from PySide6.QtPdf import QPdfDocument
+from PySide6.QtPdfWidgets import QPdfView
+from PySide6.QtWidgets import QComboBox, QGridLayout, QLabel, QSizePolicy, QToolBar, QVBoxLayout, QWidget
+
+__all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
+
+log = logging.getLogger(__name__)
+
+#: Custom zoom factors the zoom buttons step through (1.0 = the page at its true size on screen).
+ZOOM_STEPS = (0.25, 0.33, 0.5, 0.67, 0.75, 0.9, 1.0, 1.1, 1.25, 1.5, 1.75, 2.0, 2.5, 3.0, 4.0)
+#: What the preview can show: (mode, label). The window decides which job each mode sends.
+MODES = (("card", "Card"), ("letter", "Sheet (Letter)"), ("a4", "Sheet (A4)"))
+BUSY_DELAY_MS = 300  #: renders quicker than this never flash the "Updating" note
+
+Job = Callable[[], bytes]
+
+
+def open_pdf(pdf: bytes, parent: QObject | None = None) -> QPdfDocument:
+    """A QPdfDocument reading `pdf`, from a QBuffer child of the document: the bytes live as long as it.
+
+    Raises
+    ------
+    ValueError
+        When the bytes are not a PDF QtPdf can read, or have no page.
+    """
+    doc = QPdfDocument(parent)
+    source = QBuffer(doc)
+    source.setData(QByteArray(bytes(pdf)))
+    source.open(QIODevice.OpenModeFlag.ReadOnly)
+    doc.load(source)
+    if doc.status() != QPdfDocument.Status.Ready or doc.pageCount() < 1:
+        reason = doc.error().name if doc.status() == QPdfDocument.Status.Error else "no page"
+        doc.close()
+        doc.deleteLater()
+        raise ValueError(f"the PDF could not be read ({reason})")
+    return doc
+
+
+def page_labels(count: int) -> list[str]:
+    """Names of the pages in the page selector: a card's two sides, or plain numbers."""
+    if count <= 2:
+        return ["Front", "Back"][:count]
+    return [f"Page {i + 1} of {count}" for i in range(count)]
+
+
+def _failure_text(exc: Exception) -> str:
+    # a LayoutError's text is already a sentence for the pilot; anything else at least names itself
+    return str(exc) or f"The card could not be drawn ({type(exc).__name__})."
+
+
+@dataclass
+class _Request:
+    generation: int
+    job: Job
+    started: float  #: perf_counter() when request() was called [s]
+
+
+class _Relay(QObject):
+    """Carries finished jobs from pool threads to the GUI thread, and outlives its widget.
+
+    It is a child of the application, so a worker never emits on a deleted object; once its
+    widget is gone it discards what still arrives and deletes itself after the last result.
+    """
+
+    done = Signal(int, object, str)  #: generation, PDF bytes or None, failure text ("" on success)
+
+    def __init__(self, widget: "CardPreview"):
+        super().__init__(QCoreApplication.instance())
+        self.outstanding = 0  #: jobs started whose result has not come back yet
+        self._target = weakref.WeakMethod(widget._finished)
+        # emitted from a pool thread, received here in the GUI thread: a queued connection
+        self.done.connect(self._deliver)
+
+    def detach(self) -> None:
+        self._target = None
+        if self.outstanding == 0:
+            self.deleteLater()
+
+    @Slot(int, object, str)
+    def _deliver(self, generation: int, data: bytes | None, error: str) -> None:
+        self.outstanding -= 1
+        method = self._target() if self._target is not None else None
+        if method is not None and shiboken6.isValid(method.__self__):
+            method(generation, data, error)
+        elif self.outstanding == 0:
+            self._target = None
+            self.deleteLater()
+
+
+class _Runner(QRunnable):
+    """Runs one job on a pool thread and always reports back, whatever the job does."""
+
+    def __init__(self, request: _Request, relay: _Relay):
+        super().__init__()
+        self._request = request
+        self._relay = relay
+
+    def run(self) -> None:
+        data, error = None, ""
+        try:
+            data = self._request.job()
+            if not isinstance(data, bytes | bytearray):
+                raise TypeError(f"a preview job must return PDF bytes, not {type(data).__name__}")
+            data = bytes(data)
+        except Exception as exc:  # every failure must reach the user; a lost one would hang the preview
+            log.debug("preview job %d failed", self._request.generation, exc_info=True)
+            data, error = None, _failure_text(exc)
+        self._relay.done.emit(self._request.generation, data, error)
+
+
+class CardPreview(QWidget):
+    """The card as it will print, rendered from its PDF, with zoom, page and mode controls.
+
+    Signals
+    -------
+    rendered(int generation, float milliseconds)
+        A new PDF is shown; the time runs from its `request()` to the page being ready.
+    failed(str message)
+        The newest job raised; the message is shown over the last good page, which stays.
+    modeChanged(str mode)
+        The user chose "card", "letter" or "a4"; the window answers with a new `request()`.
+
+    Child widgets have object names for tests and style sheets: ``previewView``, ``previewError``,
+    ``pageSelector``, ``modeSelector``, and the actions ``zoomOut``, ``zoomIn``, ``fitWidth``,
+    ``wholePage``.
+    """
+
+    rendered = Signal(int, float)
+    failed = Signal(str)
+    modeChanged = Signal(str)
+
+    def __init__(self, parent: QWidget | None = None):
+        super().__init__(parent)
+        self._generation = 0  #: the newest generation requested
+        self._running: _Request | None = None
+        self._pending: _Request | None = None
+        self._doc: QPdfDocument | None = None
+        self._pdf: bytes | None = None
+        self._idle_waiters: list[QEventLoop] = []  #: wait_idle() loops to end when the work is done
+        self._relay = _Relay(self)
+        self.destroyed.connect(self._relay.detach)
+        self._busy_timer = QTimer(self, singleShot=True, interval=BUSY_DELAY_MS)
+        self._busy_timer.timeout.connect(lambda: self._busy_action.setVisible(True))
+
+        self._view = QPdfView(self)
+        self._view.setObjectName("previewView")
+        self._view.setPageMode(QPdfView.PageMode.SinglePage)
+        self._view.setZoomMode(QPdfView.ZoomMode.FitInView)
+        self._view.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
+        self._view.pageNavigator().currentPageChanged.connect(self._sync_page_selector)
+        self._view.zoomModeChanged.connect(self._sync_zoom_controls)
+        self._view.zoomFactorChanged.connect(self._sync_zoom_controls)
+
+        # the message lies over the last good page: a translucent veil greys it without hiding it
+        self._error = QWidget(self)
+        self._error.setObjectName("previewError")
+        self._error.setAttribute(Qt.WidgetAttribute.WA_StyledBackground)
+        self._error.setAttribute(Qt.WidgetAttribute.WA_TransparentForMouseEvents)  # the page still scrolls
+        self._error.setStyleSheet(
+            "QWidget#previewError { background: rgba(225, 225, 225, 150); }"
+            " QLabel { background: white; color: #7A1010; border: 2px solid #7A1010; padding: 12px; }")
+        self._error_text = QLabel(self._error)
+        self._error_text.setWordWrap(True)
+        self._error_text.setAlignment(Qt.AlignmentFlag.AlignCenter)
+        self._error_text.setMaximumWidth(420)
+        veil = QVBoxLayout(self._error)
+        veil.addWidget(self._error_text, 0, Qt.AlignmentFlag.AlignCenter)
+        self._error.hide()
+
+        self._toolbar = self._build_toolbar()
+        stack = QGridLayout()
+        stack.setContentsMargins(0, 0, 0, 0)
+        stack.addWidget(self._view, 0, 0)
+        stack.addWidget(self._error, 0, 0)
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(0, 0, 0, 0)
+        layout.setSpacing(0)
+        layout.addWidget(self._toolbar)
+        layout.addLayout(stack, 1)
+        self._sync_zoom_controls()
+
+    # ------------------------------------------------------------------ controls
+
+    def _build_toolbar(self) -> QToolBar:
+        bar = QToolBar("Preview", self)
+        bar.setToolButtonStyle(Qt.ToolButtonStyle.ToolButtonTextOnly)
+
+        def action(name: str, text: str, tip: str, slot, keys=None) -> QAction:
+            act = QAction(text, self)
+            act.setObjectName(name)
+            act.setToolTip(tip)
+            if keys is not None:
+                act.setShortcut(keys)
+                # only while the preview has focus: the editor keeps its own keys
+                act.setShortcutContext(Qt.ShortcutContext.WidgetWithChildrenShortcut)
+                self.addAction(act)
+            act.triggered.connect(slot)
+            bar.addAction(act)
+            return act
+
+        self._zoom_out = action("zoomOut", "\u2212", "Zoom out", self.zoom_out, QKeySequence.StandardKey.ZoomOut)
+        self._zoom_label = QLabel(bar)
+        self._zoom_label.setObjectName("zoomLabel")
+        self._zoom_label.setMinimumWidth(self._zoom_label.fontMetrics().horizontalAdvance("400 %") + 8)
+        self._zoom_label.setAlignment(Qt.AlignmentFlag.AlignCenter)
+        bar.addWidget(self._zoom_label)
+        self._zoom_in = action("zoomIn", "+", "Zoom in", self.zoom_in, QKeySequence.StandardKey.ZoomIn)
+        fits = QActionGroup(self)
+        fits.setExclusionPolicy(QActionGroup.ExclusionPolicy.ExclusiveOptional)
+        self._fit_width = action("fitWidth", "Fit width", "Fit the page's width to the view",
+                                 lambda: self._set_zoom(QPdfView.ZoomMode.FitToWidth))
+        self._whole_page = action("wholePage", "Whole page", "Show the whole page",
+                                  lambda: self._set_zoom(QPdfView.ZoomMode.FitInView))
+        for act in (self._fit_width, self._whole_page):
+            act.setCheckable(True)
+            fits.addAction(act)
+        bar.addSeparator()
+
+        self._pages = QComboBox(bar)
+        self._pages.setObjectName("pageSelector")
+        self._pages.setToolTip("Page shown")
+        self._pages.setSizeAdjustPolicy(QComboBox.SizeAdjustPolicy.AdjustToContents)
+        self._pages.currentIndexChanged.connect(self._page_chosen)
+        self._pages_action = bar.addWidget(self._pages)
+        self._pages_action.setVisible(False)
+
+        spacer = QWidget(bar)
+        spacer.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Preferred)
+        bar.addWidget(spacer)
+        self._busy_action = bar.addWidget(QLabel("Updating\u2026", bar))
+        self._busy_action.setVisible(False)
+        self._modes = QComboBox(bar)
+        self._modes.setObjectName("modeSelector")
+        self._modes.setToolTip("Show the card alone or imposed on a printing sheet")
+        for mode, label in MODES:
+            self._modes.addItem(label, mode)
+        self._modes.currentIndexChanged.connect(lambda _i: self.modeChanged.emit(self.mode()))
+        bar.addWidget(self._modes)
+        return bar
+
+    def _set_zoom(self, mode: QPdfView.ZoomMode, factor: float | None = None) -> None:
+        self._view.setZoomMode(mode)
+        if factor is not None:
+            self._view.setZoomFactor(factor)
+        self._sync_zoom_controls()
+
+    def _effective_zoom(self) -> float:
+        """The zoom factor the page is drawn at, in the fit modes too (QPdfView keeps those to itself)."""
+        view = self._view
+        if view.zoomMode() == QPdfView.ZoomMode.Custom or self._doc is None:
+            return view.zoomFactor()
+        # QPdfView draws a page at zoom 1 at its true size on a screen of the logical resolution
+        points = self._doc.pagePointSize(max(0, self.current_page()))
+        scale = self.logicalDpiX() / 72.0
+        margins = view.documentMargins()
+        port = view.viewport().size()
+        across = (port.width() - margins.left() - margins.right()) / max(1.0, points.width() * scale)
+        if view.zoomMode() == QPdfView.ZoomMode.FitToWidth:
+            return max(0.01, across)
+        down = (port.height() - margins.top() - margins.bottom()) / max(1.0, points.height() * scale)
+        return max(0.01, min(across, down))
+
+    def zoom_in(self) -> None:
+        """Next larger zoom step, from whatever size the page has now."""
+        now = self._effective_zoom()
+        self._set_zoom(QPdfView.ZoomMode.Custom, next((z for z in ZOOM_STEPS if z > now * 1.01), ZOOM_STEPS[-1]))
+
+    def zoom_out(self) -> None:
+        """Next smaller zoom step, from whatever size the page has now."""
+        now = self._effective_zoom()
+        smaller = [z for z in ZOOM_STEPS if z < now / 1.01]
+        self._set_zoom(QPdfView.ZoomMode.Custom, smaller[-1] if smaller else ZOOM_STEPS[0])
+
+    def _sync_zoom_controls(self, *_args) -> None:
+        mode = self._view.zoomMode()
+        self._fit_width.setChecked(mode == QPdfView.ZoomMode.FitToWidth)
+        self._whole_page.setChecked(mode == QPdfView.ZoomMode.FitInView)
+        zoom = self._effective_zoom()
+        self._zoom_label.setText(f"{round(zoom * 100)} %")
+        self._zoom_in.setEnabled(zoom < ZOOM_STEPS[-1] / 1.01)
+        self._zoom_out.setEnabled(zoom > ZOOM_STEPS[0] * 1.01)
+
+    def resizeEvent(self, event) -> None:
+        super().resizeEvent(event)
+        self._sync_zoom_controls()  # a fit mode's percentage follows the view's size
+
+    def _page_chosen(self, index: int) -> None:
+        if index >= 0 and self._doc is not None and index != self.current_page():
+            self.set_page(index)
+
+    def _sync_page_selector(self, page: int) -> None:
+        if 0 <= page < self._pages.count() and self._pages.currentIndex() != page:
+            self._pages.blockSignals(True)
+            self._pages.setCurrentIndex(page)
+            self._pages.blockSignals(False)
+
+    def _fill_page_selector(self, count: int, current: int) -> None:
+        labels = page_labels(count)
+        self._pages.blockSignals(True)
+        if [self._pages.itemText(i) for i in range(self._pages.count())] != labels:
+            self._pages.clear()
+            self._pages.addItems(labels)
+        self._pages.setCurrentIndex(current)
+        self._pages.blockSignals(False)
+        self._pages_action.setVisible(count > 1)
+
+    # ------------------------------------------------------------------ jobs
+
+    def request(self, job: Job) -> int:
+        """Schedule `job` (it builds the PDF bytes) on a worker thread; returns its generation.
+
+        Never blocks. If a job is running, `job` waits in its place; a job already waiting is
+        dropped without running, since its result would be stale before it was shown.
+        """
+        self._generation += 1
+        request = _Request(self._generation, job, perf_counter())
+        if self._running is None:
+            self._start(request)
+        else:
+            self._pending = request
+        return request.generation
+
+    def _start(self, request: _Request) -> None:
+        self._running = request
+        self._relay.outstanding += 1
+        if not self._busy_timer.isActive() and not self._busy_action.isVisible():
+            self._busy_timer.start()
+        QThreadPool.globalInstance().start(_Runner(request, self._relay))
+
+    def _finished(self, generation: int, data: bytes | None, error: str) -> None:
+        """A job came back (GUI thread): show it unless a newer one was asked for since."""
+        request, self._running = self._running, None
+        if generation == self._generation and request is not None:
+            if data is not None:
+                self._show(data, request)
+            else:
+                self._show_error(error)
+        if self._pending is not None:
+            request, self._pending = self._pending, None
+            self._start(request)
+        else:
+            self._busy_timer.stop()
+            self._busy_action.setVisible(False)
+            for loop in self._idle_waiters:
+                loop.quit()
+
+    def _show(self, data: bytes, request: _Request) -> None:
+        try:
+            doc = open_pdf(data, self)
+        except ValueError as exc:
+            self._show_error(f"The preview could not show this card: {exc}.")
+            return
+        # a new render of the same card must not move the reader: keep page, zoom and scroll
+        page = max(0, self.current_page())
+        scroll = (self._view.horizontalScrollBar().value(), self._view.verticalScrollBar().value())
+        old, self._doc, self._pdf = self._doc, doc, data
+        self._view.setDocument(doc)
+        page = min(page, doc.pageCount() - 1)
+        if self._view.pageNavigator().currentPage() != page:
+            self._view.pageNavigator().jump(page, QPointF(), 0)
+        self._view.horizontalScrollBar().setValue(scroll[0])
+        self._view.verticalScrollBar().setValue(scroll[1])
+        if old is not None:
+            old.deleteLater()  # after the view has let go of it
+        self._fill_page_selector(doc.pageCount(), page)
+        self._error.hide()
+        self._sync_zoom_controls()
+        self.rendered.emit(request.generation, (perf_counter() - request.started) * 1000.0)
+
+    def _show_error(self, message: str) -> None:
+        self._error_text.setText(message)
+        self._error.show()
+        self._error.raise_()
+        self.failed.emit(message)
+
+    def clear(self) -> None:
+        """Show nothing; results of jobs still running are dropped, a waiting job never runs."""
+        self._generation += 1
+        self._pending = None
+        self._view.setDocument(None)
+        if self._doc is not None:
+            self._doc.deleteLater()
+        self._doc = self._pdf = None
+        self._error.hide()
+        self._fill_page_selector(0, -1)
+
+    def wait_idle(self, timeout_ms: int = 5000) -> bool:
+        """Process events until no job runs or waits (for tests); False if `timeout_ms` ran out first."""
+        if self._running is None and self._pending is None:
+            return True
+        loop = QEventLoop()
+        timer = QTimer(singleShot=True, interval=timeout_ms)
+        timer.timeout.connect(loop.quit)
+        self._idle_waiters.append(loop)
+        timer.start()
+        loop.exec()
+        timer.stop()
+        self._idle_waiters.remove(loop)
+        return self._running is None and self._pending is None
+
+    # ------------------------------------------------------------------ what is shown
+
+    def pdf_bytes(self) -> bytes | None:
+        """The PDF shown now (the last good one while an error is displayed), or None."""
+        return self._pdf
+
+    def page_count(self) -> int:
+        return self._doc.pageCount() if self._doc is not None else 0
+
+    def page_size_points(self, i: int) -> QSizeF:
+        """Size of page `i` of the shown PDF [pt]."""
+        self._check_page(i)
+        return self._doc.pagePointSize(i)
+
+    def current_page(self) -> int:
+        """Index of the page shown (0 is the front); -1 when nothing is shown."""
+        return self._view.pageNavigator().currentPage() if self._doc is not None else -1
+
+    def set_page(self, i: int) -> None:
+        self._check_page(i)
+        self._view.pageNavigator().jump(i, QPointF(), 0)
+        self._sync_page_selector(i)
+
+    def zoom_mode(self) -> QPdfView.ZoomMode:
+        return self._view.zoomMode()
+
+    def zoom_factor(self) -> float:
+        """The custom zoom factor (1.0 is true size); meaningful when `zoom_mode()` is Custom."""
+        return self._view.zoomFactor()
+
+    def error_text(self) -> str:
+        """The failure message shown over the page, or "" when the shown PDF is current."""
+        return self._error_text.text() if not self._error.isHidden() else ""
+
+    def mode(self) -> str:
+        """"card", "letter" or "a4": what the user chose to see."""
+        return self._modes.currentData()
+
+    def set_mode(self, mode: str) -> None:
+        """Choose the mode as the user would; emits modeChanged when it changes."""
+        index = self._modes.findData(mode)
+        if index < 0:
+            raise ValueError(f"unknown preview mode {mode!r}; expected one of {[m for m, _ in MODES]}")
+        self._modes.setCurrentIndex(index)
+
+    def image(self, page: int = 0, dpi: float = 60) -> QImage:
+        """Page `page` of the shown PDF rendered at `dpi` on white (for tests and screenshots)."""
+        self._check_page(page)
+        points = self._doc.pagePointSize(page)
+        size = QSize(max(1, round(points.width() * dpi / 72)), max(1, round(points.height() * dpi / 72)))
+        # QtPdf leaves the paper transparent; a screenshot wants the white of the card
+        flat = QImage(size, QImage.Format.Format_RGB32)
+        flat.fill(QColor("white"))
+        painter = QPainter(flat)
+        painter.drawImage(0, 0, self._doc.render(page, size))
+        painter.end()
+        return flat
+
+    def _check_page(self, i: int) -> None:
+        if not 0 <= i < self.page_count():
+            raise IndexError(f"page {i} does not exist; the preview shows {self.page_count()} page(s)")

@@ -1,0 +1,124 @@
+"""Editing a fleet's card style: the fields of a style file, saved beside the fleet's profiles."""
+
+from pathlib import Path
+
+import tomlkit
+from PySide6.QtCore import Qt
+from PySide6.QtGui import QColor
+from PySide6.QtWidgets import (
+    QAbstractItemView,
+    QColorDialog,
+    QComboBox,
+    QDialog,
+    QDialogButtonBox,
+    QDoubleSpinBox,
+    QFormLayout,
+    QLabel,
+    QLineEdit,
+    QListWidget,
+    QListWidgetItem,
+    QPushButton,
+    QVBoxLayout,
+)
+
+from kneeboard.card.geometry import CARD_SIZES
+from kneeboard.card.style import BINDINGS, BLOCKS, DEFAULT_STYLE, CardStyle, load_style
+from kneeboard.fileio import read_text, write_atomic
+
+BLOCK_LABELS = {
+    "header": "Header: registration, model, weights, date, fingerprint",
+    "margin-table": "Margin table: stall speed and margin by bank",
+    "margin-chart": "Margin chart",
+    "limits": "Limits: load factor, VA, buffer and zero-margin banks",
+    "turns": "Turns at pattern speed",
+    "circling": "Circling at minimum sink (gliders)",
+    "notes": "Notes",
+}
+
+
+class StyleDialog(QDialog):
+    """Shows a style; `save(path)` writes it, keeping the file's comments and other keys."""
+
+    def __init__(self, style: CardStyle, parent=None):
+        super().__init__(parent)
+        self.setWindowTitle("Card style")
+        self.style_in = style
+        form = QFormLayout()
+        self.organisation = QLineEdit(style.organisation)
+        self.logo = QLineEdit(style.logo.name if style.logo else "")
+        self.logo.setPlaceholderText("a PNG or SVG file in the fleet folder, e.g. logo.png")
+        self.accent = QPushButton(style.accent)
+        self.accent.clicked.connect(self._pick_colour)
+        self._show_colour(style.accent)
+        self.scale = QDoubleSpinBox()
+        self.scale.setRange(0.7, 1.6)
+        self.scale.setSingleStep(0.05)
+        self.scale.setValue(style.font_scale)
+        self.size = _combo(tuple(CARD_SIZES), style.size)
+        self.orientation = _combo(("portrait", "landscape"), "landscape" if style.landscape else "portrait")
+        self.binding = _combo(BINDINGS, style.binding)
+        self.blocks = QListWidget()
+        self.blocks.setDragDropMode(QAbstractItemView.DragDropMode.InternalMove)
+        shown = list(style.front) + [b for b in BLOCKS if b not in style.front]
+        for name in shown:
+            item = QListWidgetItem(BLOCK_LABELS[name])
+            item.setData(Qt.ItemDataRole.UserRole, name)
+            item.setFlags(item.flags() | Qt.ItemFlag.ItemIsUserCheckable | Qt.ItemFlag.ItemIsDragEnabled)
+            item.setCheckState(Qt.CheckState.Checked if name in style.front or name in style.back
+                               else Qt.CheckState.Unchecked)
+            self.blocks.addItem(item)
+        form.addRow("Organisation", self.organisation)
+        form.addRow("Logo", self.logo)
+        form.addRow("Accent colour", self.accent)
+        form.addRow("Type size", self.scale)
+        form.addRow("Card size", self.size)
+        form.addRow("Orientation", self.orientation)
+        form.addRow("Binding edge", self.binding)
+        form.addRow(QLabel("Blocks, in order (drag to reorder; the caution is always printed):"))
+        form.addRow(self.blocks)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Save | QDialogButtonBox.StandardButton.Cancel)
+        buttons.accepted.connect(self.accept)
+        buttons.rejected.connect(self.reject)
+        box = QVBoxLayout(self)
+        box.addLayout(form)
+        box.addWidget(buttons)
+
+    def _show_colour(self, colour: str):
+        self.accent.setText(colour)
+        self.accent.setStyleSheet(f"background: {colour}; color: white;")
+
+    def _pick_colour(self):
+        colour = QColorDialog.getColor(QColor(self.accent.text()), self, "Accent colour")
+        if colour.isValid():
+            self._show_colour(colour.name().upper())
+
+    def values(self) -> dict:
+        """The style file's keys as the dialog shows them."""
+        front = [self.blocks.item(i).data(Qt.ItemDataRole.UserRole) for i in range(self.blocks.count())
+                 if self.blocks.item(i).checkState() == Qt.CheckState.Checked]
+        return {
+            "organisation": self.organisation.text(),
+            "logo": self.logo.text().strip(),
+            "accent": self.accent.text(),
+            "font_scale": round(self.scale.value(), 2),
+            "size": self.size.currentText(),
+            "orientation": self.orientation.currentText(),
+            "binding": self.binding.currentText(),
+            "front": [b for b in front if b not in self.style_in.back],
+        }
+
+    def save(self, path: Path):
+        """Write the style to `path` and read it back; returns (style or None, problems)."""
+        source = path if path.is_file() else (self.style_in.source or DEFAULT_STYLE)
+        doc = tomlkit.parse(read_text(source))
+        for key, value in self.values().items():
+            doc[key] = value
+        write_atomic(path, tomlkit.dumps(doc))
+        return load_style(path)
+
+
+def _combo(options, current) -> QComboBox:
+    combo = QComboBox()
+    combo.addItems(list(options))
+    combo.setCurrentText(current)
+    return combo

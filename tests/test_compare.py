@@ -1,0 +1,210 @@
+"""Compare with saved: exactly the printed figures whose text changed, old and new."""
+
+from functools import cache
+
+import pytest
+from conftest import SAMPLES
+
+from kneeboard import units
+from kneeboard.compare import Change, compare, printed_figures
+from kneeboard.profile_io import load_profile, profile_from_text
+from kneeboard.tables import STALL, build
+
+NAMES = ("demo_trainer", "demo_tourer", "demo_retractable", "demo_microlight", "demo_glider")
+
+
+@cache
+def profile(name: str):
+    loaded = load_profile(SAMPLES / f"{name}.toml")
+    assert loaded.profile is not None, loaded.problems
+    return loaded.profile
+
+
+def expected_count(table) -> int:
+    """How many figures the card prints, counted from the table itself rather than from the labels."""
+    top = 8 + (table.maneuvering_speed is not None) + table.over_max_weight
+    n = top
+    for c in table.configurations:
+        n += 3 + (c.buffer_bank is not None) + (c.flap_limit_speed is not None)
+        for r in c.rows:
+            n += 3
+            if r.state != STALL and r.turn_radius is not None:
+                n += 2
+    if table.glider is not None:
+        n += 2 + 5 * sum(r.turn_radius is not None for r in table.glider.rows)
+    return n
+
+
+def test_trainer_labels_and_texts_as_printed():
+    figures = printed_figures(build(profile("demo_trainer")))
+    # computed: the trainer's table (see `kneeboard table sample_aircraft/demo_trainer.toml`)
+    assert figures["weight"] == "1560 lb"
+    assert figures["limit load factor"] == "4.4 g"
+    assert figures["limit bank"] == "76°"
+    assert figures["maneuvering speed VA"] == "94 kt"
+    assert figures["density altitude"] == "800 ft"
+    assert figures["Flaps up · stall"] == "47 kt"
+    assert figures["Flaps up · fly (pattern speed)"] == "66 kt"
+    assert figures["Flaps up · 5 kt buffer left at"] == "53°"
+    assert figures["Flaps up · no margin at"] == "59°"
+    assert figures["Flaps full · flap limit"] == "85 kt"
+    assert "Flaps up · flap limit" not in figures  # None: not printed
+    assert figures["Flaps up · 30° · load factor"] == "1.16 g"
+    assert figures["Flaps up · 30° · stall"] == "51 kt"
+    assert figures["Flaps up · 30° · margin"] == "15 kt"
+    assert figures["Flaps up · 30° · turn radius"] == "671 ft"
+    assert figures["Flaps up · 30° · 180°/360° time"] == "19/38 s"
+    assert figures["Flaps up · 60° · margin"] == "-1 kt"
+    # stalled at 60 degrees and wings level at 0: the turns table prints no radius there
+    assert "Flaps up · 60° · turn radius" not in figures
+    assert "Flaps up · 0° · turn radius" not in figures
+    labels = list(figures)
+    assert labels.index("weight") < labels.index("Flaps up · stall") < labels.index("Flaps up · 0° · stall") \
+        < labels.index("Flaps full · stall")
+
+
+def test_glider_circling_rows():
+    table = build(profile("demo_glider"))
+    figures = printed_figures(table)
+    row = next(r for r in table.glider.rows if r.bank_text == "30")
+    assert figures["circling · 30° · speed"] == f"{row.speed.text} km/h"
+    assert figures["circling · 30° · sink"] == f"{row.sink_rate.text} {table.sink_unit}"
+    assert figures["circling · 30° · turn radius"] == f"{row.turn_radius.text} m"
+    assert figures["circling · 30° · circle time"] == f"{row.circle_time.text} s"
+    assert figures["circling · 30° · 180° loss"] == f"{row.height_loss_180.text} m"
+    assert figures["circling · straight · speed"] == f"{table.glider.min_sink_speed.text} km/h"
+    assert "circling · 0° · speed" not in figures  # the card's circling table starts above 0 bank
+
+
+@pytest.mark.parametrize("name", NAMES)
+def test_every_figure_has_its_own_label(name):
+    table = build(profile(name))
+    figures = printed_figures(table)
+    assert len(figures) == expected_count(table)  # no figure overwrote another
+    assert all(text and text[0] in "-0123456789" for text in figures.values())
+
+
+def test_a_configuration_named_like_the_circling_prefix_loses_no_figure():
+    text = (SAMPLES / "demo_glider.toml").read_text(encoding="utf-8").replace('name = "Clean"', 'name = "circling"')
+    loaded = profile_from_text(text)
+    assert loaded.profile is not None, loaded.problems
+    table = build(loaded.profile)
+    figures = printed_figures(table)
+    assert len(figures) == expected_count(table)
+    assert len(set(figures)) == len(figures)
+
+
+@pytest.mark.parametrize("name", NAMES)
+def test_identical_tables_give_no_changes(name):
+    assert compare(build(profile(name)), build(profile(name))) == []
+
+
+def row_figures(table, config, row) -> dict[str, str]:
+    """The figures of one margin-table row as the card prints them, read straight from the row."""
+    su, du = table.speed_unit, table.distance_unit
+    at = f"{config.name} · {row.bank_text}° · "
+    out = {at + "load factor": f"{row.load_factor.text} g", at + "stall": f"{row.stall_speed.text} {su}",
+           at + "margin": f"{row.margin.text} {su}"}
+    if row.state != STALL and row.turn_radius is not None:  # the turns table prints a dash when stalled
+        out[at + "turn radius"] = f"{row.turn_radius.text} {du}"
+        out[at + "180°/360° time"] = f"{row.time_180.text}/{row.time_360.text} s"
+    return out
+
+
+def expected_row_changes(old, new) -> dict[str, tuple[str | None, str | None]]:
+    """Label -> (old, new) of every row figure whose printed text differs, for tables with the same banks."""
+    out = {}
+    for co, cn in zip(old.configurations, new.configurations, strict=True):
+        assert co.name == cn.name
+        for ro, rn in zip(co.rows, cn.rows, strict=True):
+            assert ro.bank_text == rn.bank_text
+            a, b = row_figures(old, co, ro), row_figures(new, cn, rn)
+            out.update({k: (a.get(k), b.get(k)) for k in a | b if a.get(k) != b.get(k)})
+    return out
+
+
+# The trainer's pattern speeds follow the weight (a factor of the stall speed); the retractable's are fixed,
+# so at its maximum weight margins shrink and one configuration loses all margin at 60 degrees.
+@pytest.mark.parametrize(("name", "heavier"), [("demo_trainer", "1650 lb"), ("demo_retractable", "3100 lb")])
+def test_heavier_weight_lists_exactly_the_changed_figures(name, heavier):
+    p = profile(name)
+    old = build(p)
+    new = build(p, weight=units.parse(heavier, units.MASS))
+    changes = compare(old, new)
+    by_label = {c.label: c for c in changes}
+    assert len(by_label) == len(changes)
+    assert by_label["weight"] == Change("weight", f"{old.weight.text} lb", heavier)
+
+    expected = expected_row_changes(old, new)
+    assert any(label.endswith("· stall") or label.endswith("· margin") for label in expected)
+    row_changes = {c.label: (c.old, c.new) for c in changes if c.label.count(" · ") == 2}
+    assert row_changes == expected
+
+    # load factors depend on bank alone: none may be listed
+    assert not [c for c in changes if c.label.endswith("load factor")]
+    # the configuration summary: listed exactly when its printed text moved
+    for co, cn in zip(old.configurations, new.configurations):
+        assert (f"{cn.name} · stall" in by_label) == (co.stall_speed.text != cn.stall_speed.text)
+        assert (f"{cn.name} · fly (pattern speed)" in by_label) == (co.pattern_speed.text != cn.pattern_speed.text)
+        assert (f"{cn.name} · no margin at" in by_label) == (co.zero_margin_bank.text != cn.zero_margin_bank.text)
+    assert ("limit load factor" in by_label) is False
+    assert ("density altitude" in by_label) is False
+    # in the new card's print order, figures no longer printed last
+    order = list(printed_figures(new))
+    kept = [c for c in changes if c.new is not None]
+    assert [c.label for c in kept] == sorted((c.label for c in kept), key=order.index)
+    assert all(c.new is None for c in changes[len(kept):])
+
+
+def test_heavier_weight_worse_figures():
+    p = profile("demo_trainer")
+    changes = compare(build(p), build(p, weight=units.parse("1650 lb", units.MASS)))
+    stalls = [c for c in changes if c.label.endswith("· stall")]
+    assert stalls and all(c.worse for c in stalls)
+    # the pattern speed grows with the stall speed, so the trainer's margins grow: not worse
+    assert not [c for c in changes if c.label.endswith("· margin") and c.worse]
+
+    p = profile("demo_retractable")
+    changes = compare(build(p), build(p, weight=p.aircraft.max_weight))
+    margins = [c for c in changes if c.label.endswith("· margin")]
+    assert margins and all(c.worse for c in margins)
+    old_figures = printed_figures(build(p))
+    stalled = {c.label: c for c in changes}["Gear down, flaps 40 · 60° · margin"]
+    assert (stalled.old, stalled.new) == ("2 kt", "-1 kt")  # computed: `kneeboard table`, fixed 76 kt final
+    assert stalled.worse
+    # stalled now: the turns table prints a dash, so its turn figures are no longer printed
+    radius = "Gear down, flaps 40 · 60° · turn radius"
+    assert Change(radius, old_figures[radius], None) in changes
+
+
+def test_other_banks_add_and_remove_rows():
+    p = profile("demo_trainer")  # banks 0, 10, 20, 30, 40, 45, 50, 60
+    old = build(p)
+    new = build(p, banks_deg=[0, 15, 30, 45])
+    changes = compare(old, new)
+    added = [c for c in changes if c.old is None]
+    removed = [c for c in changes if c.new is None]
+    assert {c.label.split(" · ")[1] for c in added} == {"15°"}
+    assert {c.label.split(" · ")[1] for c in removed} == {"10°", "20°", "40°", "50°", "60°"}
+    # rows kept at the same weight print the same figures: nothing else is listed
+    assert len(changes) == len(added) + len(removed)
+    # removed figures come last, in the old card's order
+    assert changes[len(changes) - len(removed):] == removed
+    old_order = list(printed_figures(old))
+    assert [c.label for c in removed] == sorted((c.label for c in removed), key=old_order.index)
+    assert Change("Flaps up · 15° · load factor", None, new.configurations[0].rows[1].load_factor.text + " g") \
+        in added
+
+
+def test_worse_is_judged_by_number_and_unit():
+    assert Change("Flaps up · 30° · margin", "15 kt", "14 kt").worse
+    assert not Change("Flaps up · 30° · margin", "14 kt", "15 kt").worse
+    assert Change("Flaps up · 30° · margin", "2 kt", "-1 kt").worse
+    assert Change("Flaps up · stall", "47 kt", "48 kt").worse
+    assert Change("Flaps up · no margin at", "59°", "58°").worse
+    assert Change("Flaps up · 5 kt buffer left at", "53°", "52°").worse
+    assert Change("limit bank", "76°", "75°").worse
+    assert not Change("Flaps up · 30° · turn radius", "671 ft", "700 ft").worse
+    assert not Change("Flaps up · stall", "47 kt", "87 km/h").worse  # another unit: not comparable
+    assert not Change("Flaps up · 15° · margin", None, "3 kt").worse
+    assert not Change("Flaps up · 15° · margin", "3 kt", None).worse
