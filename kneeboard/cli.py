@@ -9,7 +9,7 @@ from kneeboard import __version__, report, units
 from kneeboard.card.geometry import CARD_SIZES, SHEET_SIZES
 from kneeboard.card.style import fleet_style_path, load_style
 from kneeboard.export import make_cards, write_each, write_fleet, write_pngs
-from kneeboard.fileio import FileProblem
+from kneeboard.fileio import FileProblem, terminate_cleanly
 from kneeboard.problems import Problem
 from kneeboard.profile_io import expand_paths, load_profile
 from kneeboard.tables import build
@@ -201,6 +201,7 @@ HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card}
 
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
+    terminate_cleanly()
     if not argv or (argv[0] not in COMMANDS and not argv[0].startswith("-")):
         from kneeboard.app.main import run  # the desktop app, on a folder or profile if one is named
 

@@ -16,7 +16,7 @@ import tomlkit
 from kneeboard.fileio import FileProblem, read_text, write_atomic
 from kneeboard.problems import Problem
 from kneeboard.profile import Profile
-from kneeboard.schema import profile_from_data
+from kneeboard.schema import SCHEMA_VERSION, profile_from_data
 
 PROFILE_SUFFIX = ".toml"
 STYLE_SUFFIX = ".style.toml"  #: card styles live beside profiles but are not profiles
@@ -79,6 +79,38 @@ def profile_from_plain(data: dict, path: Path | None = None) -> ProfileFile:
     """Validate already parsed data (from tomllib, or a tomlkit document's unwrap())."""
     profile, problems = profile_from_data(data)
     return ProfileFile(path, profile, tuple(p.in_file(str(path or "")) for p in problems), fingerprint(data))
+
+
+FORMAT_0 = 0  #: files written before profiles carried a format number (no `schema` key)
+
+
+def file_format(text: str) -> int | None:
+    """The format number a profile text declares: 0 when it has none, None when it cannot be read."""
+    data, _ = parse_text(text)
+    if data is None:
+        return None
+    version = data.get("schema", FORMAT_0)
+    return version if isinstance(version, int) and not isinstance(version, bool) else None
+
+
+def migrate_text(text: str) -> tuple[str, int | None]:
+    """Bring an older profile text up to the current format; returns (text, the old format or None).
+
+    Format 0 is format 1 without its number: migrating adds `schema = 1` after the leading comments.
+    """
+    if file_format(text) != FORMAT_0:
+        return text, None
+    lines = text.splitlines(keepends=True)
+    at = 0
+    while at < len(lines) and lines[at].lstrip().startswith("#"):
+        at += 1
+    gap = [] if at < len(lines) and not lines[at].strip() else ["\n"]
+    return "".join(lines[:at] + [f"schema = {SCHEMA_VERSION}\n"] + gap + lines[at:]), FORMAT_0
+
+
+def backup_path(path: Path, old_format: int) -> Path:
+    """Where the original of a migrated file is kept when it is first saved over."""
+    return path.with_name(f"{path.name}.format{old_format}.bak")
 
 
 def load_document(path: Path) -> tomlkit.TOMLDocument:

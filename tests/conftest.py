@@ -53,10 +53,10 @@ def settings(tmp_path):
 
 
 @pytest.fixture
-def window(qtbot, fleet, settings):
+def window(qtbot, fleet, settings, tmp_path):
     from kneeboard.app.window import MainWindow
 
-    w = MainWindow(settings)
+    w = MainWindow(settings, recovery_dir=tmp_path / "recovery")
     qtbot.addWidget(w)
     w.problems_seen = []
     w.show_problems = lambda title, text: w.problems_seen.append((title, text))

@@ -7,6 +7,8 @@ text, so undoing back to the start gives the original file byte for byte.
 """
 
 import copy
+import tomllib
+import uuid
 from dataclasses import dataclass
 from pathlib import Path
 
@@ -15,7 +17,14 @@ from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
 from kneeboard.fileio import FileProblem, read_text, write_atomic
-from kneeboard.profile_io import ProfileFile, document_from_text, profile_from_plain
+from kneeboard.profile_io import (
+    ProfileFile,
+    backup_path,
+    document_from_text,
+    file_format,
+    migrate_text,
+    profile_from_plain,
+)
 
 Key = tuple  #: a path into the document: ("configuration", 0, "stall_speed")
 
@@ -28,9 +37,11 @@ class Snapshot:
 class _Edit(QUndoCommand):
     """One edit as before/after text; consecutive edits of one field merge into one step."""
 
-    def __init__(self, doc: "ProfileDocument", before: str, after: str, label: str, merge_id: int):
+    def __init__(self, doc: "ProfileDocument", before: str, after: str, label: str, merge_id: int,
+                 after_doc=None):
         super().__init__(label)
         self.doc, self.before, self.after, self.merge_id = doc, before, after, merge_id
+        self.after_doc = after_doc  # the edited document itself, used once so the first redo need not parse
 
     def id(self) -> int:  # noqa: A003 - Qt's name
         return self.merge_id
@@ -42,7 +53,8 @@ class _Edit(QUndoCommand):
         return True
 
     def redo(self):
-        self.doc._load_text(self.after)
+        parsed, self.after_doc = self.after_doc, None
+        self.doc._load_text(self.after, parsed)
 
     def undo(self):
         self.doc._load_text(self.before)
@@ -63,6 +75,7 @@ class ProfileDocument(QObject):
     def __init__(self, text: str, path: Path | None = None, parent=None):
         super().__init__(parent)
         self.path = Path(path) if path is not None else None
+        self.untitled_id = uuid.uuid4().hex[:12]  #: names the crash-recovery copy until the profile has a file
         self.undo_stack = QUndoStack(self)
         # a bound method, not a lambda: Qt drops the connection when this object goes away
         self.undo_stack.cleanChanged.connect(self._clean_changed)
@@ -70,6 +83,10 @@ class ProfileDocument(QObject):
         self._doc = document_from_text(text, str(path or ""))
         self._text = text
         self._loaded: ProfileFile | None = None
+        self._plain: dict | None = None
+        migrated, self.migrated_from = migrate_text(text)
+        if self.migrated_from is not None:  # an older format: updating it is the first, undoable edit
+            self.undo_stack.push(_Edit(self, text, migrated, "Update the file format", -1))
 
     def _clean_changed(self, clean: bool) -> None:
         self.modifiedChanged.emit(not clean)
@@ -91,8 +108,26 @@ class ProfileDocument(QObject):
     def loaded(self) -> ProfileFile:
         """The profile read from the current text, with every problem; cached until the next edit."""
         if self._loaded is None:
-            self._loaded = profile_from_plain(self._doc.unwrap(), self.path)
+            self._loaded = profile_from_plain(self.plain(), self.path)
         return self._loaded
+
+    def plain(self) -> dict:
+        """The document as plain Python data (cached until the next edit); read it, never change it."""
+        if self._plain is None:
+            if self._doc is not None:
+                self._plain = self._doc.unwrap()
+            else:  # after undo or redo only the text is known; tomllib reads it several times faster
+                try:
+                    self._plain = tomllib.loads(self._text)
+                except tomllib.TOMLDecodeError:
+                    self._plain = self.editable().unwrap()
+        return self._plain
+
+    def editable(self) -> tomlkit.TOMLDocument:
+        """The tomlkit document, parsed from the text when an edit first needs it."""
+        if self._doc is None:
+            self._doc = document_from_text(self._text, str(self.path or ""))
+        return self._doc
 
     def saved(self) -> ProfileFile:
         """The profile as last saved (or as opened)."""
@@ -101,13 +136,13 @@ class ProfileDocument(QObject):
         return profile_from_text(self.saved_text, self.path)
 
     def get(self, key: Key, default=None):
-        node = self._doc
+        node = self.plain()
         for part in key:
             try:
                 node = node[part]
             except (KeyError, IndexError, TypeError):
                 return default
-        return node.unwrap() if hasattr(node, "unwrap") else node
+        return copy.deepcopy(node) if isinstance(node, (dict, list)) else node
 
     def count(self, key: Key) -> int:
         value = self.get(key)
@@ -135,15 +170,27 @@ class ProfileDocument(QObject):
         self.apply(change, label or f"Remove {key_text(key)}")
 
     def apply(self, change, label: str, merge_id: int = -1) -> None:
-        """Run `change(document)` on a copy; if the text changed, push it as one undoable step."""
-        doc = copy.deepcopy(self._doc)
+        """Run `change(document)`; if the text changed, push it as one undoable step.
+
+        The document is changed in place (copying a tomlkit document costs more than the whole
+        edit); the text before is the snapshot, so a change that fails halfway is undone by
+        reading that text back.
+        """
+        doc = self.editable()
         try:
             change(doc)
+            after = tomlkit.dumps(doc)
         except (KeyError, IndexError, TypeError, ValueError):
+            self._doc = document_from_text(self._text, str(self.path or ""))
             return  # the edit does not apply to this document's shape: nothing happens
-        after = tomlkit.dumps(doc)
         if after != self._text:
-            self.undo_stack.push(_Edit(self, self._text, after, label, merge_id))
+            self.undo_stack.push(_Edit(self, self._text, after, label, merge_id, doc))
+
+    def replace_text(self, text: str, label: str) -> None:
+        """Replace the whole text as one undoable edit (restoring autosaved work)."""
+        document_from_text(text, str(self.path or ""))  # raises FileProblem before anything changes
+        if text != self._text:
+            self.undo_stack.push(_Edit(self, self._text, text, label, -1))
 
     # --- structure ----------------------------------------------------------------------------
     def add_table(self, key: Key, values: dict, label: str, index: int | None = None) -> None:
@@ -185,17 +232,24 @@ class ProfileDocument(QObject):
         target = Path(path) if path is not None else self.path
         if target is None:
             raise FileProblem("the profile has no file yet; choose where to save it")
+        if self.migrated_from is not None and target == self.path and target.is_file():
+            backup = backup_path(target, self.migrated_from)
+            if not backup.exists():  # the first save over an older file keeps that file
+                write_atomic(backup, target.read_bytes())
         write_atomic(target, self._text)
+        self.migrated_from = None if file_format(self._text) != 0 else self.migrated_from
         self.path = target
         self.saved_text = self._text
         self._loaded = None
+        self._plain = None
         self.undo_stack.setClean()
         self.changed.emit()
 
-    def _load_text(self, text: str) -> None:
-        self._doc = document_from_text(text, str(self.path or ""))
+    def _load_text(self, text: str, parsed=None) -> None:
+        self._doc = parsed  # None: parsed again only if another edit comes (undo and redo need just the text)
         self._text = text
         self._loaded = None
+        self._plain = None
         self.changed.emit()
 
 

@@ -263,8 +263,12 @@ class ProfileEditor(QScrollArea):
         p = self.doc.loaded.profile
         if p is not None:
             return p.card.speed_unit, p.card.distance_unit, p.card.weight_unit
-        return (self.doc.get(("card", "speed_unit")) or "kt", self.doc.get(("card", "distance_unit")) or "ft",
-                self.doc.get(("card", "weight_unit")) or "kg")
+        def unit(key, options, default):
+            value = self.doc.get(("card", key))
+            return value if value in options else default  # the file may hold anything; show known units only
+
+        return (unit("speed_unit", units.SPEED_UNITS, "kt"), unit("distance_unit", units.DISTANCE_UNITS, "ft"),
+                unit("weight_unit", units.WEIGHT_UNITS, "kg"))
 
     def refresh(self):
         self._sync_config_tabs()
@@ -331,15 +335,17 @@ class ProfileEditor(QScrollArea):
                                            targets.get(kind.name)))
 
     def _show_problems(self, problems: list[Problem]):
-        for field in self.fields.values():
-            field.set_problem(None)
-        self.problem_list.clear()
         errors = [p for p in problems if p.is_error]
         warnings = [p for p in problems if not p.is_error]
-        for p in errors + warnings:
+        marks: dict[int, tuple[Field, Problem]] = {}
+        for p in errors + warnings:  # each field shows its first problem, errors before warnings
             field = self.field_for(p.path)
-            if field is not None and (field.problem is None or (p.is_error and not field.problem.is_error)):
-                field.set_problem(p)
+            if field is not None and id(field) not in marks:
+                marks[id(field)] = (field, p)
+        for field in self.fields.values():
+            field.set_problem(marks[id(field)][1] if id(field) in marks else None)
+        self.problem_list.clear()
+        for p in errors + warnings:
             self.problem_list.addItem(f"{p.severity}: {p.path}: {p.message}")
             self.problem_list.item(self.problem_list.count() - 1).setData(256, p.path)
         self.problem_list.setVisible(bool(problems))

@@ -53,6 +53,8 @@ class Field(QWidget):
 
     def set_problem(self, problem: Problem | None) -> None:
         """Mark the field with the reason, or clear the mark."""
+        if problem == self.problem:
+            return  # restyling a widget is costly; most edits leave most fields as they were
         self.problem = problem
         if problem is None:
             self.problem_label.hide()
@@ -69,7 +71,8 @@ class Field(QWidget):
         self.input.setToolTip(prefix + text)
 
     def set_beside(self, text: str) -> None:
-        self.beside.setText(text)
+        if self.beside.text() != text:
+            self.beside.setText(text)
 
 
 class TextField(Field):

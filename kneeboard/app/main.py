@@ -8,7 +8,8 @@ def run(target: str | None = None) -> int:
     from PySide6.QtWidgets import QApplication
 
     from kneeboard.app.dialogs import show_caution_once
-    from kneeboard.app.window import SAMPLES, MainWindow
+    from kneeboard.app.paths import SAMPLES
+    from kneeboard.app.window import MainWindow
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setApplicationName("kneeboard")
@@ -22,4 +23,5 @@ def run(target: str | None = None) -> int:
     window.show()
     window.open_path(start)
     show_caution_once(window, window.settings)
+    window.offer_recovery()
     return app.exec()

@@ -4,7 +4,7 @@ the key figures and the card exactly as it will print.
 
 from pathlib import Path
 
-from PySide6.QtCore import QSettings, Qt, QTimer
+from PySide6.QtCore import QSettings, QStandardPaths, Qt, QTimer
 from PySide6.QtGui import QAction, QKeySequence
 from PySide6.QtWidgets import (
     QFileDialog,
@@ -16,29 +16,33 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard import report
+from kneeboard.app.actions import CardActions
 from kneeboard.app.document import ProfileDocument
 from kneeboard.app.editor import ProfileEditor
 from kneeboard.app.fleet import FleetPanel
+from kneeboard.app.paths import SAMPLES, TEMPLATES
 from kneeboard.app.preview import CardPreview
 from kneeboard.app.readout import Readout
+from kneeboard.app.recovery import AUTOSAVE_MS, Pending, Recovery, key_for
 from kneeboard.card import build_card, card_pdf, fleet_pdf
-from kneeboard.card.style import FLEET_STYLE, fleet_style_path, load_style
-from kneeboard.fileio import FileProblem, write_atomic
+from kneeboard.card.style import fleet_style_path, load_style
+from kneeboard.fileio import FileProblem
 from kneeboard.tables import build
 from kneeboard.texts import CAUTION
 
-ROOT = Path(__file__).resolve().parents[2]
-SAMPLES = ROOT / "sample_aircraft"
-TEMPLATES = ROOT / "resources" / "templates"
 MAX_RECENT = 8
 DEBOUNCE_MS = 30  #: a pause in typing this long starts a new preview
 
 
-class MainWindow(QMainWindow):
-    def __init__(self, settings: QSettings | None = None):
+class MainWindow(CardActions, QMainWindow):
+    def __init__(self, settings: QSettings | None = None, recovery_dir: Path | None = None):
         super().__init__()
         self.settings = settings or QSettings("kneeboard", "kneeboard")
+        if recovery_dir is None:
+            data = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
+            recovery_dir = Path(data or Path.home() / ".kneeboard") / "recovery"
+        self.recovery = Recovery(recovery_dir)
+        self._autosaved: tuple[str, str] | None = None  # (recovery key, text) last copied aside
         self.doc: ProfileDocument | None = None
         self.editor: ProfileEditor | None = None
         self.style, self.style_problems = load_style(None)
@@ -47,6 +51,7 @@ class MainWindow(QMainWindow):
         self.setAcceptDrops(True)
         # hooks a test replaces: the questions and file choices a person would answer
         self.ask_unsaved = self._ask_unsaved
+        self.ask_restore = self._ask_restore
         self.ask_save_path = self._ask_save_path
         self.show_problems = self._show_problems
 
@@ -81,6 +86,10 @@ class MainWindow(QMainWindow):
         self.timer.setSingleShot(True)
         self.timer.setInterval(DEBOUNCE_MS)
         self.timer.timeout.connect(self._update_card)
+        self.autosave_timer = QTimer(self)
+        self.autosave_timer.setInterval(AUTOSAVE_MS)
+        self.autosave_timer.timeout.connect(self.autosave)
+        self.autosave_timer.start()
         self._menus()
         self.resize(1400, 900)
         geometry = self.settings.value("window/geometry")
@@ -268,6 +277,7 @@ class MainWindow(QMainWindow):
         return True
 
     def _after_save(self):
+        self._forget_autosave()
         self._remember(self.doc.path)
         self.fleet.show_folder(self.doc.path.parent, self.doc.path)
         self._update_title()
@@ -279,7 +289,10 @@ class MainWindow(QMainWindow):
         answer = self.ask_unsaved()
         if answer == "save":
             return self.save()
-        return answer == "discard"
+        if answer == "discard":
+            self._forget_autosave()
+            return True
+        return False
 
     def _ask_unsaved(self) -> str:
         name = self.doc.path.name if self.doc.path else "the new profile"
@@ -300,9 +313,72 @@ class MainWindow(QMainWindow):
     def closeEvent(self, event):  # noqa: N802 - Qt's name
         if self.maybe_save():
             self.settings.setValue("window/geometry", self.saveGeometry())
+            self._forget_autosave()
+            self.autosave_timer.stop()
             event.accept()
         else:
             event.ignore()
+
+    # --- crash recovery ------------------------------------------------------------------------
+    def _recovery_key(self) -> str:
+        return key_for(self.doc.path, self.doc.untitled_id)
+
+    def autosave(self) -> Path | None:
+        """Copy unsaved edits aside (every AUTOSAVE_MS); nothing is written when nothing changed."""
+        if self.doc is None or not self.doc.modified:
+            return None
+        key, text = self._recovery_key(), self.doc.text()
+        if self._autosaved == (key, text):
+            return None
+        if self._autosaved is not None and self._autosaved[0] != key:
+            self.recovery.discard(self._autosaved[0])
+        try:
+            path = self.recovery.save(key, self.doc.path, text)
+        except FileProblem:
+            return None  # a full or read-only disk must not interrupt the editing itself
+        self._autosaved = (key, text)
+        return path
+
+    def _forget_autosave(self) -> None:
+        if self._autosaved is not None:
+            self.recovery.discard(self._autosaved[0])
+            self._autosaved = None
+        if self.doc is not None:
+            self.recovery.discard(self._recovery_key())
+
+    def offer_recovery(self) -> int:
+        """After a crash: offer each autosaved set of edits back; returns how many were restored."""
+        restored = 0
+        for pending in self.recovery.pending():
+            if self.ask_restore(pending) and self._restore(pending):
+                restored += 1
+            self.recovery.remove(pending)
+        return restored
+
+    def _restore(self, pending: Pending) -> bool:
+        if pending.path is not None and pending.path.is_file():
+            if not self.open_profile(pending.path):
+                return False
+        else:
+            try:
+                self._set_document(ProfileDocument(pending.text, None, self))
+            except FileProblem:
+                return False
+            self.doc.undo_stack.resetClean()
+            return True
+        try:
+            self.doc.replace_text(pending.text, "Restore unsaved changes")
+        except FileProblem:
+            return False
+        return True
+
+    def _ask_restore(self, pending: Pending) -> bool:
+        name = pending.path.name if pending.path else "a new profile"
+        answer = QMessageBox.question(
+            self, "Restore unsaved changes?",
+            f"kneeboard stopped at {pending.when} with unsaved changes to {name}. Restore them?",
+        )
+        return answer == QMessageBox.StandardButton.Yes
 
     def _update_title(self) -> None:
         if self.doc is None:
@@ -351,132 +427,3 @@ class MainWindow(QMainWindow):
         path = QFileDialog.getExistingDirectory(self, "Open fleet folder", str(self.fleet.folder or SAMPLES))
         if path:
             self.open_folder(Path(path))
-
-    # --- exports -------------------------------------------------------------------------------
-    def _ready(self) -> bool:
-        if self.doc is None or self.doc.loaded.profile is None:
-            self.show_problems("No card", "The profile has errors; fix them first (see Problems).")
-            return False
-        return True
-
-    def current_pdf(self) -> bytes:
-        return self.card("card")()
-
-    def export_card(self) -> Path | None:
-        if not self._ready():
-            return None
-        reg = self.doc.loaded.profile.aircraft.registration
-        from kneeboard.export import safe_name
-
-        start = (self.fleet.folder or SAMPLES) / f"{safe_name(reg)}.pdf"
-        path = self.ask_save_path("Export card as PDF", str(start), "PDF (*.pdf)")
-        if path is None:
-            return None
-        try:
-            write_atomic(path, self.current_pdf())
-        except Exception as exc:  # LayoutError or FileProblem: both are sentences for the person
-            self.show_problems("The card was not exported", str(exc))
-            return None
-        return path
-
-    def export_csv(self) -> Path | None:
-        if not self._ready() or self.last_table is None:
-            return None
-        start = (self.fleet.folder or SAMPLES) / f"{self.last_table.registration}.csv"
-        path = self.ask_save_path("Export table as CSV", str(start), "CSV (*.csv)")
-        if path is None:
-            return None
-        try:
-            write_atomic(path, report.to_csv(self.last_table))
-        except FileProblem as exc:
-            self.show_problems("The table was not exported", str(exc))
-            return None
-        return path
-
-    def export_fleet(self, out: Path | None = None, each: Path | None = None, sheet: str | None = None):
-        from kneeboard.app.dialogs import export_fleet
-        from kneeboard.profile_io import profile_files
-
-        folder = self.fleet.folder
-        if folder is None:
-            return None
-        if out is None and each is None:
-            path = self.ask_save_path("Export the fleet's cards", str(folder / "fleet.pdf"), "PDF (*.pdf)")
-            if path is None:
-                return None
-            out = path
-        batch = export_fleet(self, profile_files(folder), self.style, out, each, sheet)
-        if batch.failures:
-            self.show_problems("Some cards were not made",
-                               "\n".join(line for f in batch.failures for line in f.lines))
-        return batch
-
-    def print_card(self) -> bool:
-        if not self._ready():
-            return False
-        from kneeboard.app.printing import print_with_dialog
-
-        try:
-            pdf = self.current_pdf()
-        except Exception as exc:
-            self.show_problems("The card cannot be printed", str(exc))
-            return False
-        return print_with_dialog(self, pdf, self.windowTitle())
-
-    # --- compare, style, help ------------------------------------------------------------------
-    def compare_changes(self):
-        """Printed figures that differ between the saved profile and the edited one, or None if either is unusable."""
-        from kneeboard.card import styled_profile
-        from kneeboard.compare import compare
-
-        saved, now = self.doc.saved(), self.doc.loaded
-        if saved.profile is None or now.profile is None:
-            return None
-        return compare(build(styled_profile(saved.profile, self.style)),
-                       build(styled_profile(now.profile, self.style)))
-
-    def compare_with_saved(self):
-        if self.doc is None:
-            return None
-        from kneeboard.app.dialogs import CompareDialog
-
-        changes = self.compare_changes()
-        if changes is None:
-            self.show_problems("Nothing to compare", "The saved or the edited profile has errors.")
-            return None
-        dialog = CompareDialog(changes, self.doc.loaded.profile.aircraft.registration, self)
-        dialog.show()
-        return dialog
-
-    def edit_style(self):
-        from kneeboard.app.style_dialog import StyleDialog
-
-        folder = self.fleet.folder
-        if folder is None:
-            return
-        dialog = StyleDialog(self.style, self)
-        if dialog.exec():
-            style, problems = dialog.save(folder / FLEET_STYLE)
-            if style is None:
-                self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
-                return
-            self.style, self.style_path = style, folder / FLEET_STYLE
-            self.schedule_preview()
-
-    def _pick_style(self):
-        path, _ = QFileDialog.getOpenFileName(self, "Card style", str(self.fleet.folder or ROOT),
-                                              "Card styles (*.style.toml)")
-        if path:
-            style, problems = load_style(Path(path))
-            if style is None:
-                self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
-                return
-            self.style, self.style_path = style, Path(path)
-            self.schedule_preview()
-
-    def show_formulas(self):
-        from kneeboard.app.dialogs import FormulaHelpDialog
-
-        dialog = FormulaHelpDialog(self)
-        dialog.show()
-        return dialog
