@@ -150,6 +150,9 @@ def _configuration(profile: Profile, c: Configuration, bank, k: float, rho: floa
     if buffer_ias >= vs0_ias:
         buffer_bank = float(turns.bank_at_stall_speed(vs0_cas, speeds.ias_to_cas(buffer_ias)[0]))
     tas = float(atmosphere.tas_from_cas(vp_cas, rho))
+    with np.errstate(over="ignore"):  # a bank too small to turn has an infinite radius and time, as 0 does
+        radius, rate = turns.turn_radius(tas, bank), turns.turn_rate(tas, bank)
+        time_180, time_360 = turns.turn_time(tas, bank, np.pi), turns.turn_time(tas, bank, 2 * np.pi)
     vfe = None
     if c.flap_limit_speed is not None:
         vfe = float(speeds.to_ias(speeds.to_cas(c.flap_limit_speed)[0])[0])
@@ -165,10 +168,10 @@ def _configuration(profile: Profile, c: Configuration, bank, k: float, rho: floa
         buffer_bank=buffer_bank,
         flap_limit_speed=vfe,
         pattern_tas=tas,
-        turn_radius=turns.turn_radius(tas, bank),
-        turn_rate=turns.turn_rate(tas, bank),
-        time_180=turns.turn_time(tas, bank, np.pi),
-        time_360=turns.turn_time(tas, bank, 2 * np.pi),
+        turn_radius=radius,
+        turn_rate=rate,
+        time_180=time_180,
+        time_360=time_360,
         level_stall_speed=vs0_ias,
     )
 
@@ -183,15 +186,17 @@ def _glider(profile: Profile, bank, rho: float) -> GliderResult:
     v_cas, sink_eas = glider.circling(v_ms * kb, s_ms * kb, bank)
     sink = sink_eas * density_ratio
     tas = atmosphere.tas_from_cas(v_cas, rho)
-    time_180 = turns.turn_time(tas, bank, np.pi)
+    with np.errstate(over="ignore"):  # a bank too small to turn has an infinite radius and time, as 0 does
+        time_180, time_360 = turns.turn_time(tas, bank, np.pi), turns.turn_time(tas, bank, 2 * np.pi)
+        radius = turns.turn_radius(tas, bank)
     return GliderResult(
         min_sink_speed=float(speeds.to_ias(v_ms * kb)[0]),
         min_sink_rate=s_ms * kb * density_ratio,
         bank=bank,
         speed=speeds.to_ias(v_cas)[0],
         sink_rate=sink,
-        turn_radius=turns.turn_radius(tas, bank),
-        circle_time=turns.turn_time(tas, bank, 2 * np.pi),
+        turn_radius=radius,
+        circle_time=time_360,
         height_loss_180=sink * time_180,
     )
 
@@ -203,9 +208,18 @@ def profile_checks(profile: Profile) -> list[Problem]:
         results = compute(profile)
     except (ValueError, ZeroDivisionError, FloatingPointError) as exc:  # defensive: report, never crash
         return [Problem("(profile)", f"cannot be computed: {exc}")]
+    basis = profile.aircraft.speed_basis
+    clean = Airspeeds(profile.aircraft.calibration, basis)
+    if results.maneuvering_speed is not None and not (clean.to_cas(profile.aircraft.maneuvering_speed)[0] > 0
+                                                      and results.maneuvering_speed > 0):
+        found.append(_speed_at_or_below_zero("aircraft.calibration", "the maneuvering speed"))
     for i, (c, r) in enumerate(zip(profile.configurations, results.configurations), start=1):
         path = f"configuration[{i}]"
         vs0 = r.level_stall_speed
+        if not (Airspeeds(profile.calibration_for(c), basis).to_cas(c.stall_speed)[0] > 0 and vs0 > 0):
+            table = f"{path}.calibration" if c.calibration is not None else "aircraft.calibration"
+            found.append(_speed_at_or_below_zero(table, f"the stall speed of {path}"))
+            continue
         if not r.pattern_speed > vs0:
             field = "pattern_speed" if c.pattern_speed is not None else "pattern_factor"
             found.append(Problem(
@@ -226,13 +240,23 @@ def profile_checks(profile: Profile) -> list[Problem]:
                 "beyond it the end offset is held", "pairs reaching the highest stall speed", severity=WARNING,
             ))
     if profile.glider is not None:
-        speeds = Airspeeds(profile.aircraft.calibration, profile.aircraft.speed_basis)
-        polar_cas = speeds.to_cas(profile.glider.speeds)[0]
+        polar_cas = clean.to_cas(profile.glider.speeds)[0]
+        if not polar_cas.min() > 0:
+            found.append(_speed_at_or_below_zero("aircraft.calibration", "a polar speed"))
+            return found
         v_ms, _ = glider.polar_minimum(glider.fit_polar(polar_cas, profile.glider.sinks))
-        if not (np.isfinite(v_ms) and v_ms <= polar_cas.max()):
+        if np.isfinite(v_ms) and not results.glider.min_sink_speed > 0:
+            found.append(_speed_at_or_below_zero("aircraft.calibration", "the minimum-sink speed"))
+        elif not (np.isfinite(v_ms) and v_ms <= polar_cas.max()):
             found.append(Problem("glider.polar", "the fitted polar has no minimum sink within the measured speeds",
                                  "points whose sink falls then rises with speed, as a measured polar does"))
         elif v_ms < polar_cas.min():
             found.append(Problem("glider.polar", "the minimum sink lies below the slowest measured point",
                                  "points on both sides of minimum sink", severity=WARNING))
     return found
+
+
+def _speed_at_or_below_zero(path: str, what: str) -> Problem:
+    """A calibration table whose offsets turn a speed into one at or below zero: no figure would mean anything."""
+    return Problem(path, f"turns {what} into a speed at or below zero",
+                   "[IAS, CAS] pairs that differ by a few knots, as a flight manual's do")

@@ -1,5 +1,6 @@
 """One error model for profiles and styles: every problem says where, what, and what would do."""
 
+import reprlib
 from dataclasses import dataclass, replace
 from typing import Literal
 
@@ -36,8 +37,12 @@ class Problem:
         return f"{where}{self.severity}: {self.path}: {self.message}{found}{wanted}"
 
 
+_REPR = reprlib.Repr()  # keyword arguments need Python 3.12
+_REPR.maxlevel, _REPR.maxstring, _REPR.maxother, _REPR.maxlist, _REPR.maxdict = 3, 60, 60, 6, 6
+
+
 def _show(value: object, limit: int = 40) -> str:
-    text = repr(value)
+    text = _REPR.repr(value)  # bounded: a deep or huge value must not be rendered in full to be cut
     return text if len(text) <= limit else text[: limit - 3] + "..."
 
 

@@ -22,14 +22,49 @@ PROFILE_SUFFIX = ".toml"
 STYLE_SUFFIX = ".style.toml"  #: card styles live beside profiles but are not profiles
 
 
+MAX_DEPTH = 16  #: a profile nests 5 levels deep; far deeper is an attack or an accident, refused unread
+
+
 def parse_text(text: str) -> tuple[dict | None, list[Problem]]:
     """Plain data of a profile text, or None and the problem saying where the TOML is broken."""
+    wanted = "a TOML file as described in the README"
+    if _deepest_key(text) > MAX_DEPTH:
+        # tomllib's time grows with the square of a dotted key's length: refuse before parsing
+        return None, [Problem("(file)", f"has keys nested more than {MAX_DEPTH} levels deep", wanted)]
     try:
-        return tomllib.loads(text), []
+        data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
-        return None, [Problem("(file)", f"is not valid TOML: {exc}", "a TOML file as described in the README")]
+        return None, [Problem("(file)", f"is not valid TOML: {exc}", wanted)]
+    except ValueError as exc:  # e.g. an integer longer than Python converts (4300 digits)
+        return None, [Problem("(file)", f"holds a value that cannot be read: {str(exc)[:80]}", wanted)]
     except RecursionError:
-        return None, [Problem("(file)", "nests too deeply to be a profile", "a TOML file as described in the README")]
+        return None, [Problem("(file)", "nests too deeply to be a profile", wanted)]
+    if _depth(data) > MAX_DEPTH:
+        return None, [Problem("(file)", f"nests more than {MAX_DEPTH} levels deep", wanted)]
+    return data, []
+
+
+def _deepest_key(text: str) -> int:
+    """Most dotted parts in any key or table header of the text (a cheap scan, no parsing)."""
+    deepest = 0
+    for line in text.splitlines():
+        key = line.split("=", 1)[0]
+        if key.count(".") + 1 > deepest:
+            deepest = key.count(".") + 1
+    return deepest
+
+
+def _depth(data) -> int:
+    """Nesting depth of parsed data, without recursion (deep data must not crash the measuring)."""
+    deepest, stack = 0, [(data, 1)]
+    while stack:
+        node, depth = stack.pop()
+        deepest = max(deepest, depth)
+        if depth > MAX_DEPTH:
+            break
+        children = node.values() if isinstance(node, dict) else node if isinstance(node, list) else ()
+        stack.extend((child, depth + 1) for child in children if isinstance(child, (dict, list)))
+    return deepest
 
 
 @dataclass(frozen=True)

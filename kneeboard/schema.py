@@ -5,7 +5,10 @@ its path, what is wrong and what would be accepted, and reading goes on so that 
 everything. Errors make the profile unusable; warnings are shown but do not stop a card.
 """
 
+import json
 import math
+import re
+import unicodedata
 
 from kneeboard import units
 from kneeboard.aero.limits import CATEGORY_LIMIT_LOAD
@@ -30,9 +33,12 @@ SCHEMA_VERSION = 1
 KT = 1852.0 / 3600.0  # [m/s]
 FT = 0.3048  # [m]
 
-# Plausible ranges [SI]: beyond them a value is a typo, not an aircraft.
-SPEED_RANGE = (0.0, 600 * KT, "above 0 and at most 600 kt")
-MASS_RANGE = (0.0, 600_000.0, "above 0 and at most 600,000 kg")
+# Plausible ranges [SI]: beyond them a value is a typo, not an aircraft. The lower ends also keep
+# the ratios the physics takes (card weight / reference weight, ...) far from overflow.
+SPEED_RANGE = (1 * KT, 600 * KT, "above 1 kt and at most 600 kt")
+SINK_RANGE = (0.1, 20.0, "above 0.1 m/s and at most 20 m/s")
+MASS_RANGE = (1.0, 600_000.0, "above 1 kg and at most 600,000 kg")
+OAT_RANGE = (173.15, 373.15, "an outside air temperature from -100 to +100 degC")  # [K]
 ALTITUDE_RANGE = (-2_000 * FT, 11_000.0, "from -2,000 ft up to the tropopause at 36,089 ft (11,000 m)")
 MAX_CONFIGURATIONS = 12
 MAX_BANKS = 24
@@ -80,7 +86,7 @@ class _Reader:
     def unknown(self, data, known_set, prefix):
         for key in data:
             if key not in known_set:
-                path = f"{prefix}.{key}" if prefix else key
+                path = f"{prefix}.{_key_text(key)}" if prefix else _key_text(key)
                 self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING)
 
     def quantity(self, data, key, path, kind, bounds=None, required=False):
@@ -112,12 +118,12 @@ class _Reader:
         if isinstance(raw, bool) or not isinstance(raw, (int, float)):
             self.problem(path, "must be a plain number", wording, raw)
             return None
-        if not (math.isfinite(raw) and low < raw <= high):
+        if not (_finite(raw) and low < raw <= high):
             self.problem(path, "is out of range", wording, raw)
             return None
         return float(raw)
 
-    def text(self, data, key, path, limit, required=False, default=""):
+    def text(self, data, key, path, limit, required=False, default="", multiline=False):
         if key not in data:
             if required:
                 self.problem(path, "is required", f"text of 1 to {limit} characters")
@@ -126,11 +132,16 @@ class _Reader:
         if not isinstance(raw, str):
             self.problem(path, "must be text in quotes", f"text of up to {limit} characters", raw)
             return default
-        if required and not raw.strip():
-            self.problem(path, "must not be empty", f"text of 1 to {limit} characters", raw)
         if len(raw) > limit:
             self.problem(path, f"is {len(raw)} characters long", f"text of up to {limit} characters", raw)
             return raw[:limit]
+        bad = _not_text(raw, "\n" if multiline else "")
+        if bad is not None:
+            self.problem(path, f"contains the control character U+{ord(bad):04X}",
+                         "printable text" + (" (line breaks are fine)" if multiline else " on one line"), raw)
+            return default
+        if required and not raw.strip():
+            self.problem(path, "must not be empty", f"text of 1 to {limit} characters", raw)
         return raw.strip() if required else raw
 
     def choice(self, data, key, path, options, default):
@@ -148,7 +159,7 @@ class _Reader:
         if not isinstance(raw, list) or len(raw) < 2 or len(raw) > MAX_POLAR_POINTS:
             self.problem(path, "must be a list of [IAS, CAS] pairs", wanted, raw)
             return None
-        pairs = self.pairs(raw, path, units.SPEED, units.SPEED, wanted)
+        pairs = self.pairs(raw, path, (units.SPEED, SPEED_RANGE), (units.SPEED, SPEED_RANGE), wanted)
         if pairs is None:
             return None
         ias, cas = zip(*pairs)
@@ -157,15 +168,16 @@ class _Reader:
             return None
         return Calibration(tuple(ias), tuple(cas))
 
-    def pairs(self, raw, path, kind_a, kind_b, wanted):
+    def pairs(self, raw, path, first, second, wanted):
+        """[a, b] pairs; `first` and `second` are (kind, bounds) of a and b."""
         result = []
         for i, pair in enumerate(raw, start=1):
             here = f"{path}[{i}]"
             if not isinstance(pair, list) or len(pair) != 2:
                 self.problem(here, "must be a pair of two quantities", wanted, pair)
                 return None
-            a = self.quantity_value(pair[0], f"{here}[1]", kind_a, SPEED_RANGE)
-            b = self.quantity_value(pair[1], f"{here}[2]", kind_b, SPEED_RANGE)
+            a = self.quantity_value(pair[0], f"{here}[1]", *first)
+            b = self.quantity_value(pair[1], f"{here}[2]", *second)
             if a is None or b is None:
                 return None
             result.append((a, b))
@@ -198,7 +210,9 @@ def _read_schema(r, data):
     version = data.get("schema")
     wanted = f"schema = {SCHEMA_VERSION}"
     if version is None:
-        r.problem("schema", f"is missing; read as format {SCHEMA_VERSION}", wanted, severity=WARNING)
+        r.problem("schema", f"is missing, so this is a format-0 file; it is read as format {SCHEMA_VERSION}, and "
+                  "saving it from the app adds the number and keeps the original as a .format0.bak file",
+                  wanted, severity=WARNING)
     elif isinstance(version, bool) or not isinstance(version, int) or version < 1:
         r.problem("schema", "is not a format number", wanted, version)
     elif version > SCHEMA_VERSION:
@@ -269,12 +283,15 @@ def _read_item(r, raw, path):
     if not isinstance(raw, dict):
         r.problem(path, "must be a [[weight.item]] table", "name and mass, or name and volume", raw)
         return None
-    r.unknown(raw, KNOWN_KEYS["weight.item"], "weight.item")
+    r.unknown(raw, KNOWN_KEYS["weight.item"], path)
     name = r.text(raw, "name", f"{path}.name", 40, required=True)
     if ("mass" in raw) == ("volume" in raw):
         r.problem(path, "needs exactly one of mass or volume", 'mass = "80 kg", or volume = "60 L"')
         return None
     if "mass" in raw:
+        if "density" in raw:
+            r.problem(f"{path}.density", "goes with a volume, but this item gives a mass", "mass alone, or volume and "
+                      "density", raw["density"])
         mass = r.quantity(raw, "mass", f"{path}.mass", units.MASS, (-1e-12, MASS_RANGE[1], "from 0 to 600,000 kg"))
         return None if mass is None else WeightItem(name, mass)
     volume = r.quantity(raw, "volume", f"{path}.volume", units.VOLUME, (-1e-12, 1000.0, "from 0 to 1,000,000 L"))
@@ -302,9 +319,9 @@ def _read_configurations(r, data):
             continue
         r.unknown(c, KNOWN_KEYS["configuration"], path)
         name = r.text(c, "name", f"{path}.name", 24, required=True)
-        if name and name.casefold() in seen:
+        if name and _name_key(name) in seen:
             r.problem(f"{path}.name", "is used by an earlier configuration", "a name unique in this profile", name)
-        seen.add(name.casefold())
+        seen.add(_name_key(name))
         stall = r.quantity(c, "stall_speed", f"{path}.stall_speed", units.SPEED, SPEED_RANGE, required=True)
         factor = r.number(
             c, "pattern_factor", f"{path}.pattern_factor", 1.0, 3.0,
@@ -339,7 +356,7 @@ def _read_glider(r, data):
     if not isinstance(raw, list) or not 3 <= len(raw) <= MAX_POLAR_POINTS:
         r.problem("glider.polar", "must be a list of 3 to 40 [speed, sink rate] points", wanted, raw)
         return None
-    points = r.pairs(raw, "glider.polar", units.SPEED, units.SPEED, wanted)
+    points = r.pairs(raw, "glider.polar", (units.SPEED, SPEED_RANGE), (units.SPEED, SINK_RANGE), wanted)
     if points is None or weight is None:
         return None
     speeds, sinks = zip(*points)
@@ -367,10 +384,13 @@ def _read_card(r, data):
         r.problem("card.temperature", "is at or below absolute zero", "a temperature above -273.15 degC",
                   c["temperature"])
         temperature = None
+    elif temperature is not None and not OAT_RANGE[0] <= temperature <= OAT_RANGE[1]:
+        r.problem("card.temperature", "is not an outside air temperature", OAT_RANGE[2], c["temperature"])
+        temperature = None
     elif temperature is not None and not 203.15 <= temperature <= 333.15:
         r.problem("card.temperature", "is outside -70 to +60 degC; check it", "an outside air temperature",
                   c["temperature"], WARNING)
-    notes = r.text(c, "notes", "card.notes", MAX_NOTES)
+    notes = r.text(c, "notes", "card.notes", MAX_NOTES, multiline=True)
     return CardSettings(
         bank_angles_deg=banks,
         speed_unit=speed_unit,
@@ -400,13 +420,42 @@ def _read_banks(r, c):
         return DEFAULT_BANKS_DEG
     banks = []
     for i, b in enumerate(raw, start=1):
-        if isinstance(b, bool) or not isinstance(b, (int, float)) or not (math.isfinite(b) and 0 <= b < 90):
+        if isinstance(b, bool) or not isinstance(b, (int, float)) or not (_finite(b) and 0 <= b < 90):
             r.problem(f"card.bank_angles[{i}]", "is not a bank angle a level turn can hold", wanted, b)
             continue
         banks.append(float(b))
     if len(set(banks)) != len(banks):
         r.problem("card.bank_angles", "lists a bank twice; it is printed once", "each bank once", raw, WARNING)
     return tuple(sorted(set(banks))) or DEFAULT_BANKS_DEG
+
+
+def _finite(x) -> bool:
+    """math.isfinite that also answers for integers too large for a float (TOML has no limit on them)."""
+    try:
+        return math.isfinite(x)
+    except OverflowError:
+        return False
+
+
+_NOT_TEXT = {"Cc", "Cf", "Cs", "Co", "Cn", "Zl", "Zp"}  #: controls, bidi and zero-width marks, line separators
+
+
+def _not_text(text: str, allowed: str = "") -> str | None:
+    """The first character of `text` that is not printable text (it would reach a terminal or card raw), or None."""
+    return next((ch for ch in text if ch not in allowed and unicodedata.category(ch) in _NOT_TEXT), None)
+
+
+def _key_text(key: str) -> str:
+    """A key as a field path shows it: a plain name as is, anything else quoted with its controls escaped."""
+    if re.fullmatch(r"[A-Za-z0-9_-]{1,40}", key):
+        return key
+    shown = key if len(key) <= 40 else key[:37] + "..."
+    return json.dumps(shown, ensure_ascii=not shown.isprintable())
+
+
+def _name_key(name: str) -> str:
+    """What makes two configuration names the same on a card: case, character width and spacing do not count."""
+    return " ".join(unicodedata.normalize("NFKC", name).casefold().split())
 
 
 def _cross_checks(r, profile):

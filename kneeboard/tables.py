@@ -167,9 +167,9 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
                     bank_text=_bank_text(b),
                     speed=_up(spd(v)),
                     sink_rate=_up(sink(s), SINK_STEP),
-                    turn_radius=_finite_up(dist(r)),
-                    circle_time=_finite_up(float(t)),
-                    height_loss_180=_finite_up(dist(h)),
+                    turn_radius=None if _bank_text(b) == "0" else _finite_up(dist(r)),  # printed level: no turn
+                    circle_time=None if _bank_text(b) == "0" else _finite_up(float(t)),
+                    height_loss_180=None if _bank_text(b) == "0" else _finite_up(dist(h)),
                 )
                 for b, v, s, r, t, h in zip(g.bank, g.speed, g.sink_rate, g.turn_radius, g.circle_time,
                                             g.height_loss_180)
@@ -219,7 +219,9 @@ def _curves(profile: Profile, weight, speed_unit: str) -> tuple[Curve, ...]:
 
 
 def _bank_text(bank_rad: float) -> str:
-    return f"{math.degrees(bank_rad):.4g}".rstrip(".")
+    """The bank as printed: rounded down to 0.01 degree, so it never exceeds the bank the row was computed for
+    (89.9999 prints 89.99, not 90), and never in exponent notation."""
+    return f"{rounding.down(math.degrees(bank_rad), 0.01):.2f}".rstrip("0").rstrip(".")
 
 
 def _configuration(r, buffer: float, n_limit: float, spd, dist) -> ConfigurationTable:
@@ -227,19 +229,20 @@ def _configuration(r, buffer: float, n_limit: float, spd, dist) -> Configuration
     for i, b in enumerate(r.bank):
         margin = float(r.margin[i])
         state = STALL if margin <= 0.0 else BUFFER if margin < buffer else OK
-        level = b == 0.0
+        bank_text = _bank_text(b)
+        level = bank_text == "0"  # a row printed as wings level shows no turn, whatever the hundredths hid
         rows.append(BankRow(
             bank_deg=float(np.degrees(b)),
-            bank_text=_bank_text(b),
+            bank_text=bank_text,
             load_factor=_up(float(r.load_factor[i]), LOAD_STEP),
             stall_speed=_up(spd(r.stall_speed[i])),
             margin=_down(spd(margin)),
             state=state,
             over_limit=bool(r.load_factor[i] > n_limit),
             extrapolated=bool(r.stall_extrapolated[i]),
-            turn_radius=None if level else _up(dist(r.turn_radius[i])),
-            time_180=None if level else _up(float(r.time_180[i])),
-            time_360=None if level else _up(float(r.time_360[i])),
+            turn_radius=None if level else _finite_up(dist(r.turn_radius[i])),
+            time_180=None if level else _finite_up(float(r.time_180[i])),
+            time_360=None if level else _finite_up(float(r.time_360[i])),
         ))
     return ConfigurationTable(
         name=r.name,

@@ -1,9 +1,10 @@
 """The one pint registry of kneeboard: every quantity is parsed and formatted here and nowhere else.
 
 A profile value is a string of a number and a unit ("52 kt", "1150 kg", "15 degC"). It is
-parsed with a strict pattern (a plain decimal number, then a unit expression that pint
-resolves) rather than pint's expression evaluator, so a file can only ever yield a number of
-the expected kind: no arithmetic, no powers that take forever, nothing executed.
+parsed with a strict pattern (a plain decimal number in ASCII digits, then a unit expression
+of unit names, `*`, `/`, parentheses and small integer powers, which pint resolves) rather than
+pint's expression evaluator, so a file can only ever yield a number of the expected kind: no
+arithmetic, no powers that take forever, nothing executed.
 """
 
 import math
@@ -42,8 +43,13 @@ DISTANCE_UNITS = ("ft", "m")
 WEIGHT_UNITS = ("kg", "lb")
 
 MAX_TEXT = 64
-_NUMBER_UNIT = re.compile(r"\s*([-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*\Z")
-_UNIT_CHARS = re.compile(r"[A-Za-z_°µ/*^ .()0-9-]+\Z")
+# ASCII digits only: other scripts' digits (Bengali 4 looks like 8) would read as a number a person does not see.
+_NUMBER_UNIT = re.compile(r"\s*([-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]+)?)\s*(.*?)\s*\Z")
+# A unit expression, token by token: names, * / ( ), and one-digit powers of a name ("m**3"). A number
+# is only ever such an exponent, so "kt**9**9**9" and "((nmi/mi)**99)**99" (exact integer powers pint
+# would spend hours on) and "kt*1e300" never reach pint.
+_UNIT_TOKEN = re.compile(r"\s*(?:(?P<name>[A-Za-z_°µ][A-Za-z_°µ0-9]*)|(?P<power>(?:\*\*|\^)\s*-?[0-9](?![0-9.]))"
+                         r"|(?P<op>[*/()]))")
 
 
 class QuantityError(ValueError):
@@ -57,12 +63,26 @@ class QuantityError(ValueError):
 @lru_cache(maxsize=512)
 def _unit(text: str):
     """Resolve a unit expression once; pint objects are immutable, so caching is safe."""
-    if not _UNIT_CHARS.match(text):
+    if not _is_unit_expression(text):
         raise QuantityError(f"{text!r} is not a unit", "")
     try:
         return ureg.parse_units(text)
     except Exception as exc:  # pint raises several unrelated types for junk
         raise QuantityError(f"unknown unit {text!r}", "") from exc
+
+
+def _is_unit_expression(text: str) -> bool:
+    """Whether `text` is made of unit names, * / ( ) and one-digit integer powers of a name."""
+    pos, previous = 0, None
+    while pos < len(text.rstrip()):
+        m = _UNIT_TOKEN.match(text, pos)
+        if not m or m.end() == pos:
+            return False
+        kind = m.lastgroup
+        if kind == "power" and previous != "name":
+            return False
+        previous, pos = (m.group("op") if kind == "op" else kind), m.end()
+    return previous is not None
 
 
 @lru_cache(maxsize=512)
@@ -104,11 +124,15 @@ def parse(value: object, kind: Kind) -> float:
     if kind is TEMPERATURE:
         if "delta" in str(unit):
             raise QuantityError(f"{unit_text!r} is a temperature difference, not a temperature", expected)
-        result = float(ureg.Quantity(number, unit).to("K").magnitude)
-    else:
-        if unit.dimensionality == ureg.get_dimensionality("[temperature]"):
-            raise QuantityError("a temperature unit here makes no sense", expected)
-        result = number * _factor(unit_text, kind.si_unit)
+    elif unit.dimensionality == ureg.get_dimensionality("[temperature]"):
+        raise QuantityError("a temperature unit here makes no sense", expected)
+    try:
+        if kind is TEMPERATURE:
+            result = float(ureg.Quantity(number, unit).to("K").magnitude)
+        else:
+            result = number * _factor(unit_text, kind.si_unit)
+    except Exception:  # pint's conversions raise overflow and offset-unit errors of several types
+        raise QuantityError(f"{unit_text!r} cannot be converted to {kind.si_unit}", expected) from None
     if not math.isfinite(result):
         raise QuantityError("the number is too large", expected)
     return result

@@ -5,6 +5,7 @@ import math
 import pytest
 
 from kneeboard.profile_io import profile_from_text
+from kneeboard.tables import build
 
 MINIMAL = """\
 schema = 1
@@ -194,3 +195,106 @@ def test_problem_text_has_file_path_value_and_expectation():
 def test_speeds_stay_finite():
     p = load(MINIMAL).profile
     assert math.isfinite(p.configurations[0].stall_speed)
+
+
+# --- hostile files (issue 5): one test per bug the generated cases of test_hostile.py found ---
+
+
+def card_of(text):
+    loaded = load(text)
+    assert loaded.errors == [], [str(p) for p in loaded.errors]
+    return build(loaded.profile)
+
+
+def test_integer_too_large_for_a_float_is_out_of_range():
+    # TOML integers have no size limit; math.isfinite(10**400) raised OverflowError out of the loader.
+    huge = "1" + "0" * 400
+    assert only_error_paths(MINIMAL + f"[card]\nbank_angles = [0, {huge}]\n") == ["card.bank_angles[2]"]
+    assert only_error_paths(MINIMAL + f"pattern_factor = -{huge}\n") == ["configuration[1].pattern_factor"]
+
+
+def test_weights_and_speeds_too_small_for_an_aircraft_are_refused():
+    # "1e-300 kg" was a valid maximum weight; with a real card weight the speeds scaled by sqrt(W / Wref)
+    # overflowed, and the table builder crashed on an infinite turn radius.
+    text = MINIMAL.replace('"750 kg"', '"1e-300 kg"') + '[weight]\ntotal = "690 kg"\n'
+    assert only_error_paths(text) == ["aircraft.max_weight"]
+    assert only_error_paths(MINIMAL.replace('"50 kt"', '"1e-300 kt"')) == ["configuration[1].stall_speed"]
+    assert "above 1 kg" in load(MINIMAL.replace('"750 kg"', '"0.5 kg"')).errors[0].expected
+
+
+def test_temperature_that_no_outside_air_has_is_an_error():
+    # "1e300 K" was only a warning: the density fell to nothing and every turn figure became infinite.
+    for written in ("1e300 K", "1e-300 K", "200 degC", "-150 degC"):
+        assert only_error_paths(MINIMAL + f'[card]\ntemperature = "{written}"\n') == ["card.temperature"]
+    assert [p.severity for p in load(MINIMAL + '[card]\ntemperature = "-80 degC"\n').problems] == ["warning"]
+
+
+def test_polar_sink_rates_must_be_plausible():
+    # A sink of 590 kt was accepted; tiny polars failed the fit as "(profile): cannot be computed", no field named.
+    polar = ('[glider]\npolar_weight = "400 kg"\n'
+             'polar = [["80 km/h", "{}"], ["100 km/h", "0.6 m/s"], ["150 km/h", "1.4 m/s"]]\n')
+    for sink in ("590 kt", "0 m/s", "1e-300 m/s", "-0.5 m/s"):
+        assert only_error_paths(MINIMAL + polar.format(sink)) == ["glider.polar[1][2]"]
+    assert load(MINIMAL + polar.format("0.7 m/s")).errors == []
+
+
+def test_text_with_control_characters_is_refused():
+    # A line break in a registration printed a line of its own in `kneeboard check`; escapes reached the terminal.
+    loaded = load(MINIMAL.replace('"TEST-1"', '"T\\nerror: forged"'))
+    assert [p.path for p in loaded.errors] == ["aircraft.registration"]
+    assert "U+000A" in loaded.errors[0].message and "\n" not in str(loaded.errors[0])
+    assert only_error_paths(MINIMAL + '[card]\nnotes = "\\u001b[2J"\n') == ["card.notes"]
+    assert only_error_paths(MINIMAL.replace('"Flaps up"', '"Flaps\\u202eup"')) == ["configuration[1].name"]
+    assert load(MINIMAL + '[card]\nnotes = """two\nlines"""\n').errors == []  # notes may break lines
+
+
+def test_unknown_key_is_quoted_in_its_path():
+    # The key was printed raw: '"a\nerror: x" = 1' forged an error line of its own.
+    loaded = load(MINIMAL + '"a\\nerror: x" = 1\n')
+    (warning,) = loaded.warnings
+    assert warning.path == 'configuration[1]."a\\nerror: x"' and "\n" not in str(warning)
+
+
+def test_unknown_key_of_a_weight_item_names_the_item():
+    # It was reported as "weight.item.colour", without saying which item.
+    text = MINIMAL + '[weight]\nempty = "500 kg"\n[[weight.item]]\nname = "a"\nmass = "1 kg"\n' \
+                     '[[weight.item]]\nname = "b"\nmass = "1 kg"\ncolour = "red"\n'
+    assert [p.path for p in load(text).warnings] == ["weight.item[2].colour"]
+
+
+def test_density_beside_a_mass_is_an_error():
+    # The density of an item given by mass was never read, so even "52 kt" there got no answer.
+    text = MINIMAL + '[weight]\nempty = "500 kg"\n[[weight.item]]\nname = "a"\nmass = "80 kg"\ndensity = "52 kt"\n'
+    assert only_error_paths(text) == ["weight.item[1].density"]
+
+
+def test_duplicate_names_differing_in_width_or_spacing():
+    # "Ｆｌａｐｓ ｕｐ" (full width) and "Flaps  up" print like "Flaps up" but were accepted as other names.
+    for twin in ("\uff26\uff4c\uff41\uff50\uff53 \uff55\uff50", "Flaps  up", " flaps UP "):
+        text = MINIMAL + f'\n[[configuration]]\nname = "{twin}"\nstall_speed = "45 kt"\n'
+        assert only_error_paths(text) == ["configuration[2].name"]
+
+
+def test_calibration_that_turns_a_speed_negative_names_the_table():
+    # Ascending pairs with CAS far below IAS made the calibrated stall speed negative: a NaN bank crashed the
+    # table builder, or the error blamed the pattern factor.
+    calibration = 'calibration = [["500 kt", "60 kt"], ["600 kt", "70 kt"]]\n'
+    assert only_error_paths(MINIMAL + calibration) == ["configuration[1].calibration"]
+    assert only_error_paths(MINIMAL + 'pattern_speed = "70 kt"\n' + calibration) == ["configuration[1].calibration"]
+    aircraft = MINIMAL.replace('max_weight = "750 kg"', 'max_weight = "750 kg"\n' + calibration)
+    assert only_error_paths(aircraft) == ["aircraft.calibration"]
+
+
+def test_bank_printed_rounded_down_never_up():
+    # "%.4g" printed 89.9999 as "90" and 87.625 as "87.63", banks the row was not computed for, and 1e-05 as "1e-05".
+    card = card_of(MINIMAL + "[card]\nbank_angles = [0.00001, 12.5, 87.625, 89.9999]\n")
+    assert [row.bank_text for row in card.configurations[0].rows] == ["0", "12.5", "87.62", "89.99"]
+
+
+def test_bank_too_small_to_turn_prints_as_level():
+    # A bank of 1e-310 degrees gave an infinite turn radius, which crashed the table builder.
+    card = card_of(MINIMAL + "[card]\nbank_angles = [1e-310, 0.004, 30]\n")
+    rows = card.configurations[0].rows
+    assert [row.bank_text for row in rows] == ["0", "0", "30"]
+    assert [row.turn_radius is None for row in rows] == [True, True, False]
+    assert all(math.isfinite(p.value) for row in rows for p in (row.stall_speed, row.margin, row.load_factor))

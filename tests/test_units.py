@@ -1,5 +1,8 @@
 """Quantity parsing against pint's own unit definitions."""
 
+import subprocess
+import sys
+
 import pytest
 
 from kneeboard import units
@@ -74,3 +77,42 @@ def test_one_registry():
     import kneeboard.units as again
 
     assert again.ureg is units.ureg
+
+
+def test_unit_power_towers_are_refused_without_evaluating():
+    # pint works out integer powers exactly: "9**9**9" or "((nmi/mi)**99)**99" took hours. Only one-digit powers
+    # of a unit name are read. A separate process, so a regression fails on the timeout instead of hanging.
+    code = (
+        "from kneeboard import units\n"
+        "for text in ('5 kt**9**9**9', '5 kt^9^9^9', '5 kt**(9**9**9)', '5 ((((nmi/mi)**99)**99)**99)**99*kt'):\n"
+        "    try:\n"
+        "        units.parse(text, units.SPEED)\n"
+        "    except units.QuantityError as exc:\n"
+        "        assert 'not a unit' in str(exc), exc\n"
+        "    else:\n"
+        "        raise SystemExit(f'{text} was read')\n"
+    )
+    proc = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, timeout=60)  # hang guard
+    assert proc.returncode == 0, proc.stdout + proc.stderr
+
+
+def test_unit_conversion_overflow_is_a_quantity_error():
+    # (nmi/mi) to the 9801st power overflowed a float inside pint and escaped as OverflowError.
+    for text in ("5 (nmi**99/mi**99)**99*kt", "5 ((nmi/mi)**99)**99*kt"):
+        with pytest.raises(units.QuantityError):
+            units.parse(text, units.SPEED)
+
+
+def test_digits_of_other_scripts_are_not_numbers():
+    # Bengali four looks like an 8: "\u09ea0 kt" was read as 40 kt where a person sees 80.
+    for text in ("\u09ea0 kt", "\uff15 kt", "\u0665 kt", "\U0001d7d3 kt"):
+        with pytest.raises(units.QuantityError, match="not a number"):
+            units.parse(text, units.SPEED)
+    assert units.parse("40 kt", units.SPEED) == pytest.approx(40 * 1852 / 3600)
+
+
+def test_fractional_unit_powers_are_not_units():
+    # "m**1.0000000001/s" was refused as "a unit of [length] ** 1 / [time], not of speed": a riddle.
+    with pytest.raises(units.QuantityError, match="is not a unit"):
+        units.parse("5 m**1.0000000001/s", units.SPEED)
+    assert units.parse("0.72 kg/m**3", units.DENSITY) == pytest.approx(0.72)
