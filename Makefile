@@ -3,7 +3,7 @@ PYTHON ?= python3
 VENV := .venv
 BIN := $(VENV)/bin
 
-.PHONY: run cards test lint clean
+.PHONY: run cards test lint bench clean
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
@@ -38,8 +38,11 @@ cards: $(VENV)/.installed
 test: $(VENV)/.installed-test
 	$(BIN)/python -m pytest -q
 
+bench: $(VENV)/.installed-test
+	$(BIN)/python -m benchmarks
+
 lint: $(VENV)/.installed-test
-	$(BIN)/ruff check kneeboard tests
+	$(BIN)/ruff check kneeboard tests benchmarks
 
 clean:
 	rm -rf $(VENV) out .pytest_cache .hypothesis

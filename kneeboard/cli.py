@@ -5,15 +5,17 @@ import os
 import sys
 from pathlib import Path
 
-from kneeboard import __version__, report, units
-from kneeboard.card.geometry import CARD_SIZES, SHEET_SIZES
-from kneeboard.card.style import fleet_style_path, load_style
-from kneeboard.export import make_cards, write_each, write_fleet, write_pngs
+from kneeboard import __version__
 from kneeboard.fileio import FileProblem, terminate_cleanly
 from kneeboard.problems import Problem
-from kneeboard.profile_io import expand_paths, load_profile
-from kneeboard.tables import build
 from kneeboard.texts import CAUTION
+
+# Sizes and options are plain names here; the modules behind each command load only when it runs,
+# so `kneeboard` opening the app does not first pay for the command line's card and table machinery.
+CARD_SIZES = ("a5", "half-letter", "5x8", "4x6")
+SHEET_SIZES = ("letter", "a4")
+SPEED_UNITS = ("kt", "mph", "km/h")
+DISTANCE_UNITS = ("ft", "m")
 
 EXIT_OK, EXIT_PROBLEMS, EXIT_BUG = 0, 2, 70
 COMMANDS = ("check", "table", "card")
@@ -40,8 +42,8 @@ def _parser() -> argparse.ArgumentParser:
     table.add_argument("profile", metavar="PROFILE")
     table.add_argument("--weight", metavar="QTY", help='weight to compute for, e.g. "690 kg" or "1500 lb"')
     table.add_argument("--bank", metavar="LIST", help="bank angles in degrees, e.g. 0,20,40")
-    table.add_argument("--speed-unit", choices=units.SPEED_UNITS)
-    table.add_argument("--distance-unit", choices=units.DISTANCE_UNITS)
+    table.add_argument("--speed-unit", choices=SPEED_UNITS)
+    table.add_argument("--distance-unit", choices=DISTANCE_UNITS)
     table.add_argument("--format", choices=("text", "csv", "json"), default="text")
     card = sub.add_parser("card", help="make cockpit cards as PDF (one aircraft or a whole folder)")
     card.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
@@ -60,6 +62,8 @@ def _parser() -> argparse.ArgumentParser:
 def _parse_weight(text: str | None) -> float | None:
     if text is None:
         return None
+    from kneeboard import units
+
     try:
         value = units.parse(text, units.MASS)
     except units.QuantityError as exc:
@@ -88,6 +92,8 @@ def _print_problems(problems: list[Problem], stream) -> None:
 
 
 def cmd_check(args) -> int:
+    from kneeboard.profile_io import expand_paths, load_profile
+
     files = expand_paths(args.profiles)
     if not files:
         print("kneeboard check: no profile files (*.toml) found", file=sys.stderr)
@@ -110,6 +116,10 @@ def cmd_check(args) -> int:
 
 
 def cmd_table(args) -> int:
+    from kneeboard import report
+    from kneeboard.profile_io import load_profile
+    from kneeboard.tables import build
+
     weight = _parse_weight(args.weight)
     banks = _parse_banks(args.bank)
     loaded = load_profile(Path(args.profile))
@@ -128,6 +138,10 @@ def cmd_table(args) -> int:
 
 
 def cmd_card(args) -> int:
+    from kneeboard.card.style import load_style
+    from kneeboard.export import make_cards, write_each, write_fleet, write_pngs
+    from kneeboard.profile_io import expand_paths
+
     if not args.output and not args.each:
         raise UsageProblem("say where to write: -o OUT.pdf, --each DIR, or both")
     if args.png is not None and not 36 <= args.png <= 1200:
@@ -188,6 +202,8 @@ def cmd_card(args) -> int:
 
 def _fleet_style(paths) -> Path | None:
     """With no --style, a folder's own fleet.style.toml, when exactly one folder is given and has one."""
+    from kneeboard.card.style import fleet_style_path
+
     folders = [Path(p) for p in paths if Path(p).is_dir()]
     return fleet_style_path(folders[0]) if len(folders) == 1 else None
 

@@ -99,7 +99,7 @@ class Curve:
     buffer_bank_deg: float | None
 
 
-CURVE_BANKS_DEG = np.arange(0.0, 85.5, 0.5)
+CURVE_BANKS_DEG = np.arange(0.0, 86.0, 1.0)  #: 1 degree steps: a smooth curve at card size, half the points
 
 
 @dataclass(frozen=True)

@@ -14,7 +14,20 @@ from functools import lru_cache
 
 import pint
 
-ureg = pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
+
+def _registry() -> pint.UnitRegistry:
+    """The registry, from pint's own cache of its parsed definitions when it can keep one.
+
+    Building it from the definitions text takes a third of a second, most of the app's start-up;
+    the cache (in the user's cache folder) cuts that tenfold. Without a writable cache it is built.
+    """
+    try:
+        return pint.UnitRegistry(cache_folder=":auto:", autoconvert_offset_to_baseunit=False)
+    except Exception:  # an unwritable or damaged cache must never stop the program
+        return pint.UnitRegistry(autoconvert_offset_to_baseunit=False)
+
+
+ureg = _registry()
 # Spellings pilots write that pint does not know.
 ureg.define("kts = knot")
 ureg.define("fpm = foot / minute")
@@ -101,8 +114,26 @@ def split(text: str) -> tuple[float, str]:
 def parse(value: object, kind: Kind) -> float:
     """Parse a profile value into the SI float of `kind`; raises QuantityError with the reason.
 
-    Accepts only a string "number unit" whose unit has the dimension of `kind`.
+    Accepts only a string "number unit" whose unit has the dimension of `kind`. Strings are
+    immutable, so each (text, kind) is parsed once: an edit re-reads the whole profile.
     """
+    if isinstance(value, str):
+        result = _parse_text(value, kind)
+        if isinstance(result, QuantityError):
+            raise QuantityError(str(result), result.expected)
+        return result
+    return _parse(value, kind)
+
+
+@lru_cache(maxsize=4096)
+def _parse_text(value: str, kind: Kind):
+    try:
+        return _parse(value, kind)
+    except QuantityError as exc:
+        return exc  # a wrong entry is as stable as a right one: remember the answer, raise it afresh
+
+
+def _parse(value: object, kind: Kind) -> float:
     expected = f"a {kind.name} such as {kind.examples}"
     if isinstance(value, bool) or not isinstance(value, str):
         if isinstance(value, (int, float)):

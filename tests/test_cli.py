@@ -116,3 +116,12 @@ def test_console_script_has_no_traceback(tmp_path):
     assert proc.returncode == 2
     assert "Traceback" not in proc.stdout + proc.stderr
     assert "UTF-8" in proc.stdout
+
+
+def test_command_line_names_match_the_modules_behind_them():
+    # the command line keeps its option lists as plain names so that it can start without the card modules
+    from kneeboard import cli, units
+    from kneeboard.card.geometry import CARD_SIZES, SHEET_SIZES
+
+    assert tuple(CARD_SIZES) == cli.CARD_SIZES and tuple(SHEET_SIZES) == cli.SHEET_SIZES
+    assert cli.SPEED_UNITS == units.SPEED_UNITS and cli.DISTANCE_UNITS == units.DISTANCE_UNITS

@@ -31,7 +31,7 @@ from kneeboard.tables import build
 from kneeboard.texts import CAUTION
 
 MAX_RECENT = 8
-DEBOUNCE_MS = 30  #: a pause in typing this long starts a new preview
+DEBOUNCE_MS = 0  #: edits of one event-loop turn share a render; the preview drops stale renders itself
 
 
 class MainWindow(CardActions, QMainWindow):
@@ -218,13 +218,13 @@ class MainWindow(CardActions, QMainWindow):
     def schedule_preview(self) -> None:
         self.timer.start()
 
-    def card(self, mode: str = "card"):
+    def card(self, mode: str = "card", table=None):
         """A job for the preview: the card (or a sheet of it) as PDF bytes, from immutable inputs."""
         loaded = self.doc.loaded
         profile, style, fingerprint = loaded.profile, self.style, loaded.fingerprint
 
         def job() -> bytes:
-            c = build_card(profile, style, fingerprint)
+            c = build_card(profile, style, fingerprint, table=table)
             return card_pdf(c) if mode == "card" else fleet_pdf([c], mode)
 
         return job
@@ -245,7 +245,7 @@ class MainWindow(CardActions, QMainWindow):
 
         self.last_table = build(styled_profile(loaded.profile, self.style))
         self.readout.show_table(self.last_table)
-        self.preview.request(self.card(self.preview.mode()))
+        self.preview.request(self.card(self.preview.mode(), self.last_table))
 
     # --- saving --------------------------------------------------------------------------------
     def save(self) -> bool:

@@ -44,11 +44,15 @@ def styled_profile(profile: Profile, style: CardStyle) -> Profile:
 
 
 def build_card(profile: Profile, style: CardStyle, fingerprint: str, weight: float | None = None,
-               made_on: str | None = None) -> Card:
-    """Lay out the card of `profile` at `weight` [kg] (default the profile's); raises LayoutError."""
+               made_on: str | None = None, table: CardTable | None = None) -> Card:
+    """Lay out the card of `profile` at `weight` [kg] (default the profile's); raises LayoutError.
+
+    `table` may be passed when the caller already built it for this profile, style and weight.
+    """
     from kneeboard.card.blocks import today
 
-    table = build(styled_profile(profile, style), weight)
+    if table is None:
+        table = build(styled_profile(profile, style), weight)
     layout = layout_card(table, style, fingerprint, made_on or today(), logo_png(style.logo))
     return Card(table.registration, table, layout, fingerprint)
 

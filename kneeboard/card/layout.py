@@ -12,7 +12,7 @@ from dataclasses import dataclass
 from kneeboard.card import blocks, chart, grids
 from kneeboard.card.draw import RULE, SECONDARY, Context, DoesNotFit
 from kneeboard.card.geometry import BINDING_MARGIN, LARGE_CARDS, MM, SAFE_MARGIN, PageBox, page_box
-from kneeboard.card.ops import Circle, Page, moved
+from kneeboard.card.ops import Circle, Page, Part
 from kneeboard.card.style import CardStyle
 from kneeboard.tables import CardTable
 
@@ -143,9 +143,9 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
     total = len(pages)
     result = []
     for side, (top_block, cols, column_top) in enumerate(pages, start=1):
-        ops, placed = [], []
+        parts, placed = [], []
         if top_block is not None:
-            ops += moved(top_block.ops, box.left, box.top)
+            parts.append(Part(box.left, box.top, top_block.ops))
             placed.append(top_block.name)
         for c, names in enumerate(cols):
             used = sum(height(n) for n in names) + gap * max(len(names) - 1, 0)
@@ -157,12 +157,13 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
                     b = chart.margin_chart(ctx, col_w, h)
                 else:
                     b = built[name]
-                ops += moved(b.ops, box.left + c * (col_w + gap), y)
+                parts.append(Part(box.left + c * (col_w + gap), y, b.ops))
                 placed.append(name)
                 y -= b.height + gap
         caution = blocks.caution(ctx, box.content_width, side, total)
-        ops += moved(caution.ops, box.left, box.bottom + caution.height) + _binding_marks(box, ctx.style.binding)
-        result.append(Page(box.width, box.height, tuple(ops), tuple(placed) + ("caution",)))
+        parts.append(Part(box.left, box.bottom + caution.height, caution.ops))
+        parts.append(Part(0.0, 0.0, tuple(_binding_marks(box, ctx.style.binding))))
+        result.append(Page(box.width, box.height, tuple(parts), tuple(placed) + ("caution",)))
     return tuple(result)
 
 

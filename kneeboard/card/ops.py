@@ -95,11 +95,25 @@ class Image:
 
 
 @dataclass(frozen=True)
+class Part:
+    """Ops placed on a page by a shift: a block is laid out once and moved by the renderer, not copied."""
+
+    dx: float
+    dy: float
+    ops: tuple
+
+
+@dataclass(frozen=True)
 class Page:
     width: float
     height: float
-    ops: tuple
+    parts: tuple[Part, ...]
     blocks: tuple[str, ...] = ()  #: names of the blocks on this page, in order
+
+    @property
+    def ops(self) -> tuple:
+        """Every op at its place on the page (for inspection; the renderer draws the parts)."""
+        return tuple(op.moved(part.dx, part.dy) for part in self.parts for op in part.ops)
 
 
 def moved(ops, dx: float, dy: float) -> list:

@@ -8,7 +8,7 @@ the long edge) puts each back exactly behind its front.
 from dataclasses import dataclass
 
 from kneeboard.card.geometry import MM, SHEET_SIZES
-from kneeboard.card.ops import Line, Page, moved
+from kneeboard.card.ops import Line, Page, Part
 
 SHEET_MARGIN = 5 * MM  #: most printers print this close to the edge
 GUTTER = 7 * MM  #: between cards: room for crop marks and the cut
@@ -85,14 +85,14 @@ def impose(cards: list[tuple[Page, ...]], sheet: str) -> list[Page]:
         for back in (False, True):
             if back and not any(len(c) > 1 for c in group):
                 continue
-            ops, names = [], []
+            marks, parts, names = [], [], []
             for slot, card in enumerate(group):
                 x, y = grid.origin(slot, back)
-                ops += crop_marks(x, y, grid.card_w, grid.card_h)
+                marks += crop_marks(x, y, grid.card_w, grid.card_h)
                 if back and len(card) < 2:
                     continue
                 page = card[1] if back else card[0]
-                ops += moved(page.ops, x, y)
+                parts += [Part(x + part.dx, y + part.dy, part.ops) for part in page.parts]
                 names.append(f"{'back' if back else 'front'}:{slot}")
-            sheets.append(Page(grid.sheet_w, grid.sheet_h, tuple(ops), tuple(names)))
+            sheets.append(Page(grid.sheet_w, grid.sheet_h, (Part(0.0, 0.0, tuple(marks)), *parts), tuple(names)))
     return sheets
