@@ -126,9 +126,8 @@ def _sync_folder(folder: Path) -> None:
     except OSError:
         return
     try:
-        os.fsync(fd)
-    except OSError:
-        pass
+        with contextlib.suppress(OSError):  # some file systems cannot sync a folder; the rename stands anyway
+            os.fsync(fd)
     finally:
         os.close(fd)
 

@@ -6,6 +6,11 @@ CAUTION_CARD = (
     "The aircraft flight manual and local regulations govern. Not a substitute for instruction."
 )
 
+CAUTION_SHORT = (
+    "Figures for coordinated, level flight at the stated weight. The flight manual and local regulations govern; "
+    "no substitute for instruction."
+)
+
 CAUTION = (
     "CAUTION: figures are computed from published stall speeds for coordinated, level turns at the stated "
     "weight. The aircraft flight manual and local regulations govern; these figures are no substitute for "

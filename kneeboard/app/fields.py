@@ -164,20 +164,23 @@ class NotesField(Field):
             self._quiet = False
 
 
-class PairsField(Field):
-    """A table of [a, b] quantity pairs (a calibration table, a polar) with add and remove."""
+class TableField(Field):
+    """A small table of text cells with add and remove buttons; subclasses say what the rows mean.
 
-    def __init__(self, headers: tuple[str, str], add_label: str = "Add row", parent=None):
-        table = QTableWidget(0, 2)
+    An empty table shows only its add button. Edits go out as the value of all rows at once.
+    """
+
+    def __init__(self, headers: tuple[str, ...], add_label: str, remove_label: str, min_height: int, parent=None):
+        table = QTableWidget(0, len(headers))
         table.setHorizontalHeaderLabels(list(headers))
         table.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Stretch)
         table.verticalHeader().setVisible(False)
         table.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
-        table.setMinimumHeight(110)
+        table.setMinimumHeight(min_height)
         super().__init__(table, parent)
         table.hide()
         self.add = QPushButton(add_label)
-        self.delete = QPushButton("Remove row")
+        self.delete = QPushButton(remove_label)
         buttons = QHBoxLayout()
         buttons.addWidget(self.add)
         buttons.addWidget(self.delete)
@@ -185,41 +188,59 @@ class PairsField(Field):
         self.layout().insertLayout(1, buttons)
         self._quiet = False
         table.itemChanged.connect(self._changed)
-        self.add.clicked.connect(self._add)
+        self.add.clicked.connect(lambda: self.edited.emit(self.value_of(self.cells() + [self.new_row()])))
         self.delete.clicked.connect(self._remove)
 
-    def rows(self) -> list[list[str]]:
+    def cells(self) -> list[list[str]]:
         t = self.input
-        return [[(t.item(r, c).text() if t.item(r, c) else "") for c in range(2)] for r in range(t.rowCount())]
+        return [[(t.item(r, c).text() if t.item(r, c) else "") for c in range(t.columnCount())]
+                for r in range(t.rowCount())]
 
-    def set_value(self, value) -> None:
-        rows = [[str(x) for x in pair] if isinstance(pair, list) else [str(pair), ""] for pair in (value or [])]
-        if rows == self.rows():
+    def show_cells(self, rows: list[list[str]]) -> None:
+        if rows == self.cells():
             return
-        self._quiet = True
+        self._quiet = True  # filling the table is not an edit
         self.input.setRowCount(len(rows))
-        for r, pair in enumerate(rows):
-            for c in range(2):
-                self.input.setItem(r, c, QTableWidgetItem(pair[c] if c < len(pair) else ""))
+        for r, cells in enumerate(rows):
+            for c, text in enumerate(cells):
+                self.input.setItem(r, c, QTableWidgetItem(text))
         self._quiet = False
-        self.input.setVisible(bool(rows))  # an empty table is just its "Add row" button
+        self.input.setVisible(bool(rows))
         self.delete.setEnabled(bool(rows))
+
+    def value_of(self, rows: list[list[str]]):
+        """The document value for these rows (None when there are none): by default, the rows themselves."""
+        return rows or None
+
+    def new_row(self) -> list[str]:
+        """A row to add: by default a copy of the last one, to be edited."""
+        rows = self.cells()
+        return list(rows[-1]) if rows else [""] * self.input.columnCount()
 
     def _changed(self, _item=None):
         if not self._quiet:
-            self.edited.emit(self.rows() or None)
-
-    def _add(self):
-        rows = self.rows()
-        last = rows[-1] if rows else ["", ""]
-        self.edited.emit(rows + [list(last)])
+            self.edited.emit(self.value_of(self.cells()))
 
     def _remove(self):
-        rows = self.rows()
+        rows = self.cells()
         r = self.input.currentRow()
         if rows:
             del rows[r if 0 <= r < len(rows) else -1]
-        self.edited.emit(rows or None)
+        self.edited.emit(self.value_of(rows))
+
+
+class PairsField(TableField):
+    """[a, b] quantity pairs: a calibration table, a polar."""
+
+    def __init__(self, headers: tuple[str, str], parent=None):
+        super().__init__(headers, "Add row", "Remove row", 110, parent)
+
+    def set_value(self, value) -> None:
+        rows = [[str(x) for x in pair] if isinstance(pair, list) else [str(pair), ""] for pair in (value or [])]
+        self.show_cells([(row + ["", ""])[:2] for row in rows])
+
+    def rows(self) -> list[list[str]]:
+        return self.cells()
 
 
 def heading(text: str) -> QLabel:

@@ -28,7 +28,7 @@ from kneeboard.card import build_card, card_pdf, fleet_pdf
 from kneeboard.card.style import fleet_style_path, load_style
 from kneeboard.fileio import FileProblem
 from kneeboard.tables import build
-from kneeboard.texts import CAUTION
+from kneeboard.texts import CAUTION, CAUTION_SHORT
 
 MAX_RECENT = 8
 DEBOUNCE_MS = 0  #: edits of one event-loop turn share a render; the preview drops stale renders itself
@@ -91,6 +91,11 @@ class MainWindow(CardActions, QMainWindow):
         self.autosave_timer.timeout.connect(self.autosave)
         self.autosave_timer.start()
         self._menus()
+        # the caution is always on screen, not only on first start and in Help
+        self.caution = QLabel(CAUTION_SHORT)
+        self.caution.setToolTip(CAUTION)
+        self.caution.setStyleSheet("color: #5a3b00;")
+        self.statusBar().addPermanentWidget(self.caution, 1)
         self.resize(1400, 900)
         geometry = self.settings.value("window/geometry")
         if geometry is not None:

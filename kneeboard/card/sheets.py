@@ -43,7 +43,7 @@ class Grid:
 
 
 class SheetError(ValueError):
-    pass
+    """Cards that cannot be imposed on the chosen sheet; the message says why."""
 
 
 def grid_for(card_w: float, card_h: float, sheet: str) -> Grid:

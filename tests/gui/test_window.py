@@ -242,3 +242,9 @@ def test_standard_shortcuts(window):
     assert window.act_save.shortcut() == QKeySequence(QKeySequence.StandardKey.Save)
     assert window.act_undo.shortcut() == QKeySequence(QKeySequence.StandardKey.Undo)
     assert window.act_open.shortcut() == QKeySequence(QKeySequence.StandardKey.Open)
+
+
+def test_the_caution_is_always_on_screen(window):
+    assert window.caution.isVisible()
+    assert "flight manual and local regulations govern" in window.caution.text()
+    assert "coordinated, level flight at the stated weight" in window.caution.text()
