@@ -44,15 +44,3 @@ _REPR.maxlevel, _REPR.maxstring, _REPR.maxother, _REPR.maxlist, _REPR.maxdict = 
 def _show(value: object, limit: int = 40) -> str:
     text = _REPR.repr(value)  # bounded: a deep or huge value must not be rendered in full to be cut
     return text if len(text) <= limit else text[: limit - 3] + "..."
-
-
-class ProblemsError(Exception):
-    """Raised when a file cannot be used at all; carries every problem found."""
-
-    def __init__(self, problems: list[Problem]):
-        self.problems = list(problems)
-        super().__init__("\n".join(str(p) for p in self.problems))
-
-
-def errors(problems) -> list[Problem]:
-    return [p for p in problems if p.is_error]

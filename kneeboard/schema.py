@@ -11,7 +11,7 @@ import re
 import unicodedata
 
 from kneeboard import units
-from kneeboard.aero.limits import CATEGORY_LIMIT_LOAD
+from kneeboard.aero.limits import default_limit_load
 from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import (
     AVGAS_DENSITY,
@@ -248,7 +248,7 @@ def _read_aircraft(r, data):
         category=category,
         max_weight=max_weight,
         reference_weight=max_weight if reference is None else reference,
-        limit_load_factor=CATEGORY_LIMIT_LOAD[category] if n_limit is None else n_limit,
+        limit_load_factor=default_limit_load(category, max_weight) if n_limit is None else n_limit,
         maneuvering_speed=va,
         speed_basis=basis,
         calibration=calibration,

@@ -177,14 +177,6 @@ def _describe(unit) -> str:
     return str(dims) if dims else "a pure number"
 
 
-def unit_of(value: str) -> str:
-    """The unit part of a quantity string as written ("kt" of "52 kt"); "" when there is none."""
-    try:
-        return split(value)[1]
-    except QuantityError:
-        return ""
-
-
 def display_unit(value: object, options: tuple[str, ...]) -> str | None:
     """Which of the display `options` the unit of a written quantity is ("knots" -> "kt"), or None."""
     if not isinstance(value, str):

@@ -43,6 +43,13 @@ def test_normal_category_formula():
     assert limits.normal_category_limit_load(12_500) == pytest.approx(2.1 + 24000 / 22500)
 
 
+def test_default_limit_load_follows_the_regulation_for_heavy_normal_aeroplanes():
+    # 14 CFR 23.337(a)(1) before amendment 23-64: 2.1 + 24000 / (W + 10000), at most 3.8, W in lb.
+    assert limits.default_limit_load("normal", 1500.0) == pytest.approx(3.8)  # 3307 lb
+    assert limits.default_limit_load("normal", 6000 * 0.45359237) == pytest.approx(3.6)
+    assert limits.default_limit_load("utility", 6000 * 0.45359237) == pytest.approx(4.4)
+
+
 def test_maneuvering_speed_falls_with_weight():
     # FAA-H-8083-25B chapter 8 (from memory): VA falls with weight, as sqrt(W / Wref).
     va = limits.maneuvering_speed_at_weight(100.0, 1000.0, 1250.0)

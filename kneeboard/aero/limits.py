@@ -21,6 +21,17 @@ def normal_category_limit_load(weight_lb):
     return np.minimum(2.1 + 24_000.0 / (np.asarray(weight_lb, dtype=float) + 10_000.0), 3.8)
 
 
+def default_limit_load(category: str, max_weight: float) -> float:
+    """The limit load factor to assume when the profile gives none; `max_weight` [kg] -> [-].
+
+    For the normal category, 14 CFR 23.337(a)(1) asks for less than 3.8 above about 4,118 lb
+    (2.1 + 24000 / (W + 10000)); assuming 3.8 there would overstate the aeroplane's strength.
+    """
+    if category == "normal":
+        return float(normal_category_limit_load(max_weight / 0.45359237))
+    return CATEGORY_LIMIT_LOAD[category]
+
+
 def maneuvering_speed_at_weight(va, weight, reference_weight):
     """Manoeuvring speed [m/s] at `weight` from VA [m/s] published at `reference_weight` [kg].
 

@@ -9,7 +9,6 @@ text, so undoing back to the start gives the original file byte for byte.
 import copy
 import tomllib
 import uuid
-from dataclasses import dataclass
 from pathlib import Path
 
 import tomlkit
@@ -27,11 +26,6 @@ from kneeboard.profile_io import (
 )
 
 Key = tuple  #: a path into the document: ("configuration", 0, "stall_speed")
-
-
-@dataclass(frozen=True)
-class Snapshot:
-    text: str
 
 
 class _Edit(QUndoCommand):

@@ -320,9 +320,14 @@ class ProfileEditor(QScrollArea):
         for path in ("glider.polar_weight", "glider.polar"):
             self.fields[path].setEnabled(glider)
         category = self.doc.get(("aircraft", "category")) or "normal"
-        n = CATEGORY_LIMIT_LOAD.get(category)
-        if n:
-            self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(f"{n} for the {category} category")
+        profile = self.doc.loaded.profile
+        if profile is not None:  # the default the card uses: the category's, by maximum weight for normal
+            n = f"{profile.aircraft.limit_load_factor:.2f}".rstrip("0").rstrip(".")
+            self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(
+                f"{n} for the {category} category at this maximum weight")
+        elif category in CATEGORY_LIMIT_LOAD:
+            self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(
+                f"{CATEGORY_LIMIT_LOAD[category]} for the {category} category")
 
     def _show_conversions(self):
         speed_unit, distance_unit, weight_unit = self.card_units()

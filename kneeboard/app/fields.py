@@ -3,7 +3,7 @@ the problem (if any) right under it. A field never rejects input: what is typed 
 document decides what it means.
 """
 
-from PySide6.QtCore import Qt, Signal
+from PySide6.QtCore import Signal
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QComboBox,
@@ -241,10 +241,3 @@ class PairsField(TableField):
 
     def rows(self) -> list[list[str]]:
         return self.cells()
-
-
-def heading(text: str) -> QLabel:
-    label = QLabel(text)
-    label.setStyleSheet("font-weight: bold;")
-    label.setAlignment(Qt.AlignmentFlag.AlignLeft)
-    return label

@@ -4,7 +4,7 @@
 line and the app both call these, so there is one layout and one renderer.
 """
 
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 
 from kneeboard.card.layout import CardLayout, LayoutError, layout_card
 from kneeboard.card.logo import logo_png
@@ -72,5 +72,3 @@ def fleet_pdf(cards: list[Card], sheet: str | None = None) -> bytes:
     return pdf_bytes(impose([card.pages for card in cards], sheet),
                      title=f"kneeboard cards ({len(cards)} aircraft) on {sheet} sheets")
 
-
-replace = replace  # re-exported for callers that tweak a Card
