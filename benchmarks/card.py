@@ -7,11 +7,10 @@ from pathlib import Path
 from reportlab.pdfgen.canvas import Canvas
 
 from benchmarks.stats import summary
-from kneeboard.card import build_card, card_pdf, fonts
+from kneeboard.card import fonts
 from kneeboard.card.ops import Circle, Line, Rect, Text
 from kneeboard.card.ops import Path as PathOp
-from kneeboard.card.style import load_style
-from kneeboard.profile_io import load_profile
+from kneeboard.pipeline import Styles, card_pdf, make_card, prepare_file
 
 LARGEST = Path(__file__).resolve().parents[1] / "sample_aircraft" / "demo_tourer.toml"
 
@@ -46,15 +45,14 @@ def floor_pdf(pages) -> bytes:
 
 def run(smoke: bool = False) -> dict:
     repeats = 3 if smoke else 60
-    style, _ = load_style()
-    loaded = load_profile(LARGEST)
+    styles = Styles()
 
     def make():
-        return card_pdf(build_card(loaded.profile, style, loaded.fingerprint, made_on="2026-12-01"))
+        return card_pdf(make_card(prepare_file(LARGEST, styles), made_on="2026-12-01"))
 
     make()  # first call registers fonts and fills caches: start-up, not the steady cost
     ours, floor = [], []
-    pages = build_card(loaded.profile, style, loaded.fingerprint, made_on="2026-12-01").pages
+    pages = make_card(prepare_file(LARGEST, styles), made_on="2026-12-01").pages
     floor_pdf(pages)
     for _ in range(repeats):
         t = time.perf_counter()

@@ -35,8 +35,10 @@ def _parser() -> argparse.ArgumentParser:
     p.add_argument("--version", action="version", version=f"kneeboard {__version__}")
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
 
+    style_help = "card style (default: the fleet.style.toml beside each profile, else the shipped default)"
     check = sub.add_parser("check", help="validate profiles and list every problem")
     check.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
+    check.add_argument("--style", metavar="STYLE.toml", help=style_help)
 
     table = sub.add_parser("table", help="print the computed table of one profile")
     table.add_argument("profile", metavar="PROFILE")
@@ -45,45 +47,31 @@ def _parser() -> argparse.ArgumentParser:
     table.add_argument("--speed-unit", choices=SPEED_UNITS)
     table.add_argument("--distance-unit", choices=DISTANCE_UNITS)
     table.add_argument("--format", choices=("text", "csv", "json"), default="text")
+    table.add_argument("--style", metavar="STYLE.toml", help=style_help)
     card = sub.add_parser("card", help="make cockpit cards as PDF (one aircraft or a whole folder)")
     card.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
     card.add_argument("-o", "--output", metavar="OUT.pdf", help="one PDF with every card")
     card.add_argument("--each", metavar="DIR", help="one PDF per aircraft in DIR, named by registration")
     card.add_argument("--size", choices=tuple(CARD_SIZES), help="card size (default: the style's, a5)")
     card.add_argument("--landscape", action="store_true", help="turn the card sideways")
-    card.add_argument("--style", metavar="STYLE.toml",
-                      help="card style (default: the folder's fleet.style.toml, else resources/default.style.toml)")
+    card.add_argument("--style", metavar="STYLE.toml", help=style_help)
     card.add_argument("--weight", metavar="QTY", help='weight for every card, e.g. "690 kg"')
     card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help="impose several cards on Letter or A4 sheets")
     card.add_argument("--png", metavar="DPI", type=int, help="also write each card page as PNG at DPI")
     return p
 
 
-def _parse_weight(text: str | None) -> float | None:
-    if text is None:
-        return None
-    from kneeboard import units
-
-    try:
-        value = units.parse(text, units.MASS)
-    except units.QuantityError as exc:
-        raise UsageProblem(f"--weight {text!r}: {exc}; expected {exc.expected}") from None
-    if not 0 < value <= 600_000:
-        raise UsageProblem(f"--weight {text!r}: out of range; expected a weight above 0")
-    return value
-
-
 def _parse_banks(text: str | None):
+    """The numbers of --bank; their range is checked like a profile's own bank angles."""
     if text is None:
         return None
     try:
         banks = [float(part) for part in text.split(",") if part.strip()]
     except ValueError:
         raise UsageProblem(f"--bank {text!r}: not a list of numbers; expected e.g. 0,20,40") from None
-    bad = [b for b in banks if not 0 <= b < 90]
-    if not banks or bad:
-        raise UsageProblem(f"--bank {text!r}: each bank must be 0 <= b < 90 degrees; expected e.g. 0,20,40")
-    return sorted(set(banks))
+    if not banks:
+        raise UsageProblem(f"--bank {text!r}: no bank angle given; expected e.g. 0,20,40")
+    return tuple(banks)
 
 
 def _print_problems(problems: list[Problem], stream) -> None:
@@ -91,54 +79,68 @@ def _print_problems(problems: list[Problem], stream) -> None:
         print(p, file=stream)
 
 
+def _styles(args, **overrides):
+    from kneeboard.pipeline import Overrides, Styles
+
+    return Styles(Path(args.style) if getattr(args, "style", None) else None, Overrides(**overrides))
+
+
+def _print_style_problems(styles, paths) -> None:
+    """Each style file's problems once, before the profiles that use it."""
+    seen = set()
+    for path in paths:
+        key = styles.path_for(path)
+        if key not in seen:
+            seen.add(key)
+            _print_problems(list(styles.for_profile(path)[1]), sys.stderr)
+
+
 def cmd_check(args) -> int:
-    from kneeboard.profile_io import expand_paths, load_profile
+    from kneeboard.pipeline import prepare_file
+    from kneeboard.profile_io import expand_paths
 
     files = expand_paths(args.profiles)
     if not files:
         print("kneeboard check: no profile files (*.toml) found", file=sys.stderr)
         return EXIT_PROBLEMS
+    styles = _styles(args)
+    _print_style_problems(styles, files)
     failed = 0
     for path in files:
-        loaded = load_profile(path)
-        _print_problems(list(loaded.problems), sys.stdout)
-        if loaded.profile is None:
+        prepared = prepare_file(path, styles)
+        _print_problems(list(prepared.problems), sys.stdout)
+        if prepared.table is None:
             failed += 1
-            print(f"{path}: {len(loaded.errors)} error(s); no card can be made")
+            print(f"{path}: {len(prepared.errors)} error(s); no card can be made")
             continue
-        a = loaded.profile.aircraft
-        names = ", ".join(c.name for c in loaded.profile.configurations)
-        warned = f", {len(loaded.warnings)} warning(s)" if loaded.warnings else ""
-        print(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(loaded.profile.configurations)} "
-              f"configuration(s): {names}; fingerprint {loaded.fingerprint}")
+        a = prepared.profile.aircraft
+        names = ", ".join(c.name for c in prepared.profile.configurations)
+        warned = f", {len(prepared.warnings)} warning(s)" if prepared.warnings else ""
+        print(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(prepared.profile.configurations)} "
+              f"configuration(s): {names}; fingerprint {prepared.fingerprint}")
     print(CAUTION)
     return EXIT_PROBLEMS if failed else EXIT_OK
 
 
 def cmd_table(args) -> int:
-    from kneeboard import report
-    from kneeboard.profile_io import load_profile
-    from kneeboard.tables import build
+    from kneeboard.pipeline import prepare_file, report_text
 
-    weight = _parse_weight(args.weight)
-    banks = _parse_banks(args.bank)
-    loaded = load_profile(Path(args.profile))
+    styles = _styles(args, weight=args.weight, bank_angles=_parse_banks(args.bank), speed_unit=args.speed_unit,
+                     distance_unit=args.distance_unit)
+    path = Path(args.profile)
+    _print_style_problems(styles, [path])
+    prepared = prepare_file(path, styles)
     machine = args.format != "text"
-    _print_problems(list(loaded.problems), sys.stderr)
-    if loaded.profile is None:
-        print(f"{args.profile}: {len(loaded.errors)} error(s); no table can be made", file=sys.stderr)
+    _print_problems(list(prepared.problems), sys.stderr)
+    if prepared.table is None:
+        print(f"{args.profile}: {len(prepared.errors)} error(s); no table can be made", file=sys.stderr)
         return EXIT_PROBLEMS
-    table = build(loaded.profile, weight, banks, args.speed_unit, args.distance_unit)
-    if weight is not None and table.over_max_weight:
-        print(f"warning: --weight {args.weight} is above the maximum weight", file=sys.stderr)
-    render = {"text": report.to_text, "csv": report.to_csv, "json": report.to_json}[args.format]
-    sys.stdout.write(render(table))
+    sys.stdout.write(report_text(prepared, args.format))
     print(CAUTION, file=sys.stderr if machine else sys.stdout)
     return EXIT_OK
 
 
 def cmd_card(args) -> int:
-    from kneeboard.card.style import load_style
     from kneeboard.export import make_cards, write_each, write_fleet, write_pngs
     from kneeboard.profile_io import expand_paths
 
@@ -146,17 +148,7 @@ def cmd_card(args) -> int:
         raise UsageProblem("say where to write: -o OUT.pdf, --each DIR, or both")
     if args.png is not None and not 36 <= args.png <= 1200:
         raise UsageProblem(f"--png {args.png}: expected a resolution from 36 to 1200 dpi")
-    weight = _parse_weight(args.weight)
-    style_path = Path(args.style) if args.style else _fleet_style(args.profiles)
-    style, problems = load_style(style_path)
-    _print_problems(problems, sys.stderr)
-    if style is None:
-        print(f"kneeboard card: the style {args.style} has errors; no card made", file=sys.stderr)
-        return EXIT_PROBLEMS
-    if args.size:
-        style = style.with_changes(size=args.size)
-    if args.landscape:
-        style = style.with_changes(landscape=True)
+    styles = _styles(args, weight=args.weight, size=args.size, landscape=True if args.landscape else None)
     paths = expand_paths(args.profiles)
     if not paths:
         print("kneeboard card: no profile files (*.toml) found", file=sys.stderr)
@@ -168,7 +160,8 @@ def cmd_card(args) -> int:
             print(f"card {done + 1} of {total}: {name}", file=sys.stderr)
         return True
 
-    batch = make_cards(paths, style, weight, progress=progress)
+    _print_style_problems(styles, paths)
+    batch = make_cards(paths, styles, progress=progress)
     _print_problems(batch.warnings, sys.stderr)
     for failure in batch.failures:
         for line in failure.lines:
@@ -198,14 +191,6 @@ def cmd_card(args) -> int:
         print("kneeboard card: no card could be made", file=sys.stderr)
     print(CAUTION)
     return EXIT_PROBLEMS if failed or not batch.cards else EXIT_OK
-
-
-def _fleet_style(paths) -> Path | None:
-    """With no --style, a folder's own fleet.style.toml, when exactly one folder is given and has one."""
-    from kneeboard.card.style import fleet_style_path
-
-    folders = [Path(p) for p in paths if Path(p).is_dir()]
-    return fleet_style_path(folders[0]) if len(folders) == 1 else None
 
 
 def _count_pages(path: Path) -> int:

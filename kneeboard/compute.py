@@ -11,8 +11,11 @@ from dataclasses import dataclass
 import numpy as np
 
 from kneeboard.aero import airspeed, atmosphere, glider, limits, turns
-from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import Calibration, Configuration, Profile
+
+#: Banks of the chart's curves [deg]: 1 degree steps, a smooth curve at card size. They are evaluated in the same
+#: vectorised call as the card's own banks, so a card computes its physics once.
+CURVE_BANKS_DEG = np.arange(0.0, 86.0, 1.0)
 
 
 @dataclass(frozen=True)
@@ -63,6 +66,7 @@ class ConfigurationResult:
     time_180: np.ndarray  #: [s]; inf at 0 bank
     time_360: np.ndarray  #: [s]; inf at 0 bank
     level_stall_speed: float  #: wings-level stall speed at the card weight, IAS [m/s]
+    curve_stall_speed: np.ndarray  #: IAS at each of CURVE_BANKS_DEG [m/s], for the chart
 
 
 @dataclass(frozen=True)
@@ -93,6 +97,7 @@ class Results:
     density_altitude: float  #: [m]
     configurations: tuple[ConfigurationResult, ...]
     glider: GliderResult | None
+    curve_bank_deg: np.ndarray  #: banks of each configuration's curve_stall_speed [deg]
 
     @property
     def over_max_weight(self) -> bool:
@@ -105,12 +110,14 @@ def compute(profile: Profile, weight: float | None = None, banks_deg=None) -> Re
         profile = profile.with_weight(weight)
     a, card = profile.aircraft, profile.card
     bank = np.radians(np.asarray(card.bank_angles_deg if banks_deg is None else banks_deg, dtype=float))
+    curve = np.radians(CURVE_BANKS_DEG)
     k = float(turns.weight_factor(profile.weight, a.reference_weight))
     temperature = (
         float(atmosphere.isa_temperature(card.pressure_altitude)) if card.temperature is None else card.temperature
     )
     rho = float(atmosphere.air_density(card.pressure_altitude, temperature))
-    configs = tuple(_configuration(profile, c, bank, k, rho) for c in profile.configurations)
+    n_limit = limit_load_factor(a)
+    configs = tuple(_configuration(profile, c, bank, curve, k, rho) for c in profile.configurations)
     va = None
     if a.maneuvering_speed is not None:
         clean = Airspeeds(a.calibration, a.speed_basis)
@@ -121,8 +128,8 @@ def compute(profile: Profile, weight: float | None = None, banks_deg=None) -> Re
         weight=profile.weight,
         reference_weight=a.reference_weight,
         max_weight=a.max_weight,
-        limit_load_factor=a.limit_load_factor,
-        limit_bank=float(turns.limit_bank(a.limit_load_factor)),
+        limit_load_factor=n_limit,
+        limit_bank=float(turns.limit_bank(n_limit)),
         maneuvering_speed=va,
         pressure_altitude=card.pressure_altitude,
         temperature=temperature,
@@ -130,15 +137,25 @@ def compute(profile: Profile, weight: float | None = None, banks_deg=None) -> Re
         density_altitude=float(atmosphere.density_altitude(rho)),
         configurations=configs,
         glider=None if profile.glider is None else _glider(profile, bank, rho),
+        curve_bank_deg=CURVE_BANKS_DEG,
     )
 
 
-def _configuration(profile: Profile, c: Configuration, bank, k: float, rho: float) -> ConfigurationResult:
+def limit_load_factor(aircraft) -> float:
+    """The aircraft's positive limit load factor [-]: the profile's, or the category's by the regulation."""
+    if aircraft.limit_load_factor is not None:
+        return aircraft.limit_load_factor
+    return limits.default_limit_load(aircraft.category, aircraft.max_weight)
+
+
+def _configuration(profile: Profile, c: Configuration, bank, curve, k: float, rho: float) -> ConfigurationResult:
     speeds = Airspeeds(profile.calibration_for(c), profile.aircraft.speed_basis)
     vs_ref_cas, _ = speeds.to_cas(c.stall_speed)
     vs0_cas = float(vs_ref_cas) * k
-    stall_cas = turns.stall_speed_in_bank(vs0_cas, bank)
-    stall_ias, extrapolated = speeds.to_ias(stall_cas)
+    # the card's banks and the chart's curve in one vectorised evaluation
+    stall_cas = turns.stall_speed_in_bank(vs0_cas, np.concatenate([bank, curve]))
+    all_ias, all_extrapolated = speeds.to_ias(stall_cas)
+    stall_ias, extrapolated, curve_ias = all_ias[:bank.size], all_extrapolated[:bank.size], all_ias[bank.size:]
     if c.pattern_speed is not None:
         vp_cas = float(speeds.to_cas(c.pattern_speed)[0])
     else:
@@ -173,6 +190,7 @@ def _configuration(profile: Profile, c: Configuration, bank, k: float, rho: floa
         time_180=time_180,
         time_360=time_360,
         level_stall_speed=vs0_ias,
+        curve_stall_speed=curve_ias,
     )
 
 
@@ -199,64 +217,3 @@ def _glider(profile: Profile, bank, rho: float) -> GliderResult:
         circle_time=time_360,
         height_loss_180=sink * time_180,
     )
-
-
-def profile_checks(profile: Profile) -> list[Problem]:
-    """Problems that only show once the flight mechanics run: each names the field to change."""
-    found = []
-    try:
-        results = compute(profile)
-    except (ValueError, ZeroDivisionError, FloatingPointError) as exc:  # defensive: report, never crash
-        return [Problem("(profile)", f"cannot be computed: {exc}")]
-    basis = profile.aircraft.speed_basis
-    clean = Airspeeds(profile.aircraft.calibration, basis)
-    if results.maneuvering_speed is not None and not (clean.to_cas(profile.aircraft.maneuvering_speed)[0] > 0
-                                                      and results.maneuvering_speed > 0):
-        found.append(_speed_at_or_below_zero("aircraft.calibration", "the maneuvering speed"))
-    for i, (c, r) in enumerate(zip(profile.configurations, results.configurations), start=1):
-        path = f"configuration[{i}]"
-        vs0 = r.level_stall_speed
-        if not (Airspeeds(profile.calibration_for(c), basis).to_cas(c.stall_speed)[0] > 0 and vs0 > 0):
-            table = f"{path}.calibration" if c.calibration is not None else "aircraft.calibration"
-            found.append(_speed_at_or_below_zero(table, f"the stall speed of {path}"))
-            continue
-        if not r.pattern_speed > vs0:
-            field = "pattern_speed" if c.pattern_speed is not None else "pattern_factor"
-            found.append(Problem(
-                f"{path}.{field}", "the pattern speed is not above the stall speed at the card weight",
-                "a pattern speed above the wings-level stall speed", severity=ERROR,
-            ))
-        elif c.pattern_speed is not None and r.pattern_speed < 1.3 * vs0:
-            found.append(Problem(
-                f"{path}.pattern_speed", "is less than 1.3 x the stall speed at the card weight (FAA-H-8083-3)",
-                "1.3 x stall speed or more", severity=WARNING,
-            ))
-        if r.flap_limit_speed is not None and r.pattern_speed > r.flap_limit_speed:
-            found.append(Problem(f"{path}.flap_limit_speed", "the pattern speed is above the flap limit speed",
-                                 "a pattern speed at or below VFE", severity=WARNING))
-        if np.any(r.stall_extrapolated):
-            found.append(Problem(
-                f"{path}.calibration", "does not cover the stall speeds of every bank asked for; "
-                "beyond it the end offset is held", "pairs reaching the highest stall speed", severity=WARNING,
-            ))
-    if profile.glider is not None:
-        polar_cas = clean.to_cas(profile.glider.speeds)[0]
-        if not polar_cas.min() > 0:
-            found.append(_speed_at_or_below_zero("aircraft.calibration", "a polar speed"))
-            return found
-        v_ms, _ = glider.polar_minimum(glider.fit_polar(polar_cas, profile.glider.sinks))
-        if np.isfinite(v_ms) and not results.glider.min_sink_speed > 0:
-            found.append(_speed_at_or_below_zero("aircraft.calibration", "the minimum-sink speed"))
-        elif not (np.isfinite(v_ms) and v_ms <= polar_cas.max()):
-            found.append(Problem("glider.polar", "the fitted polar has no minimum sink within the measured speeds",
-                                 "points whose sink falls then rises with speed, as a measured polar does"))
-        elif v_ms < polar_cas.min():
-            found.append(Problem("glider.polar", "the minimum sink lies below the slowest measured point",
-                                 "points on both sides of minimum sink", severity=WARNING))
-    return found
-
-
-def _speed_at_or_below_zero(path: str, what: str) -> Problem:
-    """A calibration table whose offsets turn a speed into one at or below zero: no figure would mean anything."""
-    return Problem(path, f"turns {what} into a speed at or below zero",
-                   "[IAS, CAS] pairs that differ by a few knots, as a flight manual's do")

@@ -9,12 +9,11 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from kneeboard.card import Card, LayoutError, build_card, card_pdf, fleet_pdf
+from kneeboard.card import Card, LayoutError
 from kneeboard.card.sheets import SheetError
-from kneeboard.card.style import CardStyle
 from kneeboard.fileio import FileProblem, write_atomic
+from kneeboard.pipeline import Styles, card_pdf, fleet_pdf, make_card, prepare_file
 from kneeboard.problems import Problem
-from kneeboard.profile_io import load_profile
 
 
 @dataclass
@@ -32,22 +31,25 @@ class Batch:
     cancelled: bool = False
 
 
-def make_cards(paths: list[Path], style: CardStyle, weight: float | None = None, made_on: str | None = None,
+def make_cards(paths: list[Path], styles: Styles, made_on: str | None = None,
                progress: Callable[[int, int, str], bool] | None = None) -> Batch:
-    """Cards of `paths`, in registration order. `progress(done, total, name)` may return False to cancel."""
+    """Cards of `paths` (each with its style by the one rule of `styles`), in registration order.
+
+    `progress(done, total, name)` may return False to cancel.
+    """
     batch = Batch()
     made = []
     for i, path in enumerate(paths, start=1):
         if progress is not None and progress(i - 1, len(paths), path.name) is False:
             batch.cancelled = True
             break
-        loaded = load_profile(path)
-        batch.warnings += loaded.warnings
-        if loaded.profile is None:
-            batch.failures.append(Failure(path, [str(p) for p in loaded.errors]))
+        prepared = prepare_file(path, styles)
+        batch.warnings += prepared.warnings
+        if prepared.table is None:
+            batch.failures.append(Failure(path, [str(p) for p in prepared.errors]))
             continue
         try:
-            card = build_card(loaded.profile, style, loaded.fingerprint, weight, made_on)
+            card = make_card(prepared, made_on)
         except LayoutError as exc:
             batch.failures.append(Failure(path, [f"{path}: {exc}"]))
             continue

@@ -71,7 +71,7 @@ class Aircraft:
     category: str  #: one of CATEGORIES
     max_weight: float  #: [kg]
     reference_weight: float  #: weight the published speeds apply to [kg]
-    limit_load_factor: float  #: positive limit manoeuvring load factor [-]
+    limit_load_factor: float | None  #: positive limit manoeuvring load factor [-]; None: the category's
     maneuvering_speed: float | None = None  #: VA at reference weight [m/s]
     speed_basis: str = "IAS"  #: how the file's speeds are given, one of SPEED_BASES
     calibration: Calibration | None = None  #: flaps-up table, used by VA and configurations without one

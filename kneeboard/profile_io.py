@@ -94,26 +94,58 @@ def fingerprint(data: dict) -> str:
     return hashlib.sha256(canonical.encode()).hexdigest()[:8].upper()
 
 
-def load_profile(path: Path) -> ProfileFile:
-    """Read and validate one profile file; never raises for anything the file contains."""
+@dataclass(frozen=True)
+class Source:
+    """A profile file as parsed, not yet validated: its plain data (None when it cannot be read)."""
+
+    path: Path | None
+    data: dict | None
+    problems: tuple[Problem, ...]  #: why the file could not be read, when it could not
+    fingerprint: str  #: of the data; "" when unreadable
+
+
+def read_source(path: Path) -> Source:
+    """Read and parse one profile file; never raises for anything the file contains."""
     path = Path(path)
     try:
         text = read_text(path)
     except FileProblem as exc:
-        return ProfileFile(path, None, (Problem("(file)", str(exc).removeprefix(f"{path}: "), file=str(path)),), "")
-    return profile_from_text(text, path)
+        return Source(path, None, (Problem("(file)", str(exc).removeprefix(f"{path}: "), file=str(path)),), "")
+    return source_from_text(text, path)
+
+
+def source_from_text(text: str, path: Path | None = None) -> Source:
+    data, problems = parse_text(text)
+    if data is None:
+        return Source(path, None, tuple(p.in_file(str(path or "")) for p in problems), "")
+    return source_from_plain(data, path)
+
+
+def source_from_plain(data: dict, path: Path | None = None) -> Source:
+    """Already parsed data (from tomllib, or a tomlkit document's unwrap())."""
+    return Source(path, data, (), fingerprint(data))
+
+
+def load_profile(path: Path) -> ProfileFile:
+    """Read and validate one profile file as it stands (no style, no physics); never raises for its contents."""
+    return _validated(read_source(path))
 
 
 def profile_from_text(text: str, path: Path | None = None) -> ProfileFile:
-    data, problems = parse_text(text)
-    return profile_from_plain(data, path) if data is not None else ProfileFile(
-        path, None, tuple(p.in_file(str(path or "")) for p in problems), "")
+    return _validated(source_from_text(text, path))
 
 
 def profile_from_plain(data: dict, path: Path | None = None) -> ProfileFile:
     """Validate already parsed data (from tomllib, or a tomlkit document's unwrap())."""
-    profile, problems = profile_from_data(data)
-    return ProfileFile(path, profile, tuple(p.in_file(str(path or "")) for p in problems), fingerprint(data))
+    return _validated(source_from_plain(data, path))
+
+
+def _validated(source: Source) -> ProfileFile:
+    if source.data is None:
+        return ProfileFile(source.path, None, source.problems, "")
+    profile, problems = profile_from_data(source.data)
+    return ProfileFile(source.path, profile, tuple(p.in_file(str(source.path or "")) for p in problems),
+                       source.fingerprint)
 
 
 FORMAT_0 = 0  #: files written before profiles carried a format number (no `schema` key)

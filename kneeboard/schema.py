@@ -10,15 +10,17 @@ import math
 import re
 import unicodedata
 
-from kneeboard import units
-from kneeboard.aero.limits import default_limit_load
+from kneeboard import fields, units
+from kneeboard.fields import (
+    OAT_RANGE,
+    SINK_RANGE,
+    SPEED_RANGE,
+)
 from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import (
     AVGAS_DENSITY,
-    CATEGORIES,
     DEFAULT_BANKS_DEG,
     DEFAULT_PATTERN_FACTOR,
-    SPEED_BASES,
     Aircraft,
     Calibration,
     CardSettings,
@@ -30,37 +32,13 @@ from kneeboard.profile import (
 )
 
 SCHEMA_VERSION = 1
-KT = 1852.0 / 3600.0  # [m/s]
-FT = 0.3048  # [m]
-
-# Plausible ranges [SI]: beyond them a value is a typo, not an aircraft. The lower ends also keep
-# the ratios the physics takes (card weight / reference weight, ...) far from overflow.
-SPEED_RANGE = (1 * KT, 600 * KT, "above 1 kt and at most 600 kt")
-SINK_RANGE = (0.1, 20.0, "above 0.1 m/s and at most 20 m/s")
-MASS_RANGE = (1.0, 600_000.0, "above 1 kg and at most 600,000 kg")
-OAT_RANGE = (173.15, 373.15, "an outside air temperature from -100 to +100 degC")  # [K]
-ALTITUDE_RANGE = (-2_000 * FT, 11_000.0, "from -2,000 ft up to the tropopause at 36,089 ft (11,000 m)")
 MAX_CONFIGURATIONS = 12
 MAX_BANKS = 24
 MAX_ITEMS = 40
 MAX_POLAR_POINTS = 40
-MAX_NOTES = 600
 
-KNOWN_KEYS = {
-    "": {"schema", "aircraft", "weight", "configuration", "glider", "card"},
-    "aircraft": {
-        "registration", "model", "category", "max_weight", "reference_weight", "limit_load_factor",
-        "maneuvering_speed", "speed_basis", "calibration",
-    },
-    "weight": {"total", "empty", "item"},
-    "weight.item": {"name", "mass", "volume", "density"},
-    "configuration": {"name", "stall_speed", "pattern_factor", "pattern_speed", "flap_limit_speed", "calibration"},
-    "glider": {"polar_weight", "polar"},
-    "card": {
-        "bank_angles", "speed_unit", "distance_unit", "weight_unit", "buffer", "pressure_altitude",
-        "temperature", "notes",
-    },
-}
+#: Section -> the keys a file may have there, derived from the field declarations.
+KNOWN_KEYS = fields.known_keys()
 
 
 class _Reader:
@@ -88,6 +66,22 @@ class _Reader:
             if key not in known_set:
                 path = f"{prefix}.{_key_text(key)}" if prefix else _key_text(key)
                 self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING)
+
+    def read(self, name: str, data: dict, path: str | None = None, default=None):
+        """The value of the declared field `name` ("aircraft.max_weight") from its table `data`, checked by its
+        declaration; `path` is where it is in the file when the section repeats ("configuration[2].name")."""
+        f = fields.BY_PATH[name]
+        path = path or f.path
+        if f.kind == fields.QUANTITY:
+            return self.quantity(data, f.key, path, f.quantity, f.bounds, f.required)
+        if f.kind == fields.NUMBER:
+            return self.number(data, f.key, path, *f.bounds, required=f.required)
+        if f.kind in (fields.TEXT, fields.NOTES):
+            return self.text(data, f.key, path, f.limit, f.required, multiline=f.kind == fields.NOTES,
+                             default="" if default is None else default)
+        if f.kind == fields.CHOICE:
+            return self.choice(data, f.key, path, f.options, default)
+        raise ValueError(f"{name} is read by its own code")
 
     def quantity(self, data, key, path, kind, bounds=None, required=False):
         if key not in data:
@@ -229,16 +223,14 @@ def _read_aircraft(r, data):
     if a is None:
         return None
     r.unknown(a, KNOWN_KEYS["aircraft"], "aircraft")
-    registration = r.text(a, "registration", "aircraft.registration", 16, required=True)
-    model = r.text(a, "model", "aircraft.model", 80, required=True)
-    category = r.choice(a, "category", "aircraft.category", CATEGORIES, "normal")
-    max_weight = r.quantity(a, "max_weight", "aircraft.max_weight", units.MASS, MASS_RANGE, required=True)
-    reference = r.quantity(a, "reference_weight", "aircraft.reference_weight", units.MASS, MASS_RANGE)
-    n_limit = r.number(
-        a, "limit_load_factor", "aircraft.limit_load_factor", 1.0, 20.0, "a number above 1 and at most 20, e.g. 3.8"
-    )
-    va = r.quantity(a, "maneuvering_speed", "aircraft.maneuvering_speed", units.SPEED, SPEED_RANGE)
-    basis = r.choice(a, "speed_basis", "aircraft.speed_basis", SPEED_BASES, "IAS")
+    registration = r.read("aircraft.registration", a)
+    model = r.read("aircraft.model", a)
+    category = r.read("aircraft.category", a, default="normal")
+    max_weight = r.read("aircraft.max_weight", a)
+    reference = r.read("aircraft.reference_weight", a)
+    n_limit = r.read("aircraft.limit_load_factor", a)
+    va = r.read("aircraft.maneuvering_speed", a)
+    basis = r.read("aircraft.speed_basis", a, default="IAS")
     calibration = r.calibration(a, "aircraft.calibration")
     if max_weight is None:
         return None
@@ -248,7 +240,7 @@ def _read_aircraft(r, data):
         category=category,
         max_weight=max_weight,
         reference_weight=max_weight if reference is None else reference,
-        limit_load_factor=default_limit_load(category, max_weight) if n_limit is None else n_limit,
+        limit_load_factor=n_limit,
         maneuvering_speed=va,
         speed_basis=basis,
         calibration=calibration,
@@ -260,8 +252,8 @@ def _read_loading(r, data):
     if w is None:
         return None
     r.unknown(w, KNOWN_KEYS["weight"], "weight")
-    total = r.quantity(w, "total", "weight.total", units.MASS, MASS_RANGE)
-    empty = r.quantity(w, "empty", "weight.empty", units.MASS, MASS_RANGE)
+    total = r.read("weight.total", w)
+    empty = r.read("weight.empty", w)
     raw_items = w.get("item", [])
     if "total" in w and ("empty" in w or raw_items):
         r.problem("weight", "gives both a total and a build-up", "either total, or empty with [[weight.item]] tables")
@@ -284,7 +276,7 @@ def _read_item(r, raw, path):
         r.problem(path, "must be a [[weight.item]] table", "name and mass, or name and volume", raw)
         return None
     r.unknown(raw, KNOWN_KEYS["weight.item"], path)
-    name = r.text(raw, "name", f"{path}.name", 40, required=True)
+    name = r.read("weight.item.name", raw, f"{path}.name")
     if ("mass" in raw) == ("volume" in raw):
         r.problem(path, "needs exactly one of mass or volume", 'mass = "80 kg", or volume = "60 L"')
         return None
@@ -292,10 +284,10 @@ def _read_item(r, raw, path):
         if "density" in raw:
             r.problem(f"{path}.density", "goes with a volume, but this item gives a mass", "mass alone, or volume and "
                       "density", raw["density"])
-        mass = r.quantity(raw, "mass", f"{path}.mass", units.MASS, (-1e-12, MASS_RANGE[1], "from 0 to 600,000 kg"))
+        mass = r.read("weight.item.mass", raw, f"{path}.mass")
         return None if mass is None else WeightItem(name, mass)
-    volume = r.quantity(raw, "volume", f"{path}.volume", units.VOLUME, (-1e-12, 1000.0, "from 0 to 1,000,000 L"))
-    density = r.quantity(raw, "density", f"{path}.density", units.DENSITY, (1.0, 20_000.0, "between 0.001 and 20 kg/L"))
+    volume = r.read("weight.item.volume", raw, f"{path}.volume")
+    density = r.read("weight.item.density", raw, f"{path}.density")
     if volume is None or ("density" in raw and density is None):
         return None
     density = AVGAS_DENSITY if density is None else density
@@ -318,16 +310,13 @@ def _read_configurations(r, data):
             r.problem(path, "must be a [[configuration]] table", wanted, c)
             continue
         r.unknown(c, KNOWN_KEYS["configuration"], path)
-        name = r.text(c, "name", f"{path}.name", 24, required=True)
+        name = r.read("configuration.name", c, f"{path}.name")
         if name and _name_key(name) in seen:
             r.problem(f"{path}.name", "is used by an earlier configuration", "a name unique in this profile", name)
         seen.add(_name_key(name))
-        stall = r.quantity(c, "stall_speed", f"{path}.stall_speed", units.SPEED, SPEED_RANGE, required=True)
-        factor = r.number(
-            c, "pattern_factor", f"{path}.pattern_factor", 1.0, 3.0,
-            "a number above 1 and at most 3 (pattern speed / stall speed), e.g. 1.4",
-        )
-        fixed = r.quantity(c, "pattern_speed", f"{path}.pattern_speed", units.SPEED, SPEED_RANGE)
+        stall = r.read("configuration.stall_speed", c, f"{path}.stall_speed")
+        factor = r.read("configuration.pattern_factor", c, f"{path}.pattern_factor")
+        fixed = r.read("configuration.pattern_speed", c, f"{path}.pattern_speed")
         if "pattern_factor" in c and "pattern_speed" in c:
             r.problem(path, "gives both pattern_factor and pattern_speed", "one of them, never both")
         if factor is not None and factor < 1.3:
@@ -335,7 +324,7 @@ def _read_configurations(r, data):
                 f"{path}.pattern_factor", "is below 1.3, the least usual approach speed factor (FAA-H-8083-3)",
                 "1.3 or more", c["pattern_factor"], WARNING,
             )
-        vfe = r.quantity(c, "flap_limit_speed", f"{path}.flap_limit_speed", units.SPEED, SPEED_RANGE)
+        vfe = r.read("configuration.flap_limit_speed", c, f"{path}.flap_limit_speed")
         calibration = r.calibration(c, f"{path}.calibration")
         if stall is None:
             continue
@@ -350,7 +339,7 @@ def _read_glider(r, data):
     if g is None:
         return None
     r.unknown(g, KNOWN_KEYS["glider"], "glider")
-    weight = r.quantity(g, "polar_weight", "glider.polar_weight", units.MASS, MASS_RANGE, required=True)
+    weight = r.read("glider.polar_weight", g)
     raw = g.get("polar")
     wanted = 'at least three [speed, sink rate] points, e.g. [["80 km/h", "0.62 m/s"], ...]'
     if not isinstance(raw, list) or not 3 <= len(raw) <= MAX_POLAR_POINTS:
@@ -370,16 +359,15 @@ def _read_card(r, data):
     c = r.table(data, "card", "card") or {}
     r.unknown(c, KNOWN_KEYS["card"], "card")
     banks = _read_banks(r, c)
-    speed_unit = r.choice(c, "speed_unit", "card.speed_unit", units.SPEED_UNITS,
-                          units.display_unit(_first_stall_speed(data), units.SPEED_UNITS) or "kt")
-    distance_unit = r.choice(c, "distance_unit", "card.distance_unit", units.DISTANCE_UNITS,
-                             "m" if speed_unit == "km/h" else "ft")
+    speed_unit = r.read("card.speed_unit", c,
+                        default=units.display_unit(_first_stall_speed(data), units.SPEED_UNITS) or "kt")
+    distance_unit = r.read("card.distance_unit", c, default="m" if speed_unit == "km/h" else "ft")
     aircraft = data.get("aircraft") if isinstance(data.get("aircraft"), dict) else {}
-    weight_unit = r.choice(c, "weight_unit", "card.weight_unit", units.WEIGHT_UNITS,
-                           units.display_unit(aircraft.get("max_weight"), units.WEIGHT_UNITS) or "kg")
-    buffer = r.quantity(c, "buffer", "card.buffer", units.SPEED, (-1e-12, 100 * KT, "from 0 to 100 kt"))
-    altitude = r.quantity(c, "pressure_altitude", "card.pressure_altitude", units.LENGTH, ALTITUDE_RANGE)
-    temperature = r.quantity(c, "temperature", "card.temperature", units.TEMPERATURE)
+    weight_unit = r.read("card.weight_unit", c,
+                         default=units.display_unit(aircraft.get("max_weight"), units.WEIGHT_UNITS) or "kg")
+    buffer = r.read("card.buffer", c)
+    altitude = r.read("card.pressure_altitude", c)
+    temperature = r.read("card.temperature", c)
     if temperature is not None and temperature <= 0.0:
         r.problem("card.temperature", "is at or below absolute zero", "a temperature above -273.15 degC",
                   c["temperature"])
@@ -390,7 +378,7 @@ def _read_card(r, data):
     elif temperature is not None and not 203.15 <= temperature <= 333.15:
         r.problem("card.temperature", "is outside -70 to +60 degC; check it", "an outside air temperature",
                   c["temperature"], WARNING)
-    notes = r.text(c, "notes", "card.notes", MAX_NOTES, multiline=True)
+    notes = r.read("card.notes", c)
     return CardSettings(
         bank_angles_deg=banks,
         speed_unit=speed_unit,
@@ -459,9 +447,7 @@ def _name_key(name: str) -> str:
 
 
 def _cross_checks(r, profile):
-    """Checks that need more than one field; the ones needing flight mechanics live in `compute`."""
-    from kneeboard.compute import profile_checks
-
+    """Checks that need more than one field; the ones needing flight mechanics live in `kneeboard.checks`."""
     a = profile.aircraft
     if profile.weight > a.max_weight * (1 + 1e-9):
         r.problem(
@@ -471,4 +457,3 @@ def _cross_checks(r, profile):
     if a.reference_weight > a.max_weight * (1 + 1e-9):
         r.problem("aircraft.reference_weight", "is above the maximum weight", "at most aircraft.max_weight",
                   severity=WARNING)
-    r.problems.extend(profile_checks(profile))

@@ -99,9 +99,6 @@ class Curve:
     buffer_bank_deg: float | None
 
 
-CURVE_BANKS_DEG = np.arange(0.0, 86.0, 1.0)  #: 1 degree steps: a smooth curve at card size, half the points
-
-
 @dataclass(frozen=True)
 class CardTable:
     """Everything a card prints, already rounded and in the card's units."""
@@ -131,9 +128,14 @@ class CardTable:
 
 
 def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_unit=None,
-          distance_unit=None) -> CardTable:
-    """Compute `profile` and turn it into printed figures; units default to the profile's card settings."""
-    results = compute(profile, weight, banks_deg)
+          distance_unit=None, results: Results | None = None) -> CardTable:
+    """Turn the results of `profile` into printed figures; units default to the profile's card settings.
+
+    `results` are those of `compute(profile)` when the caller has them already (the pipeline does, so a card runs
+    the physics once); otherwise they are computed here, at `weight` [kg] and `banks_deg` if given.
+    """
+    if results is None:
+        results = compute(profile, weight, banks_deg)
     card = profile.card
     su = speed_unit or card.speed_unit
     du = distance_unit or card.distance_unit
@@ -199,22 +201,21 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
         glider=glider,
         notes=card.notes,
         results=results,
-        curves=_curves(profile, weight, su),
+        curves=_curves(results, su),
     )
 
 
-def _curves(profile: Profile, weight, speed_unit: str) -> tuple[Curve, ...]:
-    fine = compute(profile, weight, CURVE_BANKS_DEG)
+def _curves(results: Results, speed_unit: str) -> tuple[Curve, ...]:
     return tuple(
         Curve(
             name=c.name,
-            bank_deg=CURVE_BANKS_DEG,
-            stall_speed=np.asarray(units.from_si(c.stall_speed, units.SPEED, speed_unit)),
+            bank_deg=results.curve_bank_deg,
+            stall_speed=np.asarray(units.from_si(c.curve_stall_speed, units.SPEED, speed_unit)),
             pattern_speed=float(units.from_si(c.pattern_speed, units.SPEED, speed_unit)),
             zero_margin_bank_deg=math.degrees(c.zero_margin_bank),
             buffer_bank_deg=None if c.buffer_bank is None else math.degrees(c.buffer_bank),
         )
-        for c in fine.configurations
+        for c in results.configurations
     )
 
 

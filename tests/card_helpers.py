@@ -1,13 +1,14 @@
-"""Shared helpers for the card tests: build cards of the samples once per test session."""
+"""Shared helpers for the card tests: cards of the samples through the one pipeline, built once per session."""
 
 from functools import cache
 from pathlib import Path
 
 from conftest import SAMPLES
 
-from kneeboard.card import build_card, card_pdf
+from kneeboard.card import card_pdf
 from kneeboard.card.style import CardStyle, load_style
-from kneeboard.profile_io import load_profile
+from kneeboard.pipeline import Overrides, make_card, prepare
+from kneeboard.profile_io import load_profile, read_source, source_from_text
 
 MADE_ON = "2026-12-01"
 
@@ -24,11 +25,27 @@ def loaded(name: str):
     return load_profile(SAMPLES / f"{name}.toml")
 
 
+def prepared(name: str, style: CardStyle | None = None, **overrides):
+    """A sample (by file stem) through the pipeline with `style` (default: the shipped one) and overrides."""
+    p = prepare(read_source(SAMPLES / f"{name}.toml"), style or default_style(), Overrides(**overrides))
+    assert p.table is not None, p.problems
+    return p
+
+
+def card_of(name: str, style: CardStyle | None = None, **overrides):
+    """The card of a sample; raises LayoutError when it cannot be laid out."""
+    return make_card(prepared(name, style, **overrides), MADE_ON)
+
+
+def card_from_text(text: str, style: CardStyle | None = None, **overrides):
+    p = prepare(source_from_text(text), style or default_style(), Overrides(**overrides))
+    assert p.table is not None, p.problems
+    return make_card(p, MADE_ON)
+
+
 @cache
 def card(name: str, size: str = "a5", landscape: bool = False, binding: str = "none"):
-    lp = loaded(name)
-    style = default_style().with_changes(size=size, landscape=landscape, binding=binding)
-    return build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+    return card_of(name, default_style().with_changes(size=size, landscape=landscape, binding=binding))
 
 
 @cache

@@ -25,6 +25,21 @@ stall_speed = "50 kt"
 """
 
 
+def checked(text: str, path=None):
+    """A profile text through the whole pipeline (the checks `kneeboard check` makes), with the default style."""
+    from kneeboard.card.style import load_style
+    from kneeboard.pipeline import prepare_text
+
+    style, _ = load_style()
+    return prepare_text(text, style, path=path)
+
+
+def checked_file(path):
+    from kneeboard.pipeline import Styles, prepare_file
+
+    return prepare_file(path, Styles())
+
+
 @pytest.fixture
 def sample_paths():
     return sorted(SAMPLES.glob("*.toml"))

@@ -14,11 +14,12 @@ from dataclasses import fields, is_dataclass
 from datetime import timedelta
 
 import pytest
+from conftest import checked_file
 from hypothesis import HealthCheck, settings
 
 from kneeboard import report
 from kneeboard.cli import main
-from kneeboard.profile_io import ProfileFile, load_profile
+from kneeboard.pipeline import Prepared
 from kneeboard.schema import KNOWN_KEYS
 from kneeboard.tables import Printed, build
 from kneeboard.texts import CAUTION
@@ -138,7 +139,7 @@ def assert_card_figures(profile) -> None:
 
 
 def assert_loaded(loaded) -> None:
-    assert isinstance(loaded, ProfileFile)
+    assert isinstance(loaded, Prepared)
     if loaded.profile is None:
         assert loaded.errors, "no profile, and no error saying why"
     else:
@@ -186,7 +187,7 @@ def run_check(capsys, path) -> tuple[int, str, str]:
     return code, out, err
 
 
-def answer(tmp_path, capsys, content: str | bytes, counter: str | None) -> ProfileFile:
+def answer(tmp_path, capsys, content: str | bytes, counter: str | None) -> Prepared:
     """Feed one case to the loader and to `kneeboard check`; every property of the module docstring holds.
 
     `counter` names the property whose generated cases are counted; None for a case written out by hand."""
@@ -195,7 +196,7 @@ def answer(tmp_path, capsys, content: str | bytes, counter: str | None) -> Profi
     path = tmp_path / "case.toml"
     path.write_bytes(content.encode("utf-8") if isinstance(content, str) else content)
     with hang_guard():
-        loaded = load_profile(path)
+        loaded = checked_file(path)
         assert_loaded(loaded)
         code, out, err = run_check(capsys, path)
     error_paths = assert_check_output(path, code, out, err)
@@ -204,6 +205,6 @@ def answer(tmp_path, capsys, content: str | bytes, counter: str | None) -> Profi
     return loaded
 
 
-def names_field(loaded: ProfileFile, field: str) -> bool:
+def names_field(loaded: Prepared, field: str) -> bool:
     """Whether an error names `field` or a section or table that holds it."""
     return any(field == p.path or field.startswith((p.path + ".", p.path + "[")) for p in loaded.errors)

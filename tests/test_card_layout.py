@@ -1,15 +1,14 @@
 """Legibility and honesty of the layout: sizes, figures traceable to the table builder, nothing cut."""
 
 import re
-from dataclasses import replace
 
 import pytest
-from card_helpers import MADE_ON, SAMPLE_NAMES, card, default_style, loaded
+from card_helpers import MADE_ON, SAMPLE_NAMES, card, card_of, default_style, loaded
 
-from kneeboard.card import LayoutError, build_card
+from kneeboard.card import LayoutError
+from kneeboard.card.blocks import names
 from kneeboard.card.geometry import CARD_SIZES, LARGE_CARDS
 from kneeboard.card.ops import FIGURE, Rect, Text
-from kneeboard.card.style import BLOCKS
 from kneeboard.tables import BUFFER, STALL
 
 COMBINATIONS = [(n, s, land) for n in SAMPLE_NAMES for s in CARD_SIZES for land in (False, True)]
@@ -27,7 +26,7 @@ def test_legible_or_reported(name, size, landscape):
     c, error = _card_or_error(name, size, landscape)
     if error is not None:
         # never silently cut: the error names the block that does not fit
-        assert error.block in BLOCKS + ("caution",)
+        assert error.block in names() + ("caution",)
         assert error.block in str(error) and size in str(error)
         assert size not in LARGE_CARDS or landscape, f"{name} must fit an {size} portrait card"
         return
@@ -104,23 +103,19 @@ def test_marked_rows_survive_black_and_white(name):
 
 
 def test_content_moves_to_the_back_then_shrinks_then_reports():
-    lp = loaded("demo_tourer")
     style = default_style()
-    one = build_card(lp.profile, style.with_changes(front=("header", "margin-table")), lp.fingerprint,
-                     made_on=MADE_ON)
+    one = card_of("demo_tourer", style.with_changes(front=("header", "margin-table")))
     assert len(one.pages) == 1
-    two = build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+    two = card_of("demo_tourer", style)
     assert len(two.pages) == 2 and two.pages[1].blocks[0] == "back-header"
-    many = replace(lp.profile, card=replace(lp.profile.card, bank_angles_deg=tuple(float(b) for b in range(0, 72, 3))))
     with pytest.raises(LayoutError) as err:
-        build_card(many, style.with_changes(size="4x6"), lp.fingerprint, made_on=MADE_ON)
-    assert err.value.block in BLOCKS
+        card_of("demo_tourer", style.with_changes(size="4x6"), bank_angles=tuple(float(b) for b in range(0, 72, 3)))
+    assert err.value.block in names()
 
 
 def test_style_can_force_a_back_page():
-    lp = loaded("demo_microlight")
     style = default_style().with_changes(front=("header", "margin-table"), back=("margin-chart", "limits"))
-    c = build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+    c = card_of("demo_microlight", style)
     assert [p.blocks for p in c.pages] == [("header", "margin-table", "caution"),
                                           ("back-header", "margin-chart", "limits", "caution")]
 
@@ -128,7 +123,7 @@ def test_style_can_force_a_back_page():
 def test_blocks_can_be_turned_off_but_not_the_caution():
     lp = loaded("demo_trainer")
     style = default_style().with_changes(front=("margin-table",), back=())
-    c = build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+    c = card_of("demo_trainer", style)
     assert c.pages[0].blocks == ("margin-table", "caution")
     text = " ".join(op.text for op in c.pages[0].ops if isinstance(op, Text))
     assert lp.profile.aircraft.registration in text  # the footer still names the aircraft
@@ -142,8 +137,7 @@ def test_header_shows_weights_date_and_fingerprint():
 
 
 def test_over_weight_is_shouted():
-    lp = loaded("demo_trainer")
-    c = build_card(lp.profile, default_style(), lp.fingerprint, weight=1700 * 0.45359237, made_on=MADE_ON)
+    c = card_of("demo_trainer", weight="1700 lb")
     text = " ".join(op.text for op in c.pages[0].ops if isinstance(op, Text))
     assert "ABOVE THE MAXIMUM WEIGHT" in text
 

@@ -5,10 +5,10 @@ import re
 
 import pypdfium2 as pdfium
 import pytest
-from card_helpers import MADE_ON, SAMPLE_NAMES, card, default_style, loaded, pdf
+from card_helpers import SAMPLE_NAMES, card, card_of, default_style, pdf
 from pypdf import PdfReader
 
-from kneeboard.card import build_card, card_pdf
+from kneeboard.card import card_pdf
 from kneeboard.card.geometry import CARD_SIZES, SAFE_MARGIN
 from kneeboard.card.ops import Text
 from kneeboard.texts import CAUTION_CARD
@@ -24,9 +24,8 @@ def test_page_box_is_exactly_the_card_size(size, landscape):
     w, h = CARD_SIZES[size]
     if landscape:
         w, h = h, w
-    lp = loaded("demo_microlight")
     style = default_style().with_changes(size=size, landscape=landscape, front=("header", "margin-table"))
-    data = card_pdf(build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON))
+    data = card_pdf(card_of("demo_microlight", style))
     for page in reader(data).pages:
         box = page.mediabox
         assert float(box.width) == pytest.approx(w, abs=0.1)

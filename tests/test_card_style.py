@@ -3,11 +3,11 @@
 import base64
 
 import pytest
-from card_helpers import MADE_ON, loaded
+from card_helpers import card_of
 
-from kneeboard.card import build_card
 from kneeboard.card.ops import Image, Text
-from kneeboard.card.style import BLOCKS, DEFAULT_STYLE, load_style
+from kneeboard.card.style import load_style
+from kneeboard.shipped import default_style_path
 
 # a 2 x 1 pixel PNG (invented test image)
 PNG = base64.b64decode(
@@ -17,9 +17,9 @@ SVG = '<svg xmlns="http://www.w3.org/2000/svg" width="40" height="20"><rect widt
 
 
 def test_default_style_ships_and_loads():
-    assert DEFAULT_STYLE.is_file()
+    assert default_style_path().is_file()
     style, problems = load_style()
-    assert problems == [] and style.size == "a5" and style.front == BLOCKS
+    assert problems == [] and style.size == "a5" and style.front is None  # every registered block, in order
 
 
 def write(tmp_path, text, name="style.toml"):
@@ -54,11 +54,10 @@ def test_logo_outside_the_folder_is_refused(tmp_path):
 def test_png_and_svg_logos_are_printed(tmp_path):
     (tmp_path / "logo.png").write_bytes(PNG)
     (tmp_path / "logo.svg").write_text(SVG)
-    lp = loaded("demo_microlight")
     for name in ("logo.png", "logo.svg"):
         style, problems = load_style(write(tmp_path, f'logo = "{name}"\norganisation = "Demo Flying Club"\n'))
         assert problems == [], problems
-        c = build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+        c = card_of("demo_microlight", style)
         images = [op for op in c.pages[0].ops if isinstance(op, Image)]
         assert len(images) == 1 and images[0].png.startswith(b"\x89PNG")
         assert "Demo Flying Club" in {op.text for op in c.pages[0].ops if isinstance(op, Text)}
@@ -66,8 +65,7 @@ def test_png_and_svg_logos_are_printed(tmp_path):
 
 def test_style_overrides_banks_and_units(tmp_path):
     style, _ = load_style(write(tmp_path, 'bank_angles = [0, 20, 40]\nspeed_unit = "mph"\n'))
-    lp = loaded("demo_trainer")
-    c = build_card(lp.profile, style, lp.fingerprint, made_on=MADE_ON)
+    c = card_of("demo_trainer", style)
     assert [r.bank_text for r in c.table.configurations[0].rows] == ["0", "20", "40"]
     assert c.table.speed_unit == "mph"
 

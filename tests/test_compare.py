@@ -1,42 +1,41 @@
-"""Compare with saved: exactly the printed figures whose text changed, old and new."""
+"""Compare two cards: exactly the printed figures whose text changed, old and new, read from the laid-out cards."""
 
 from functools import cache
 
 import pytest
+from card_helpers import card_from_text, card_of
 from conftest import SAMPLES
 
-from kneeboard import units
+from kneeboard.card.ops import HIGHER_IS_WORSE, LOWER_IS_WORSE
 from kneeboard.compare import Change, compare, printed_figures
-from kneeboard.profile_io import load_profile, profile_from_text
-from kneeboard.tables import STALL, build
+from kneeboard.tables import STALL
 
 NAMES = ("demo_trainer", "demo_tourer", "demo_retractable", "demo_microlight", "demo_glider")
 
 
 @cache
-def profile(name: str):
-    loaded = load_profile(SAMPLES / f"{name}.toml")
-    assert loaded.profile is not None, loaded.problems
-    return loaded.profile
+def card(name: str, **overrides):
+    return card_of(name, **overrides)
 
 
 def expected_count(table) -> int:
-    """How many figures the card prints, counted from the table itself rather than from the labels."""
+    """How many figures the default card prints, counted from the table itself rather than from the labels."""
     top = 8 + (table.maneuvering_speed is not None) + table.over_max_weight
     n = top
     for c in table.configurations:
         n += 3 + (c.buffer_bank is not None) + (c.flap_limit_speed is not None)
         for r in c.rows:
-            n += 3
+            n += 2
             if r.state != STALL and r.turn_radius is not None:
                 n += 2
+    n += len(table.configurations[0].rows)  # the load factor of each bank, printed once for every configuration
     if table.glider is not None:
         n += 2 + 5 * sum(r.turn_radius is not None for r in table.glider.rows)
     return n
 
 
 def test_trainer_labels_and_texts_as_printed():
-    figures = printed_figures(build(profile("demo_trainer")))
+    figures = printed_figures(card("demo_trainer"))
     # computed: the trainer's table (see `kneeboard table sample_aircraft/demo_trainer.toml`)
     assert figures["weight"] == "1560 lb"
     assert figures["limit load factor"] == "4.4 g"
@@ -49,7 +48,7 @@ def test_trainer_labels_and_texts_as_printed():
     assert figures["Flaps up · no margin at"] == "59°"
     assert figures["Flaps full · flap limit"] == "85 kt"
     assert "Flaps up · flap limit" not in figures  # None: not printed
-    assert figures["Flaps up · 30° · load factor"] == "1.16 g"
+    assert figures["30° · load factor"] == "1.16 g"
     assert figures["Flaps up · 30° · stall"] == "51 kt"
     assert figures["Flaps up · 30° · margin"] == "15 kt"
     assert figures["Flaps up · 30° · turn radius"] == "671 ft"
@@ -59,13 +58,15 @@ def test_trainer_labels_and_texts_as_printed():
     assert "Flaps up · 60° · turn radius" not in figures
     assert "Flaps up · 0° · turn radius" not in figures
     labels = list(figures)
-    assert labels.index("weight") < labels.index("Flaps up · stall") < labels.index("Flaps up · 0° · stall") \
-        < labels.index("Flaps full · stall")
+    # print order: the header, the margin table row by row, then the limits block's summary
+    assert labels.index("weight") < labels.index("Flaps up · 0° · stall") < labels.index("Flaps full · 0° · stall") \
+        < labels.index("Flaps up · 10° · stall") < labels.index("Flaps up · stall")
 
 
 def test_glider_circling_rows():
-    table = build(profile("demo_glider"))
-    figures = printed_figures(table)
+    c = card("demo_glider")
+    table = c.table
+    figures = printed_figures(c)
     row = next(r for r in table.glider.rows if r.bank_text == "30")
     assert figures["circling · 30° · speed"] == f"{row.speed.text} km/h"
     assert figures["circling · 30° · sink"] == f"{row.sink_rate.text} {table.sink_unit}"
@@ -78,25 +79,29 @@ def test_glider_circling_rows():
 
 @pytest.mark.parametrize("name", NAMES)
 def test_every_figure_has_its_own_label(name):
-    table = build(profile(name))
-    figures = printed_figures(table)
-    assert len(figures) == expected_count(table)  # no figure overwrote another
+    c = card(name)
+    figures = printed_figures(c)
+    assert len(figures) == expected_count(c.table)  # no figure overwrote another
     assert all(text and text[0] in "-0123456789" for text in figures.values())
+
+
+@pytest.mark.parametrize("name", NAMES)
+def test_a_figure_printed_twice_reads_the_same_both_times(name):
+    seen = {}
+    for page in card(name).pages:
+        for f in page.figures():
+            assert seen.setdefault(f.label, f) == f, f  # the limits block and the chart agree with the table
 
 
 def test_a_configuration_named_like_the_circling_prefix_loses_no_figure():
     text = (SAMPLES / "demo_glider.toml").read_text(encoding="utf-8").replace('name = "Clean"', 'name = "circling"')
-    loaded = profile_from_text(text)
-    assert loaded.profile is not None, loaded.problems
-    table = build(loaded.profile)
-    figures = printed_figures(table)
-    assert len(figures) == expected_count(table)
-    assert len(set(figures)) == len(figures)
+    c = card_from_text(text)
+    assert len(c.figures()) == expected_count(c.table)
 
 
 @pytest.mark.parametrize("name", NAMES)
-def test_identical_tables_give_no_changes(name):
-    assert compare(build(profile(name)), build(profile(name))) == []
+def test_identical_cards_give_no_changes(name):
+    assert compare(card(name), card_of(name)) == []
 
 
 def row_figures(table, config, row) -> dict[str, str]:
@@ -127,10 +132,9 @@ def expected_row_changes(old, new) -> dict[str, tuple[str | None, str | None]]:
 # so at its maximum weight margins shrink and one configuration loses all margin at 60 degrees.
 @pytest.mark.parametrize(("name", "heavier"), [("demo_trainer", "1650 lb"), ("demo_retractable", "3100 lb")])
 def test_heavier_weight_lists_exactly_the_changed_figures(name, heavier):
-    p = profile(name)
-    old = build(p)
-    new = build(p, weight=units.parse(heavier, units.MASS))
-    changes = compare(old, new)
+    old_card, new_card = card(name), card(name, weight=heavier)
+    old, new = old_card.table, new_card.table
+    changes = compare(old_card, new_card)
     by_label = {c.label: c for c in changes}
     assert len(by_label) == len(changes)
     assert by_label["weight"] == Change("weight", f"{old.weight.text} lb", heavier)
@@ -150,25 +154,23 @@ def test_heavier_weight_lists_exactly_the_changed_figures(name, heavier):
     assert ("limit load factor" in by_label) is False
     assert ("density altitude" in by_label) is False
     # in the new card's print order, figures no longer printed last
-    order = list(printed_figures(new))
+    order = list(printed_figures(new_card))
     kept = [c for c in changes if c.new is not None]
     assert [c.label for c in kept] == sorted((c.label for c in kept), key=order.index)
     assert all(c.new is None for c in changes[len(kept):])
 
 
 def test_heavier_weight_worse_figures():
-    p = profile("demo_trainer")
-    changes = compare(build(p), build(p, weight=units.parse("1650 lb", units.MASS)))
+    changes = compare(card("demo_trainer"), card("demo_trainer", weight="1650 lb"))
     stalls = [c for c in changes if c.label.endswith("· stall")]
     assert stalls and all(c.worse for c in stalls)
     # the pattern speed grows with the stall speed, so the trainer's margins grow: not worse
     assert not [c for c in changes if c.label.endswith("· margin") and c.worse]
 
-    p = profile("demo_retractable")
-    changes = compare(build(p), build(p, weight=p.aircraft.max_weight))
+    changes = compare(card("demo_retractable"), card("demo_retractable", weight="3100 lb"))
     margins = [c for c in changes if c.label.endswith("· margin")]
     assert margins and all(c.worse for c in margins)
-    old_figures = printed_figures(build(p))
+    old_figures = printed_figures(card("demo_retractable"))
     stalled = {c.label: c for c in changes}["Gear down, flaps 40 · 60° · margin"]
     assert (stalled.old, stalled.new) == ("2 kt", "-1 kt")  # computed: `kneeboard table`, fixed 76 kt final
     assert stalled.worse
@@ -178,33 +180,43 @@ def test_heavier_weight_worse_figures():
 
 
 def test_other_banks_add_and_remove_rows():
-    p = profile("demo_trainer")  # banks 0, 10, 20, 30, 40, 45, 50, 60
-    old = build(p)
-    new = build(p, banks_deg=[0, 15, 30, 45])
-    changes = compare(old, new)
+    old_card = card("demo_trainer")  # banks 0, 10, 20, 30, 40, 45, 50, 60
+    new_card = card("demo_trainer", bank_angles=(0, 15, 30, 45))
+    new = new_card.table
+    changes = compare(old_card, new_card)
     added = [c for c in changes if c.old is None]
     removed = [c for c in changes if c.new is None]
-    assert {c.label.split(" · ")[1] for c in added} == {"15°"}
-    assert {c.label.split(" · ")[1] for c in removed} == {"10°", "20°", "40°", "50°", "60°"}
+    def bank(label):
+        return next(part for part in label.split(" · ") if part.endswith("°"))
+
+    assert {bank(c.label) for c in added} == {"15°"}
+    assert {bank(c.label) for c in removed} == {"10°", "20°", "40°", "50°", "60°"}
     # rows kept at the same weight print the same figures: nothing else is listed
     assert len(changes) == len(added) + len(removed)
     # removed figures come last, in the old card's order
     assert changes[len(changes) - len(removed):] == removed
-    old_order = list(printed_figures(old))
+    old_order = list(printed_figures(old_card))
     assert [c.label for c in removed] == sorted((c.label for c in removed), key=old_order.index)
-    assert Change("Flaps up · 15° · load factor", None, new.configurations[0].rows[1].load_factor.text + " g") \
-        in added
+    assert Change("15° · load factor", None, new.configurations[0].rows[1].load_factor.text + " g") in added
 
 
-def test_worse_is_judged_by_number_and_unit():
-    assert Change("Flaps up · 30° · margin", "15 kt", "14 kt").worse
-    assert not Change("Flaps up · 30° · margin", "14 kt", "15 kt").worse
-    assert Change("Flaps up · 30° · margin", "2 kt", "-1 kt").worse
-    assert Change("Flaps up · stall", "47 kt", "48 kt").worse
-    assert Change("Flaps up · no margin at", "59°", "58°").worse
-    assert Change("Flaps up · 5 kt buffer left at", "53°", "52°").worse
-    assert Change("limit bank", "76°", "75°").worse
-    assert not Change("Flaps up · 30° · turn radius", "671 ft", "700 ft").worse
-    assert not Change("Flaps up · stall", "47 kt", "87 km/h").worse  # another unit: not comparable
-    assert not Change("Flaps up · 15° · margin", None, "3 kt").worse
-    assert not Change("Flaps up · 15° · margin", "3 kt", None).worse
+def test_worse_is_judged_by_number_unit_and_the_figures_direction():
+    lower, higher = LOWER_IS_WORSE, HIGHER_IS_WORSE
+    assert Change("margin", "15 kt", "14 kt", lower).worse
+    assert not Change("margin", "14 kt", "15 kt", lower).worse
+    assert Change("margin", "2 kt", "-1 kt", lower).worse
+    assert Change("stall", "47 kt", "48 kt", higher).worse
+    assert Change("bank", "59°", "58°", lower).worse
+    assert not Change("radius", "671 ft", "700 ft").worse  # a figure with no direction is never judged
+    assert not Change("stall", "47 kt", "87 km/h", higher).worse  # another unit: not comparable
+    assert not Change("margin", None, "3 kt", lower).worse
+    assert not Change("margin", "3 kt", None, lower).worse
+
+
+def test_every_card_figure_says_which_way_is_worse_where_it_matters():
+    figures = card("demo_trainer").figures()
+    assert figures["Flaps up · 30° · margin"].worse == LOWER_IS_WORSE
+    assert figures["Flaps up · 30° · stall"].worse == HIGHER_IS_WORSE
+    assert figures["Flaps up · no margin at"].worse == LOWER_IS_WORSE
+    assert figures["limit bank"].worse == LOWER_IS_WORSE
+    assert figures["Flaps up · 30° · turn radius"].worse is None

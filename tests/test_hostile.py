@@ -6,7 +6,7 @@ dimension or magnitude, missing sections and keys, duplicate names, pattern spee
 stall speed, calibration tables and polars of the wrong shape, impossible banks, unit-string attacks,
 huge strings and files over the size limit. For every case:
 
-- `load_profile` returns a ProfileFile: no profile means at least one error, every problem has a path
+- the pipeline (`kneeboard check`) returns a Prepared: no profile means at least one error, every problem has a path
   and a message, every error names a field ("configuration[2].stall_speed") or "(file)"; a profile
   builds a table whose printed figures are finite, in text and JSON, with no numeric warning on the way;
 - `kneeboard check` exits 0 and prints "ok" for the file, or exits 2 and prints error lines that each
@@ -29,7 +29,7 @@ from unittest import mock
 
 import pytest
 import tomlkit
-from conftest import MINIMAL
+from conftest import MINIMAL, checked, checked_file
 from hostile_cases import (
     BASE_TEXTS,
     BASES,
@@ -68,7 +68,7 @@ from hypothesis import strategies as st
 from kneeboard import units
 from kneeboard.compute import Airspeeds, compute
 from kneeboard.fileio import MAX_FILE_BYTES
-from kneeboard.profile_io import load_profile, profile_from_text
+from kneeboard.profile_io import profile_from_text
 
 
 @pytest.fixture(scope="session", autouse=True)
@@ -242,7 +242,14 @@ def test_huge_strings_up_to_the_size_limit(tmp_path, capsys, base, filler, size,
 def test_files_over_the_limit_are_refused_unread(tmp_path, capsys, base, extra, filler):
     text = BASE_TEXTS[base] + "# " + filler * (MAX_FILE_BYTES // len(filler.encode("utf-8")))
     content = text.encode("utf-8")[: MAX_FILE_BYTES + extra].ljust(MAX_FILE_BYTES + extra, b" ")
-    with mock.patch("tomllib.loads", side_effect=AssertionError("a file over the limit was parsed")):
+    real_loads = tomllib.loads
+
+    def loads(text, *args, **kwargs):  # the card style is read as usual; the oversized profile must never be
+        if len(text) > MAX_FILE_BYTES // 2:
+            raise AssertionError("a file over the limit was parsed")
+        return real_loads(text, *args, **kwargs)
+
+    with mock.patch("tomllib.loads", side_effect=loads):
         loaded = answer(tmp_path, capsys, content, "over the limit")
     (problem,) = loaded.problems
     assert problem.path == "(file)" and "refused unread" in problem.message
@@ -287,25 +294,24 @@ def test_real_process_check(tmp_path, content):
                           timeout=KILL_SECONDS)  # a hang guard, not a timing assertion
     assert proc.stderr == "", proc.stderr  # no warning, no traceback, no library noise
     assert_check_output(path, proc.returncode, proc.stdout, proc.stderr)
-    assert (proc.returncode == 0) == (load_profile(path).profile is not None)
+    assert (proc.returncode == 0) == (checked_file(path).profile is not None)
 
 
-# --- known failures in a file this change may not touch (kneeboard/profile_io.py) ----------------------------
-# Strict: when profile_io is fixed these pass, the run fails on XPASS, and the marker has to go.
+# --- files the TOML reader itself must survive -------------------------------------------------------------
 
 
 def test_integer_longer_than_python_converts_gets_an_answer():
-    loaded = profile_from_text(MINIMAL.replace("schema = 1", "schema = " + "1" * 5000))
+    loaded = checked(MINIMAL.replace("schema = 1", "schema = " + "1" * 5000))
     assert_loaded(loaded)
     assert loaded.profile is None
 
 
 def test_keys_nested_deeper_than_python_recurses_get_an_answer():
-    loaded = profile_from_text(MINIMAL + ".".join(["a"] * 1200) + " = 1\n")
+    loaded = checked(MINIMAL + ".".join(["a"] * 1200) + " = 1\n")
     assert_loaded(loaded)
 
 
 def test_dotted_keys_too_deep_are_refused_before_parsing():
     # tomllib's time grows with the square of a dotted key's depth; 20,000 levels took 7 s
-    loaded = profile_from_text(MINIMAL + ".".join(["a"] * 20_000) + " = 1\n")
+    loaded = checked(MINIMAL + ".".join(["a"] * 20_000) + " = 1\n")
     assert loaded.profile is None and "nested more than" in loaded.errors[0].message

@@ -3,8 +3,8 @@
 import math
 
 import pytest
+from conftest import checked
 
-from kneeboard.profile_io import profile_from_text
 from kneeboard.tables import build
 
 MINIMAL = """\
@@ -22,7 +22,8 @@ stall_speed = "50 kt"
 
 
 def load(text):
-    return profile_from_text(text)
+    """Everything `kneeboard check` finds: the file's values, then the checks that need the physics."""
+    return checked(text)
 
 
 def only_error_paths(text):
@@ -36,7 +37,7 @@ def test_minimal_profile_and_defaults():
     assert loaded.errors == []
     p = loaded.profile
     assert p.aircraft.category == "normal"
-    assert p.aircraft.limit_load_factor == 3.8  # 14 CFR 23.337 before amendment 23-64
+    assert loaded.results.limit_load_factor == 3.8  # 14 CFR 23.337 before amendment 23-64
     assert p.aircraft.reference_weight == p.aircraft.max_weight == 750.0
     assert p.weight == 750.0
     assert p.configurations[0].pattern_factor == 1.4
@@ -47,7 +48,7 @@ def test_minimal_profile_and_defaults():
 @pytest.mark.parametrize("category, n", [("utility", 4.4), ("acrobatic", 6.0), ("glider", 5.3)])
 def test_category_sets_limit_load(category, n):
     text = MINIMAL.replace('max_weight = "750 kg"', f'max_weight = "750 kg"\ncategory = "{category}"')
-    assert load(text).profile.aircraft.limit_load_factor == n
+    assert load(text).results.limit_load_factor == n
 
 
 def test_negative_weight():
@@ -187,7 +188,7 @@ def test_invalid_toml_names_the_line():
 
 
 def test_problem_text_has_file_path_value_and_expectation():
-    loaded = profile_from_text(MINIMAL.replace('"50 kt"', '"50 kg"'))
+    loaded = load(MINIMAL.replace('"50 kt"', '"50 kg"'))
     line = str(loaded.errors[0])
     assert "configuration[1].stall_speed" in line and "'50 kg'" in line and "expected a speed" in line
 

@@ -1,20 +1,18 @@
 """Cockpit cards: the table builder's figures laid out on a page and drawn into vector PDF.
 
-`build_card` makes the layout of one aircraft; `card_pdf` and `fleet_pdf` draw it. The command
-line and the app both call these, so there is one layout and one renderer.
+`layout_card` places the blocks (one layout); `card_pdf` and `fleet_pdf` draw it (one renderer). The way from a
+profile to a card is `kneeboard.pipeline`, which the command line and the app both call.
 """
 
 from dataclasses import dataclass
 
 from kneeboard.card.layout import CardLayout, LayoutError, layout_card
-from kneeboard.card.logo import logo_png
-from kneeboard.card.ops import Page
+from kneeboard.card.ops import Figure, Page
 from kneeboard.card.render import pdf_bytes
 from kneeboard.card.style import CardStyle
-from kneeboard.profile import Profile
-from kneeboard.tables import CardTable, build
+from kneeboard.tables import CardTable
 
-__all__ = ["Card", "CardStyle", "LayoutError", "build_card", "card_pdf", "fleet_pdf"]
+__all__ = ["Card", "CardStyle", "LayoutError", "card_pdf", "fleet_pdf", "layout_card"]
 
 
 @dataclass(frozen=True)
@@ -28,33 +26,13 @@ class Card:
     def pages(self) -> tuple[Page, ...]:
         return self.layout.pages
 
-
-def styled_profile(profile: Profile, style: CardStyle) -> Profile:
-    """The profile with the style's overrides of bank angles and units applied."""
-    changes = {}
-    if style.bank_angles_deg is not None:
-        changes["bank_angles_deg"] = style.bank_angles_deg
-    if style.speed_unit is not None:
-        changes["speed_unit"] = style.speed_unit
-        if style.distance_unit is None and style.speed_unit == "km/h":
-            changes["distance_unit"] = "m"
-    if style.distance_unit is not None:
-        changes["distance_unit"] = style.distance_unit
-    return profile.with_card(**changes) if changes else profile
-
-
-def build_card(profile: Profile, style: CardStyle, fingerprint: str, weight: float | None = None,
-               made_on: str | None = None, table: CardTable | None = None) -> Card:
-    """Lay out the card of `profile` at `weight` [kg] (default the profile's); raises LayoutError.
-
-    `table` may be passed when the caller already built it for this profile, style and weight.
-    """
-    from kneeboard.card.blocks import today
-
-    if table is None:
-        table = build(styled_profile(profile, style), weight)
-    layout = layout_card(table, style, fingerprint, made_on or today(), logo_png(style.logo))
-    return Card(table.registration, table, layout, fingerprint)
+    def figures(self) -> dict[str, Figure]:
+        """Every printed figure of the card by its identity, in print order (a figure printed twice: once)."""
+        found: dict[str, Figure] = {}
+        for page in self.pages:
+            for f in page.figures():
+                found.setdefault(f.identity, f)
+        return found
 
 
 def card_pdf(card: Card) -> bytes:
@@ -71,4 +49,3 @@ def fleet_pdf(cards: list[Card], sheet: str | None = None) -> bytes:
 
     return pdf_bytes(impose([card.pages for card in cards], sheet),
                      title=f"kneeboard cards ({len(cards)} aircraft) on {sheet} sheets")
-

@@ -7,7 +7,7 @@ below it (negative y); the layout then moves the block into place on the page.
 from dataclasses import dataclass
 
 from kneeboard.card import fonts
-from kneeboard.card.ops import CAUTION, FIGURE, HEADING, LABEL, SMALL, TITLE, Circle, Line, Path, Rect, Text
+from kneeboard.card.ops import CAUTION, FIGURE, HEADING, LABEL, SMALL, TITLE, Circle, Figure, Line, Path, Rect, Text
 from kneeboard.card.style import CardStyle
 from kneeboard.tables import CardTable
 
@@ -73,15 +73,19 @@ class Draw:
         self.ctx = ctx
         self.ops: list = []
 
-    def text(self, x, y, s, role=LABEL, bold=False, align="left", color=INK, size=None):
+    def text(self, x, y, s, role=LABEL, bold=False, align="left", color=INK, size=None, figures=()):
+        """A line of text; `figures` tags it with the printed figures it shows (`ops.Figure`, one or several)."""
         size = self.ctx.size(role) if size is None else size
-        self.ops.append(Text(x, y, s, fonts.BOLD if bold else fonts.REGULAR, size, color, align, role))
+        if figures is None or isinstance(figures, Figure):
+            figures = () if figures is None else (figures,)
+        tags = tuple(f for f in figures if f is not None)
+        self.ops.append(Text(x, y, s, fonts.BOLD if bold else fonts.REGULAR, size, color, align, role, tags))
 
     def line(self, x1, y1, x2, y2, color=INK, width=0.5, dash=()):
         self.ops.append(Line(x1, y1, x2, y2, color, width, tuple(dash)))
 
-    def rect(self, x, top, w, h, fill=None, stroke=None, width=0.5, hatch=None, radius=0.0):
-        self.ops.append(Rect(x, top - h, w, h, fill, stroke, width, hatch, radius))
+    def rect(self, x, top, w, h, fill=None, stroke=None, width=0.5, hatch=None):
+        self.ops.append(Rect(x, top - h, w, h, fill, stroke, width, hatch))
 
     def path(self, points, color=INK, width=0.75, dash=(), closed=False, fill=None, fill_alpha=1.0):
         self.ops.append(Path(tuple(points), color, width, tuple(dash), closed, fill, fill_alpha))
@@ -91,6 +95,19 @@ class Draw:
 
     def block(self, name: str, height: float) -> Block:
         return Block(name, height, tuple(self.ops))
+
+
+def figure(label: str, printed, unit: str = "", worse: str | None = None, key: str = ""):
+    """The tag of a printed figure (`tables.Printed` or its text) shown with `unit`; None when nothing is printed.
+
+    `key` tells the figure apart where its label could also be that of another (a configuration may be named like
+    a block's own prefix); by default the label is the key.
+    """
+    if printed is None:
+        return None
+    text = printed if isinstance(printed, str) else printed.text
+    # banks print as "53°"; every other unit follows its figure after a space
+    return Figure(label, text + unit if unit == "°" else f"{text} {unit}".rstrip(), worse, key)
 
 
 def baseline(top: float, row_height: float, size: float) -> float:

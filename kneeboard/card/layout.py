@@ -9,7 +9,9 @@ ever cut silently.
 
 from dataclasses import dataclass
 
-from kneeboard.card import blocks, chart, grids
+from kneeboard.card import blocks
+from kneeboard.card.blocks.caution import caution
+from kneeboard.card.blocks.header import back_header
 from kneeboard.card.draw import RULE, SECONDARY, Context, DoesNotFit
 from kneeboard.card.geometry import BINDING_MARGIN, LARGE_CARDS, MM, SAFE_MARGIN, PageBox, page_box
 from kneeboard.card.ops import Circle, Page, Part
@@ -19,18 +21,9 @@ from kneeboard.tables import CardTable
 #: Type scale each card size starts from, before the style's font scale.
 SIZE_SCALE = {"a5": 1.0, "half-letter": 1.0, "5x8": 0.92, "4x6": 0.78}
 SHRINK = 0.95
-FRONT_ONLY = ("header", "margin-table")  #: a card without these on its front is no card
 MIN_FIGURE_LARGE = 10.0
 MIN_FIGURE_SMALL = 8.0
 MIN_COLUMN = 220.0  #: narrowest column worth flowing into [pt]
-BUILDERS = {
-    "header": blocks.header,
-    "margin-table": grids.margin_table,
-    "limits": grids.limits_table,
-    "turns": grids.turns_table,
-    "circling": grids.circling_table,
-    "notes": blocks.notes,
-}
 
 
 class LayoutError(Exception):
@@ -45,26 +38,25 @@ class LayoutError(Exception):
 class CardLayout:
     pages: tuple[Page, ...]
     scale: float  #: the type scale the content fitted at
-    min_figure: float  #: the legibility floor for table figures on this size [pt]
 
 
 def min_figure_size(size: str) -> float:
     return MIN_FIGURE_LARGE if size in LARGE_CARDS else MIN_FIGURE_SMALL
 
 
-def applicable(name: str, table: CardTable) -> bool:
-    if name == "circling":
-        return table.glider is not None
-    if name == "notes":
-        return bool(table.notes.strip())
-    return True
+def block_order(style: CardStyle) -> tuple[list[str], list[str]]:
+    """The blocks of the front and of the back page, in order: the style's, or every registered block."""
+    back = [b for b in style.back if b in blocks.names()]
+    front = [b for b in (blocks.names() if style.front is None else style.front) if b in blocks.names()]
+    return [b for b in front if b not in back], back
 
 
 def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: str,
                 logo_png: bytes | None = None) -> CardLayout:
     box = page_box(style.size, style.landscape, style.binding)
-    front = [b for b in style.front if applicable(b, table)]
-    back = [b for b in style.back if applicable(b, table)]
+    front, back = block_order(style)
+    front = [b for b in front if blocks.get(b).applies(table)]
+    back = [b for b in back if blocks.get(b).applies(table)]
     floor = min_figure_size(style.size)
     scale = style.font_scale * SIZE_SCALE[style.size]
     last: DoesNotFit | None = None
@@ -73,12 +65,12 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
         if ctx.figure * SECONDARY < floor - 1e-9:
             break
         try:
-            return CardLayout(_flow(ctx, box, front, back, two_columns=style.landscape), scale, floor)
+            return CardLayout(_flow(ctx, box, front, back, two_columns=style.landscape), scale)
         except DoesNotFit as exc:
             last = exc
         if style.landscape:  # a block too wide for half a landscape page may fit across all of it
             try:
-                return CardLayout(_flow(ctx, box, front, back, two_columns=False), scale, floor)
+                return CardLayout(_flow(ctx, box, front, back, two_columns=False), scale)
             except DoesNotFit as exc:
                 last = exc
         scale *= SHRINK
@@ -101,15 +93,17 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
     # landscape pages flow in two columns when each is still wide enough for a table
     columns = 2 if two_columns and (box.content_width - gap) / 2 >= MIN_COLUMN else 1
     col_w = (box.content_width - (columns - 1) * gap) / columns
-    caution_h = blocks.caution(ctx, box.content_width, 1, 2).height
+    caution_h = caution(ctx, box.content_width, 1, 2).height
     bottom = box.bottom + caution_h + gap * 0.6
-    built = {name: BUILDERS[name](ctx, col_w) for name in dict.fromkeys(front + back)
-             if name in BUILDERS and name != "header"}
-    if "header" in front or "header" in back:  # the header spans the whole width, on the front
-        built["header"] = blocks.header(ctx, box.content_width)
+    specs = {name: blocks.get(name) for name in dict.fromkeys(front + back)}
+    # blocks of natural height are drawn once here; blocks that grow are drawn once their room is known
+    built = {name: spec.draw(ctx, box.content_width if spec.full_width else col_w, None)
+             for name, spec in specs.items() if spec.sizes is None}
+    wide = [name for name, spec in specs.items() if spec.full_width]
 
     def height(name):
-        return chart.minimum_height(ctx, col_w) if name == "margin-chart" else built[name].height
+        spec = specs[name]
+        return spec.sizes(ctx, col_w)[0] if spec.sizes is not None else built[name].height
 
     pages = []  # per page: (top block, [column: [names]])
     queue = list(front)
@@ -119,10 +113,10 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
             queue = overflow + list(back)
             if not queue:
                 break
-        top_block = built.get("header") if side == 1 else None
+        top_block = next((built[n] for n in wide if n in queue), None) if side == 1 else None
         if side == 2:
-            top_block = blocks.back_header(ctx, box.content_width)
-        queue = [n for n in queue if n != "header"]
+            top_block = back_header(ctx, box.content_width)
+        queue = [n for n in queue if n not in wide]
         column_top = box.top - (top_block.height + gap * 0.8 if top_block else 0.0)
         cols: list[list[str]] = [[] for _ in range(columns)]
         rooms = [column_top - bottom] * columns
@@ -136,7 +130,7 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
                     rooms[c] -= need
                     break
             else:
-                if side == 2 or name in FRONT_ONLY:
+                if side == 2 or specs[name].front_only:
                     raise DoesNotFit(name, "not enough room on the " + ("back" if side == 2 else "front"))
                 overflow.append(name)
         pages.append((top_block, cols, column_top))
@@ -152,16 +146,17 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
             spare = column_top - bottom - used
             y = column_top
             for name in names:
-                if name == "margin-chart":
-                    h = min(chart.preferred_height(ctx, col_w), chart.minimum_height(ctx, col_w) + spare)
-                    b = chart.margin_chart(ctx, col_w, h)
+                spec = specs[name]
+                if spec.sizes is not None:  # a block that grows takes the room its column has left
+                    least, preferred = spec.sizes(ctx, col_w)
+                    b = spec.draw(ctx, col_w, min(preferred, least + spare))
                 else:
                     b = built[name]
                 parts.append(Part(box.left + c * (col_w + gap), y, b.ops))
                 placed.append(name)
                 y -= b.height + gap
-        caution = blocks.caution(ctx, box.content_width, side, total)
-        parts.append(Part(box.left, box.bottom + caution.height, caution.ops))
+        closing = caution(ctx, box.content_width, side, total)
+        parts.append(Part(box.left, box.bottom + closing.height, closing.ops))
         parts.append(Part(0.0, 0.0, tuple(_binding_marks(box, ctx.style.binding))))
         result.append(Page(box.width, box.height, tuple(parts), tuple(placed) + ("caution",)))
     return tuple(result)

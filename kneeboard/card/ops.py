@@ -9,6 +9,28 @@ from dataclasses import dataclass, replace
 # Roles of text, for the legibility rules: figures are the numbers a pilot reads off a table.
 FIGURE, LABEL, HEADING, TITLE, SMALL, CAUTION = "figure", "label", "heading", "title", "small", "caution"
 
+#: Which way a printed figure leaves the pilot less room: a higher number (a stall speed), or a lower one (a margin,
+#: a bank). Figures that are neither (a turn radius, the weight) are compared but never judged.
+HIGHER_IS_WORSE, LOWER_IS_WORSE = "higher", "lower"
+
+
+@dataclass(frozen=True)
+class Figure:
+    """A printed figure carried by the text that shows it: what it is, how it reads, which way is worse.
+
+    The card knows every figure it printed from these tags, so comparing two cards (or a card with its PDF) reads
+    the laid-out card itself, never a second list that could forget a block.
+    """
+
+    label: str  #: what the figure is, as a person reads it: "Flaps up · 30° · margin"
+    text: str  #: the printed figure with its unit: "15 kt", "53°", "1.16 g"
+    worse: str | None = None  #: HIGHER_IS_WORSE, LOWER_IS_WORSE or None
+    key: str = ""  #: what makes it the same figure on two cards; the label unless a label could be ambiguous
+
+    @property
+    def identity(self) -> str:
+        return self.key or self.label
+
 
 @dataclass(frozen=True)
 class Text:
@@ -20,6 +42,7 @@ class Text:
     color: str = "#000000"
     align: str = "left"  #: left | right | centre
     role: str = LABEL
+    figures: tuple[Figure, ...] = ()  #: the printed figures this text shows (a line may carry several)
 
     def moved(self, dx, dy):
         return replace(self, x=self.x + dx, y=self.y + dy)
@@ -49,7 +72,6 @@ class Rect:
     stroke: str | None = None
     width: float = 0.5
     hatch: str | None = None  #: colour of diagonal hatching inside, for black-and-white marking
-    radius: float = 0.0
 
     def moved(self, dx, dy):
         return replace(self, x=self.x + dx, y=self.y + dy)
@@ -115,6 +137,6 @@ class Page:
         """Every op at its place on the page (for inspection; the renderer draws the parts)."""
         return tuple(op.moved(part.dx, part.dy) for part in self.parts for op in part.ops)
 
-
-def moved(ops, dx: float, dy: float) -> list:
-    return [op.moved(dx, dy) for op in ops]
+    def figures(self):
+        """The printed figures on this page, in drawing order."""
+        return (f for part in self.parts for op in part.ops if type(op) is Text for f in op.figures)

@@ -13,12 +13,10 @@ from kneeboard import units
 from kneeboard.card.geometry import CARD_SIZES
 from kneeboard.fileio import FileProblem, read_text
 from kneeboard.problems import WARNING, Problem
+from kneeboard.shipped import default_style_path
 
 STYLE_VERSION = 1
-#: Every block a card can show, in the default order. The caution is always printed, on every page.
-BLOCKS = ("header", "margin-table", "margin-chart", "limits", "turns", "circling", "notes")
 BINDINGS = ("none", "left", "top")
-DEFAULT_STYLE = Path(__file__).resolve().parents[2] / "resources" / "default.style.toml"
 STYLE_SUFFIX = ".style.toml"  #: style files end so, which keeps them out of a folder's profiles
 FLEET_STYLE = "fleet.style.toml"  #: the style a fleet folder's cards use, when it has one
 
@@ -40,7 +38,7 @@ class CardStyle:
     size: str = "a5"
     landscape: bool = False
     binding: str = "none"  #: "none" | "left" | "top": a wider edge for a punch or ring binder
-    front: tuple[str, ...] = BLOCKS  #: blocks in order; what does not fit moves to the back
+    front: tuple[str, ...] | None = None  #: blocks in order (None: every registered block); overflow goes back
     back: tuple[str, ...] = ()  #: blocks always printed on a back page
     bank_angles_deg: tuple[float, ...] | None = None  #: overrides the profiles' when set
     speed_unit: str | None = None
@@ -53,7 +51,7 @@ class CardStyle:
 
 def load_style(path: Path | None = None) -> tuple[CardStyle | None, list[Problem]]:
     """Read a style file (default: the shipped one); None and the problems when it has errors."""
-    path = Path(path) if path is not None else DEFAULT_STYLE
+    path = Path(path) if path is not None else default_style_path()
     try:
         data = tomllib.loads(read_text(path))
     except FileProblem as exc:
@@ -101,9 +99,9 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     if isinstance(scale, bool) or not isinstance(scale, (int, float)) or not 0.7 <= scale <= 1.6:
         bad("font_scale", "is out of range", "a number from 0.7 to 1.6", scale)
         scale = 1.0
-    front = _blocks(data, "front", BLOCKS, bad)
-    back = _blocks(data, "back", (), bad)
-    for name in set(front) & set(back):
+    front = _blocks(data, "front", None, bad)
+    back = _blocks(data, "back", (), bad) or ()
+    for name in set(front or ()) & set(back):
         bad("back", f"{name!r} is listed on both the front and the back", "each block once", name)
     logo = _logo(data.get("logo"), folder, bad)
     banks = data.get("bank_angles")
@@ -138,16 +136,22 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
 
 
 def _blocks(data, key, default, bad):
-    value = data.get(key, list(default))
+    """A list of block names, checked against the registered blocks; `default` when the key is absent."""
+    from kneeboard.card.blocks import names
+
+    known = names()
+    if key not in data:
+        return default
+    value = data[key]
     if not isinstance(value, list) or not all(isinstance(v, str) for v in value):
-        bad(key, "must be a list of block names", ", ".join(BLOCKS), value)
-        return tuple(default)
-    unknown = [v for v in value if v not in BLOCKS]
+        bad(key, "must be a list of block names", ", ".join(known), value)
+        return default
+    unknown = [v for v in value if v not in known]
     if unknown:
-        bad(key, f"names unknown blocks: {', '.join(map(str, unknown))}", ", ".join(BLOCKS), value)
+        bad(key, f"names unknown blocks: {', '.join(map(str, unknown))}", ", ".join(known), value)
     if len(set(value)) != len(value):
         bad(key, "lists a block twice", "each block once", value)
-    return tuple(dict.fromkeys(v for v in value if v in BLOCKS))
+    return tuple(dict.fromkeys(v for v in value if v in known))
 
 
 def _logo(value, folder: Path, bad) -> Path | None:

@@ -10,9 +10,13 @@ import math
 
 import numpy as np
 
+from kneeboard import terms
 from kneeboard.card import fonts
-from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw
-from kneeboard.card.ops import SMALL
+from kneeboard.card.blocks.registry import BlockSpec
+from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, figure
+from kneeboard.card.ops import LOWER_IS_WORSE, SMALL
+
+NAME = "margin-chart"
 
 DASHES = ((), (6.0, 2.5), (1.6, 1.8), (7.0, 2.0, 1.6, 2.0))
 COLOURS = (None, "#222222", "#8C4A12", "#4A4A4A")  # None: the style's accent
@@ -56,7 +60,9 @@ def _legend_rows(ctx: Context, width: float):
     return rows
 
 
-def margin_chart(ctx: Context, width: float, height: float):
+def draw(ctx: Context, width: float, height: float | None = None):
+    if height is None:
+        height = preferred_height(ctx, width)
     t = ctx.table
     curves = t.curves
     d = Draw(ctx)
@@ -78,7 +84,7 @@ def margin_chart(ctx: Context, width: float, height: float):
     px0, px1 = label_w, width - fly_w
     py1, py0 = -ss * 1.8, -plot_h + ss * 2.6  # top and bottom of the plot area
     if px1 - px0 < 80 or py1 - py0 < MIN_PLOT - 0.01:
-        raise DoesNotFit("margin-chart", "too little room for a readable chart")
+        raise DoesNotFit(NAME, "too little room for a readable chart")
 
     def X(b):
         return px0 + b / x_max * (px1 - px0)
@@ -122,18 +128,23 @@ def margin_chart(ctx: Context, width: float, height: float):
         d.path([(X(b), Y(s)) for b, s in stall], colour, 2.0, dash)
         printed = t.configurations[i]
         d.line(px1, Y(c.pattern_speed), px1 + ss * 0.3, fly_ys[i] + ss * 0.35, colour, 0.6)
-        d.text(px1 + ss * 0.4, fly_ys[i], f"fly {printed.pattern_speed.text}", SMALL, True, color=colour)
+        d.text(px1 + ss * 0.4, fly_ys[i], f"fly {printed.pattern_speed.text}", SMALL, True, color=colour,
+               figures=figure(terms.label(c.name, terms.PATTERN), printed.pattern_speed, t.speed_unit))
         if zero <= x_max:
-            marks.append((X(zero), Y(c.pattern_speed), INK, None, f"{printed.zero_margin_bank.text}°"))
+            marks.append((X(zero), Y(c.pattern_speed), INK, None, f"{printed.zero_margin_bank.text}°",
+                          figure(terms.label(c.name, terms.ZERO_MARGIN_BANK), printed.zero_margin_bank, "°",
+                                 LOWER_IS_WORSE)))
         if c.buffer_bank_deg is not None and c.buffer_bank_deg <= x_max and printed.buffer_bank is not None:
             yb = Y(float(np.interp(c.buffer_bank_deg, c.bank_deg, c.stall_speed)))
-            marks.append((X(c.buffer_bank_deg), yb, WHITE, INK, f"{printed.buffer_bank.text}°"))
+            marks.append((X(c.buffer_bank_deg), yb, WHITE, INK, f"{printed.buffer_bank.text}°",
+                          figure(terms.label(c.name, f"{t.buffer.text} {t.speed_unit} {terms.BUFFER_BANK}"),
+                                 printed.buffer_bank, "°", LOWER_IS_WORSE)))
     r = ss * 0.42
-    for x, y, fill, stroke, _ in marks:
+    for x, y, fill, stroke, _, _ in marks:
         d.circle(x, y, r, fill=fill, stroke=stroke, width=0.9)
         labels.boxes.append((x - r, y - r, x + r, y + r))
-    for x, y, _, _, text in marks:
-        labels.place(d, x, y, text, ss)
+    for x, y, _, _, text, tag in marks:
+        labels.place(d, x, y, text, ss, tag)
 
     y = -plot_h
     for row in _legend_rows(ctx, width):
@@ -152,7 +163,7 @@ def margin_chart(ctx: Context, width: float, height: float):
         d.circle(x + ss * 0.45, y + ss * 0.35, ss * 0.4, fill=fill, stroke=stroke, width=0.9)
         d.text(x + ss * 1.2, y, text, SMALL, color=GREY)
         x += ss * 2.2 + fonts.width(text, fonts.REGULAR, ss)
-    return d.block("margin-chart", -(y - ss * 0.6))
+    return d.block(NAME, -(y - ss * 0.6))
 
 
 def _spread(ys, spacing, low, high):
@@ -178,7 +189,7 @@ class _Labels:
         self.bounds = (x0, x1, y0, y1)
         self.boxes = []
 
-    def place(self, d, x, y, text, size):
+    def place(self, d, x, y, text, size, tag=None):
         w = fonts.width(text, fonts.BOLD, size)
         h = size * 0.8
         r = size * 0.6
@@ -191,7 +202,7 @@ class _Labels:
             if not any(_overlap(box, other) for other in self.boxes):
                 break
         self.boxes.append(box)
-        d.text(cx, cy, text, SMALL, True)
+        d.text(cx, cy, text, SMALL, True, figures=tag)
 
 
 def _overlap(a, b):
@@ -211,3 +222,10 @@ def _clip(banks, speeds, x_max, y_hi):
             break
         points.append((float(b), float(s)))
     return points
+
+
+def sizes(ctx: Context, width: float) -> tuple[float, float]:
+    return minimum_height(ctx, width), preferred_height(ctx, width)
+
+
+SPEC = BlockSpec(NAME, "Margin chart", draw, sizes=sizes)

@@ -1,0 +1,45 @@
+"""The caution that closes every page, with a footer line naming the card. It is not a block a style can turn
+off: the layout prints it on every page."""
+
+from kneeboard.card import fonts
+from kneeboard.card.draw import GREY, INK, Context, DoesNotFit, Draw, weight_text
+from kneeboard.card.ops import CAUTION, SMALL
+from kneeboard.texts import CAUTION_CARD
+
+
+def caution(ctx: Context, width: float, page: int, pages: int):
+    """The caution, on every page, with a footer line naming the card."""
+    t = ctx.table
+    d = Draw(ctx)
+    cs, ss = ctx.size(CAUTION), ctx.size(SMALL)
+    bar = 2.5
+    lines = fonts.wrap("CAUTION. " + CAUTION_CARD, fonts.REGULAR, cs, width - bar - 4)
+    y = -cs * 0.3
+    top = y
+    for i, line in enumerate(lines):
+        y -= cs * 1.2
+        if i == 0:
+            d.text(bar + 4, y, "CAUTION.", CAUTION, True)
+            d.text(bar + 4 + fonts.width("CAUTION. ", fonts.BOLD, cs), y, line.removeprefix("CAUTION. "), CAUTION)
+        else:
+            d.text(bar + 4, y, line, CAUTION)
+    d.rect(0, top, bar, top - y + cs * 0.35, fill=INK)
+    items = [t.registration, weight_text(t), f"profile {ctx.fingerprint}", ctx.made_on]
+    side = f"{'front' if page == 1 else 'back'} {page}/{pages}" if pages > 1 else ""
+    room = width - (fonts.width(side, fonts.BOLD, ss) + ss if side else 0)
+    lines = [""]
+    for item in items:
+        candidate = f"{lines[-1]}  ·  {item}" if lines[-1] else item
+        if lines[-1] and fonts.width(candidate, fonts.REGULAR, ss) > room:
+            lines.append(item)
+        else:
+            lines[-1] = candidate
+    if len(lines) > 2 or any(fonts.width(line, fonts.REGULAR, ss) > room for line in lines):
+        raise DoesNotFit("caution", "the footer line is wider than the card")
+    y -= ss * 0.3
+    for k, line in enumerate(lines):
+        y -= ss * 1.2
+        d.text(0, y, line, SMALL, color=GREY)
+        if k == 0 and side:
+            d.text(width, y, side, SMALL, True, "right")
+    return d.block("caution", -y + ss * 0.3)

@@ -1,0 +1,52 @@
+"""A glider's circling figures at minimum-sink angle of attack, at the card weight with ballast."""
+
+from kneeboard import terms
+from kneeboard.card.blocks.grid import Cell, grid, heading, sub_headers
+from kneeboard.card.blocks.registry import BlockSpec
+from kneeboard.card.draw import INK, Context, Draw, figure, weight_text
+from kneeboard.card.ops import HIGHER_IS_WORSE, SMALL
+
+NAME = "circling"
+
+
+def draw(ctx: Context, width: float, _height=None):
+    t = ctx.table
+    g = t.glider
+    d = Draw(ctx)
+    fs = ctx.secondary_figure
+    su, du, sink = t.speed_unit, t.distance_unit, t.sink_unit
+    straight = terms.label(terms.CIRCLING, terms.STRAIGHT)
+
+    def tag(label, printed, unit, worse=None):
+        # a configuration may be named "circling": the block's own figures get a key no configuration can have
+        return figure(label, printed, unit, worse, key=f"{NAME}\n{label}")
+
+    y = heading(d, width, 0.0, f"CIRCLING AT MINIMUM SINK, {weight_text(t)}",
+                f"straight flight: {g.min_sink_speed.text} {su}, sink {g.min_sink_rate.text} "
+                f"{sink}; turn-back loss is the height lost in a 180° turn",
+                (tag(terms.label(straight, terms.SPEED), g.min_sink_speed, su),
+                 tag(terms.label(straight, terms.SINK), g.min_sink_rate, sink, HIGHER_IS_WORSE)))
+    names = ["bank", f"{su} IAS", f"sink {sink}", f"radius {du}", "circle s", f"180° loss {du}"]
+    col_w = width / len(names)
+    columns = [(i * col_w, col_w) for i in range(len(names))]
+    y = sub_headers(d, NAME, y, [(n, x, w) for n, (x, w) in zip(names, columns)])
+    d.line(0, y, width, y, INK, 0.6)
+    rows = []
+    for r in g.rows:
+        if r.turn_radius is None:
+            continue  # wings level: printed above as the straight-flight figures
+        at = terms.label(terms.CIRCLING, terms.at_bank(r.bank_text))
+        rows.append([
+            Cell(f"{r.bank_text}°", bold=True),
+            Cell(r.speed.text, bold=True, figure=tag(terms.label(at, terms.SPEED), r.speed, su)),
+            Cell(r.sink_rate.text, figure=tag(terms.label(at, terms.SINK), r.sink_rate, sink, HIGHER_IS_WORSE)),
+            Cell(r.turn_radius.text, figure=tag(terms.label(at, terms.TURN_RADIUS), r.turn_radius, du)),
+            Cell(r.circle_time.text, figure=tag(terms.label(at, terms.CIRCLE_TIME), r.circle_time, "s")),
+            Cell(r.height_loss_180.text, figure=tag(terms.label(at, terms.LOSS_180), r.height_loss_180, du,
+                                                    HIGHER_IS_WORSE)),
+        ])
+    y = grid(d, NAME, y, columns, rows, fs * 1.45, fs)
+    return d.block(NAME, -(y - ctx.size(SMALL)))
+
+
+SPEC = BlockSpec(NAME, "Circling at minimum sink (gliders)", draw, applies=lambda table: table.glider is not None)

@@ -1,0 +1,90 @@
+"""Drawing the card's tables: cells in columns, figures right-aligned on a common edge, headers that wrap.
+
+Row states are marked so they survive black-and-white printing. Every number comes as printed text from the
+table builder; nothing is re-rounded here.
+"""
+
+from dataclasses import dataclass
+
+from kneeboard.card import fonts
+from kneeboard.card.draw import GREY, HATCH, INK, SHADE, WHITE, DoesNotFit, Draw, baseline, fit_lines
+from kneeboard.card.ops import FIGURE, HEADING, LABEL, SMALL, Figure
+
+HATCHED, BLACK = "hatched", "black"
+NO_VALUE = "–"  #: printed where a figure does not exist (no turn at 0 bank, stalled)
+
+
+@dataclass(frozen=True)
+class Cell:
+    text: str
+    bold: bool = False
+    mark: str | None = None  #: HATCHED or BLACK background
+    note: str = ""  #: a small suffix such as "*"
+    role: str = FIGURE
+    figure: Figure | None = None  #: the printed figure the cell shows
+
+
+def grid(d: Draw, block: str, top: float, columns, rows, row_h: float, size: float, shade=True) -> float:
+    """Draw rows of cells into columns [(x, w)]; numbers right-aligned on a common edge per column."""
+    edges = []
+    for j, (x, w) in enumerate(columns):
+        widest = max((fonts.width(r[j].text, fonts.BOLD, size) for r in rows), default=0.0)
+        if widest > w - 2:
+            raise DoesNotFit(block, f"column {j + 1} needs {widest:.0f} pt, has {w:.0f}")
+        edges.append(x + (w + widest) / 2)
+    y = top
+    for i, row in enumerate(rows):
+        if shade and i % 2 == 1:
+            d.rect(columns[0][0], y, columns[-1][0] + columns[-1][1] - columns[0][0], row_h, fill=SHADE)
+        for (x, w), edge, cell in zip(columns, edges, row):
+            color = INK
+            if cell.mark == HATCHED:
+                d.rect(x + 1, y - 0.5, w - 2, row_h - 1, fill=WHITE, hatch=HATCH, stroke=INK, width=0.6)
+            elif cell.mark == BLACK:
+                d.rect(x + 1, y - 0.5, w - 2, row_h - 1, fill=INK)
+                color = WHITE
+            base = baseline(y, row_h, size)
+            d.text(edge, base, cell.text, cell.role, cell.bold, "right", color, size if cell.role == FIGURE else None,
+                   cell.figure)
+            if cell.note:
+                d.text(edge + 1, base + size * 0.35, cell.note, SMALL, True, color=color)
+        y -= row_h
+    return y
+
+
+def group_headers(d: Draw, top: float, groups, label_size: float, block: str) -> float:
+    """Configuration names over their column groups [(name, x, w)], wrapped to two lines at most."""
+    ctx = d.ctx
+    hs = ctx.size(HEADING)
+    wrapped = [fit_lines(block, name, fonts.BOLD, hs, w - 6, 2) for name, x, w in groups]
+    n_lines = max(len(lines) for lines in wrapped)
+    for (_name, x, w), lines in zip(groups, wrapped):
+        for k, line in enumerate(lines):
+            offset = (n_lines - len(lines) + k + 1) * hs * 1.12
+            d.text(x + w / 2, top - offset, line, HEADING, True, "centre")
+    return top - n_lines * hs * 1.12 - hs * 0.3
+
+
+def sub_headers(d: Draw, block: str, top: float, labels) -> float:
+    """Small column labels [(text, x, w)], each wrapped to two lines at most."""
+    ss = d.ctx.size(SMALL)
+    wrapped = [(fit_lines(block, text, fonts.REGULAR, ss, w - 1, 2), x, w) for text, x, w in labels]
+    n = max(len(lines) for lines, _, _ in wrapped)
+    for lines, x, w in wrapped:
+        for k, line in enumerate(lines):
+            d.text(x + w / 2, top - ss * (1.05 + 1.1 * (n - len(lines) + k)), line, SMALL, False, "centre", GREY)
+    return top - ss * (0.35 + 1.1 * n)
+
+
+def heading(d: Draw, width: float, top: float, title: str, detail: str = "", figures=()) -> float:
+    """A block's title and a wrapped line of detail under it; `figures` are the printed figures the detail shows."""
+    ctx = d.ctx
+    hs = ctx.size(HEADING)
+    d.text(0, top - hs, title, HEADING, True, color=ctx.style.accent)
+    y = top - hs * 1.35
+    if detail:
+        for k, line in enumerate(fit_lines(title, detail, fonts.REGULAR, ctx.size(LABEL), width, 3)):
+            y -= ctx.size(LABEL) * 1.2
+            d.text(0, y + ctx.size(LABEL) * 0.25, line, LABEL, color=GREY, figures=figures if k == 0 else ())
+        y -= ctx.size(LABEL) * 0.2
+    return y

@@ -1,0 +1,238 @@
+"""The one way from a profile to its card: style, overrides, validation, physics once, table, layout, PDF.
+
+Every route goes through here: `kneeboard check`, `table` and `card`, the fleet export and the app. So a profile
+gives the same figures, in the same units and at the same banks, whichever way it is asked for:
+
+1. **Style, by one rule** (`Styles`): `--style` (or the app's chosen style file) replaces everything; otherwise a
+   profile inside a folder with a `fleet.style.toml` gets that style, whether it is given alone or with its
+   folder; otherwise the shipped default.
+2. **Style settings and overrides are written into the profile's data** (`--weight` as `weight.total`, `--bank` as
+   `card.bank_angles`, the style's banks and units as the card settings) and read by the same reader with the same
+   rules as the file's own values, so an override can never make a card the file itself could not. A problem an
+   override causes names the override (`--weight`), not a field of the file.
+3. **The physics runs once** (`compute.compute`: the card's banks and the chart's curves in one vectorised call);
+   the checks that need it (`checks.physics_checks`) and the table builder read those same results.
+4. The table, laid out by the one layout, drawn by the one renderer.
+
+The fingerprint printed on a card is always that of the profile file's own data, whatever the overrides.
+"""
+
+import copy
+from dataclasses import dataclass, field, replace
+from datetime import date
+from pathlib import Path
+
+from kneeboard import report
+from kneeboard.card.style import CardStyle, fleet_style_path, load_style
+from kneeboard.checks import physics_checks
+from kneeboard.compute import Results, compute
+from kneeboard.problems import Problem
+from kneeboard.profile import Profile
+from kneeboard.profile_io import Source, read_source, source_from_text
+from kneeboard.schema import profile_from_data
+from kneeboard.tables import CardTable, build
+
+
+@dataclass(frozen=True)
+class Overrides:
+    """What a command line (or an export) changes for every card, as a person types it.
+
+    Values are written into the profile's data and validated there, like the file's own values.
+    """
+
+    weight: str | None = None  #: a total weight as text, e.g. "690 kg"
+    bank_angles: tuple[float, ...] | None = None  #: [deg]
+    speed_unit: str | None = None
+    distance_unit: str | None = None
+    size: str | None = None  #: card size, replacing the style's
+    landscape: bool | None = None
+
+    def styled(self, style: CardStyle) -> CardStyle:
+        """The style with this run's size and orientation."""
+        changes = {}
+        if self.size is not None:
+            changes["size"] = self.size
+        if self.landscape is not None:
+            changes["landscape"] = self.landscape
+        return style.with_changes(**changes) if changes else style
+
+
+NONE = Overrides()
+
+
+class Styles:
+    """The card style of each profile by the one rule, each style file read once per run."""
+
+    def __init__(self, explicit: Path | None = None, overrides: Overrides = NONE):
+        self.explicit = Path(explicit) if explicit is not None else None
+        self.overrides = overrides
+        self._loaded: dict[Path | None, tuple[CardStyle | None, tuple[Problem, ...]]] = {}
+
+    def path_for(self, profile_path: Path | None) -> Path | None:
+        """The style file a profile's card uses; None for the shipped default."""
+        if self.explicit is not None:
+            return self.explicit
+        return fleet_style_path(Path(profile_path).parent) if profile_path is not None else None
+
+    def for_profile(self, profile_path: Path | None) -> tuple[CardStyle | None, tuple[Problem, ...]]:
+        """(style or None when its file has errors, the style file's problems)."""
+        key = self.path_for(profile_path)
+        if key not in self._loaded:
+            style, problems = load_style(key)
+            self._loaded[key] = (None if style is None else self.overrides.styled(style), tuple(problems))
+        return self._loaded[key]
+
+
+@dataclass(frozen=True)
+class Prepared:
+    """One profile through the pipeline up to its printed table: everything `check`, `table` and a card need."""
+
+    path: Path | None
+    fingerprint: str  #: of the file's own data
+    style: CardStyle | None
+    profile: Profile | None  #: as the card uses it (style settings and overrides applied); None on any error
+    results: Results | None  #: full precision; None on any error
+    table: CardTable | None  #: the printed figures; None on any error
+    problems: tuple[Problem, ...]  #: the file's, the style's, the overrides' and the physics' problems
+    style_problems: tuple[Problem, ...] = field(default=())
+
+    @property
+    def errors(self) -> list[Problem]:
+        return [p for p in self.problems if p.is_error]
+
+    @property
+    def warnings(self) -> list[Problem]:
+        return [p for p in self.problems if not p.is_error]
+
+    @property
+    def ok(self) -> bool:
+        return self.table is not None
+
+
+def prepare(source: Source, style: CardStyle | None, overrides: Overrides = NONE,
+            style_problems: tuple[Problem, ...] = ()) -> Prepared:
+    """Validate `source` with the style's settings and `overrides`, compute it once, and build its table."""
+    where = str(source.path or "")
+    if source.data is None:
+        return Prepared(source.path, source.fingerprint, style, None, None, None, source.problems, style_problems)
+    data, origins = _merged(source.data, style, overrides)
+    profile, found = profile_from_data(data)
+    problems = [_relabel(p, origins).in_file(where) for p in found]
+    results = table = None
+    if profile is not None:
+        results = compute(profile)
+        problems += [p.in_file(where) for p in physics_checks(profile, results)]
+    if style is None:
+        problems += [p for p in style_problems if p.is_error]
+    if any(p.is_error for p in problems):
+        profile = results = None
+    else:
+        table = build(profile, results=results)
+    return Prepared(source.path, source.fingerprint, style, profile, results, table, tuple(problems),
+                    style_problems)
+
+
+def prepare_file(path: Path, styles: Styles) -> Prepared:
+    """Read the profile file at `path` and prepare it with its style by the one rule."""
+    style, style_problems = styles.for_profile(path)
+    return prepare(read_source(Path(path)), style, styles.overrides, style_problems)
+
+
+def prepare_text(text: str, style: CardStyle, overrides: Overrides = NONE, path: Path | None = None) -> Prepared:
+    """A profile given as text (a test, a template) through the same pipeline."""
+    return prepare(source_from_text(text, path), style, overrides)
+
+
+# --- the card ---------------------------------------------------------------------------------------------------
+
+
+def make_card(prepared: Prepared, made_on: str | None = None):
+    """The laid-out card of a prepared profile; raises LayoutError when it cannot be printed legibly."""
+    from kneeboard.card import Card, layout_card
+    from kneeboard.card.logo import logo_png
+
+    if prepared.table is None:
+        raise ValueError("a profile with errors has no card")
+    layout = layout_card(prepared.table, prepared.style, prepared.fingerprint, made_on or today(),
+                         logo_png(prepared.style.logo))
+    return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint)
+
+
+def today() -> str:
+    """The date a card is made, as printed on it."""
+    return date.today().isoformat()
+
+
+def card_pdf(card) -> bytes:
+    """The PDF of one card: what is previewed, exported and printed."""
+    from kneeboard.card import card_pdf as draw
+
+    return draw(card)
+
+
+def fleet_pdf(cards, sheet: str | None = None) -> bytes:
+    """Every card in one PDF, page after page or imposed on `sheet` ("letter" | "a4")."""
+    from kneeboard.card import fleet_pdf as draw
+
+    return draw(cards, sheet)
+
+
+# --- the reports ------------------------------------------------------------------------------------------------
+
+REPORTS = {"text": report.to_text, "csv": report.to_csv, "json": report.to_json}
+
+
+def report_text(prepared: Prepared, form: str) -> str:
+    """The table as "text", "csv" or "json" (see `kneeboard.report`)."""
+    return REPORTS[form](prepared.table)
+
+
+# --- applying style settings and overrides to the data ------------------------------------------------------------
+
+
+def _merged(data: dict, style: CardStyle | None, overrides: Overrides) -> tuple[dict, dict[str, str]]:
+    """A copy of the profile's data with the style's card settings and the overrides written in.
+
+    Returns the data and, for every path written, who wrote it (to name it in problems).
+    """
+    if style is None and overrides == NONE:
+        return data, {}
+    data = copy.deepcopy(data)
+    origins: dict[str, str] = {}
+
+    def card_setting(key: str, value, origin: str) -> None:
+        card = data.get("card")
+        if not isinstance(card, dict):
+            card = data["card"] = {}
+        card[key] = value
+        origins[f"card.{key}"] = origin
+
+    if style is not None:
+        if style.bank_angles_deg is not None:
+            card_setting("bank_angles", list(style.bank_angles_deg), "the card style's bank_angles")
+        if style.speed_unit is not None:
+            card_setting("speed_unit", style.speed_unit, "the card style's speed_unit")
+            if style.distance_unit is None and style.speed_unit == "km/h":
+                card_setting("distance_unit", "m", "the card style's speed_unit")
+        if style.distance_unit is not None:
+            card_setting("distance_unit", style.distance_unit, "the card style's distance_unit")
+    if overrides.bank_angles is not None:
+        card_setting("bank_angles", list(overrides.bank_angles), "--bank")
+    if overrides.speed_unit is not None:
+        card_setting("speed_unit", overrides.speed_unit, "--speed-unit")
+        if overrides.distance_unit is None and overrides.speed_unit == "km/h":
+            card_setting("distance_unit", "m", "--speed-unit")
+    if overrides.distance_unit is not None:
+        card_setting("distance_unit", overrides.distance_unit, "--distance-unit")
+    if overrides.weight is not None:
+        data["weight"] = {"total": overrides.weight}
+        origins["weight"] = "--weight"
+    return data, origins
+
+
+def _relabel(problem: Problem, origins: dict[str, str]) -> Problem:
+    """A problem of a value an override or the style wrote names that override."""
+    for path, origin in origins.items():
+        if problem.path == path or problem.path.startswith((path + ".", path + "[")):
+            return replace(problem, path=f"{origin} ({problem.path})")
+    return problem

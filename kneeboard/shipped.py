@@ -1,0 +1,55 @@
+"""What kneeboard ships inside its package: the default card style, the profile templates and the sample fleet.
+
+They live at the top of the repository (`resources/`, `sample_aircraft/`) and travel in the wheel as the data-only
+packages `kneeboard.resources` and `kneeboard.samples`; they are found through `importlib.resources`, never through
+the source tree, so a clone, an editable install and an installed wheel all find the same files.
+
+The installed package is never written to: a person who opens the samples works on a copy in a folder of their own.
+"""
+
+import os
+import shutil
+from importlib.resources import files
+from pathlib import Path
+
+CATEGORIES_WITH_TEMPLATES = ("normal", "utility", "acrobatic", "glider")
+
+
+def _path(package: str, name: str = "") -> Path:
+    # Installed packages are plain folders (pip unpacks wheels), so the traversable is a real path.
+    return Path(os.fspath(files(package).joinpath(name) if name else files(package)))
+
+
+def default_style_path() -> Path:
+    """The shipped default card style."""
+    return _path("kneeboard.resources", "default.style.toml")
+
+
+def template_path(category: str) -> Path:
+    """The template of a new profile of `category` ("normal", "utility", "acrobatic", "glider")."""
+    if category not in CATEGORIES_WITH_TEMPLATES:
+        raise ValueError(f"no template for the category {category!r}")
+    return _path("kneeboard.resources.templates", f"{category}.toml")
+
+
+def samples_folder() -> Path:
+    """The shipped sample fleet (read only: copy it with `copy_samples` before editing)."""
+    return _path("kneeboard.samples")
+
+
+def sample_files() -> list[Path]:
+    return sorted(p for p in samples_folder().iterdir() if p.suffix == ".toml")
+
+
+def copy_samples(destination: Path) -> Path:
+    """Copy the sample fleet into `destination` (created), leaving files already there alone; returns it.
+
+    A person's own edits to an earlier copy are never overwritten.
+    """
+    destination = Path(destination)
+    destination.mkdir(parents=True, exist_ok=True)
+    for source in sample_files():
+        target = destination / source.name
+        if not target.exists():
+            shutil.copyfile(source, target)
+    return destination

@@ -1,0 +1,1 @@
+"""Profile templates, one per category (data only)."""

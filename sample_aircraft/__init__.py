@@ -1,0 +1,1 @@
+"""The sample fleet: invented aircraft that show the file format (data only)."""
