@@ -4,7 +4,8 @@ A profile with errors, or whose card cannot be laid out, is reported and skipped
 still made. Every file is written atomically.
 """
 
-import re
+import itertools
+import unicodedata
 from collections.abc import Callable
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -61,10 +62,27 @@ def make_cards(paths: list[Path], styles: Styles, made_on: str | None = None,
     return batch
 
 
+# Windows refuses these as file names whatever the extension (and the same with a digit, COM1...LPT9).
+_RESERVED = {"CON", "PRN", "AUX", "NUL"} | {f"{d}{n}" for d in ("COM", "LPT") for n in range(10)}
+
+
 def safe_name(registration: str) -> str:
-    """A file name from a registration: letters, digits, '-' and '_' only."""
-    name = re.sub(r"[^A-Za-z0-9_-]+", "_", registration).strip("_.")
-    return name or "card"
+    """A file name from a registration: every letter and digit kept (NFC), '-' and '_'; anything else is '_'.
+
+    So `OK-ŘÍZ` stays `OK-ŘÍZ`, while path separators, control characters and the characters Windows or
+    macOS forbid (`<>:"/\\|?*`) never reach the file system. A run of replaced characters is one '_'.
+    """
+    runs = itertools.groupby(unicodedata.normalize("NFC", registration), key=_kept)
+    name = "".join("".join(chars) if kept else "_" for kept, chars in runs).strip("_")
+    if not any(unicodedata.category(ch)[0] in "LN" for ch in name):
+        return "card"
+    return f"{name}_" if name.upper() in _RESERVED else name
+
+
+def _kept(ch: str) -> bool:
+    # letters with the accents that may follow them as combining marks, and decimal digits of any script
+    category = unicodedata.category(ch)
+    return ch in "-_" or category[0] in "LM" or category == "Nd"
 
 
 def write_fleet(cards: list[Card], out: Path, sheet: str | None = None) -> None:

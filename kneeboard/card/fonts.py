@@ -1,34 +1,239 @@
-"""The card's fonts: Bitstream Vera, shipped with reportlab, embedded in every PDF (its licence allows it).
+"""The card's fonts: Fira Sans regular and bold, embedded (subset) in every PDF, and text measurement.
 
-Text widths come from the font files themselves, so the layout measures exactly what prints.
+Why Fira Sans: its `fontpkg-fira-sans` package on PyPI ships static TrueType files (nothing to instance from
+a variable font), it covers Latin Extended-A and -B, Greek and Cyrillic (every European alphabet in use), it
+was drawn for small sizes on small screens, and it keeps apart the shapes a pilot must not confuse: 1 has a
+flag, l a tail, I is a plain bar, 5/S and 8/B differ in their joins. Its licence is the SIL Open Font
+License 1.1, installed beside the fonts (`fontpkg_fira_sans/LICENSE`).
+
+One change is made to the files: 0 is mapped to the family's own slashed zero (its OpenType `zero` feature,
+which reportlab does not apply by itself), so 0 never reads as O, in a registration least of all. The
+changed fonts are written once with fontTools into the user's cache folder (`$XDG_CACHE_HOME/kneeboard`, or
+`~/.cache/kneeboard`), versioned by the font package's version, atomically; where that folder cannot be
+written they are made in memory for the process. The installed package is never written to.
+
+Text widths come from the same files the PDF embeds, so the layout measures exactly what prints. A character
+the fonts cannot draw is measured and drawn as `substitute()`, so the card marks where one was replaced.
 """
 
+import io
+import os
+import threading
+import unicodedata
 from functools import cache, lru_cache
+from importlib import metadata, resources
+from pathlib import Path
 
 from reportlab.pdfbase import pdfmetrics
-from reportlab.pdfbase.ttfonts import TTFont
+from reportlab.pdfbase.ttfonts import TTFError, TTFont
 
 REGULAR, BOLD = "KbSans", "KbSans-Bold"
-_FILES = {REGULAR: "Vera.ttf", BOLD: "VeraBd.ttf"}
+FONT_PACKAGE = "fontpkg-fira-sans"  #: the distribution that ships the font files and their licence
+_MODULE = "fontpkg_fira_sans"
+_SOURCES = {REGULAR: "FiraSans-Regular.ttf", BOLD: "FiraSans-Bold.ttf"}
+# Bump when _build changes what it writes, so caches made by an older kneeboard are not reused.
+RECIPE = 1
+# Marks for a character the fonts lack, best first: the first one both fonts have is used.
+_SUBSTITUTES = ("\u25a1", "\u25af", "\ufffd", "?")
+
+_lock = threading.Lock()
+
+
+class FontProblem(RuntimeError):
+    """The card fonts cannot be found or read; the message says what to reinstall."""
+
+
+def cache_folder() -> Path:
+    """Where built fonts are kept: `$XDG_CACHE_HOME/kneeboard`, else `~/.cache/kneeboard`."""
+    base = os.environ.get("XDG_CACHE_HOME", "")
+    # the XDG rules say a relative path is invalid and to be ignored
+    root = Path(base) if base and os.path.isabs(base) else Path.home() / ".cache"
+    return root / "kneeboard"
+
+
+def font_version() -> str:
+    """Version of the installed font package (part of the cache key)."""
+    try:
+        return metadata.version(FONT_PACKAGE)
+    except metadata.PackageNotFoundError:
+        raise FontProblem(_missing_package()) from None
+
+
+def _missing_package() -> str:
+    return f"the card fonts ({FONT_PACKAGE}) are not installed; reinstall kneeboard with pip to get them"
+
+
+def source_file(name: str) -> Path:
+    """The installed, unchanged font file behind `name` (REGULAR or BOLD)."""
+    try:
+        root = resources.files(_MODULE)
+    except ModuleNotFoundError:
+        raise FontProblem(_missing_package()) from None
+    path = Path(str(root / "files" / _SOURCES[name]))
+    if not path.is_file():
+        raise FontProblem(f"{path}: font file missing; reinstall {FONT_PACKAGE}")
+    return path
+
+
+def licence_file() -> Path:
+    """The font's licence (SIL Open Font License 1.1) as installed with the font package."""
+    return Path(str(resources.files(_MODULE) / "LICENSE"))
+
+
+def cached_file(name: str) -> Path:
+    """Where the built font of `name` lives in the cache (it may not exist yet)."""
+    folder = f"fonts-{FONT_PACKAGE.removeprefix('fontpkg-')}-{font_version()}-r{RECIPE}"
+    return cache_folder() / folder / _SOURCES[name]
+
+
+def _build(source: Path) -> bytes:
+    """The font file with 0 mapped to the family's slashed zero; everything else as shipped."""
+    from fontTools.ttLib import TTFont as FontFile
+
+    # lazy: tables we do not touch are copied as they are (the layout tables are read from a second copy, as
+    # reading them would make the first write them anew: a second and a half); no timestamp change, so the
+    # bytes (and every PDF that embeds them) are the same wherever and whenever the cache was made
+    font = FontFile(source, lazy=True, recalcTimestamp=False)
+    slashed = _feature_glyph(FontFile(source, lazy=True), "zero", font.getBestCmap().get(ord("0")))
+    if slashed is not None:
+        for table in font["cmap"].tables:
+            if table.isUnicode() and ord("0") in table.cmap:
+                table.cmap[ord("0")] = slashed
+    buf = io.BytesIO()
+    font.save(buf)
+    return buf.getvalue()
+
+
+def _feature_glyph(font, tag: str, glyph: str | None) -> str | None:
+    """The glyph that OpenType feature `tag` puts in place of `glyph` (single substitution), if any."""
+    if glyph is None or "GSUB" not in font:
+        return None
+    table = font["GSUB"].table
+    for record in table.FeatureList.FeatureRecord:
+        if record.FeatureTag != tag:
+            continue
+        for index in record.Feature.LookupListIndex:
+            for sub in table.LookupList.Lookup[index].SubTable:
+                sub = getattr(sub, "ExtSubTable", sub)  # an extension lookup wraps the real one
+                mapping = getattr(sub, "mapping", None)
+                if mapping and glyph in mapping:
+                    return mapping[glyph]
+    return None
+
+
+def _load(name: str) -> tuple[TTFont, bytes]:
+    """The reportlab font of `name` and its file's bytes: from the cache, else built (and cached if it can be)."""
+    from kneeboard.fileio import FileProblem, write_atomic
+
+    cached = cached_file(name)
+    try:
+        data = cached.read_bytes()
+        return TTFont(name, io.BytesIO(data), validate=1), data  # checksums: a damaged file is rebuilt
+    except (OSError, TTFError):
+        pass
+    data = _build(source_file(name))
+    try:
+        cached.parent.mkdir(parents=True, exist_ok=True)
+        write_atomic(cached, data)
+    except (OSError, FileProblem):
+        pass  # a read-only home or cache: the fonts live in memory for this process
+    return TTFont(name, io.BytesIO(data)), data
+
+
+_files: dict[str, bytes] = {}
 
 
 @cache
 def register() -> None:
     """Register the fonts with reportlab once per process."""
-    for name, file in _FILES.items():
-        pdfmetrics.registerFont(TTFont(name, file))
+    with _lock:
+        for name in _SOURCES:
+            font, _files[name] = _load(name)
+            pdfmetrics.registerFont(font)
+
+
+def font_bytes(name: str) -> bytes:
+    """The font file registered as `name`, whose subsets the PDFs embed and whose widths the layout uses."""
+    register()
+    return _files[name]
+
+
+@cache
+def _drawable() -> frozenset[int]:
+    """Code points both card fonts have a glyph for."""
+    register()
+    regular, bold = (pdfmetrics.getFont(name).face.charToGlyph for name in (REGULAR, BOLD))
+    return frozenset(c for c in regular if regular[c] and bold.get(c))
+
+
+@cache
+def substitute() -> str:
+    """The visible mark drawn in place of a character the fonts cannot draw."""
+    have = _drawable()
+    return next(s for s in _SUBSTITUTES if ord(s) in have)
+
+
+def _invisible(ch: str) -> bool:
+    """Whitespace, format characters (joiners, marks of direction) and variation selectors: no ink of their own."""
+    return ch.isspace() or _silent(ch)
+
+
+def _silent(ch: str) -> bool:
+    c = ord(ch)
+    return unicodedata.category(ch) == "Cf" or 0xFE00 <= c <= 0xFE0F or 0xE0100 <= c <= 0xE01EF
+
+
+def missing(text: str) -> list[str]:
+    """The distinct characters of `text` the card fonts cannot draw, in order of first appearance.
+
+    Whitespace and line breaks never count; the text is compared in its composed form (NFC), so a letter
+    typed as a base and a combining accent counts as the letter.
+    """
+    have = _drawable()
+    found: dict[str, None] = {}
+    for ch in unicodedata.normalize("NFC", text):
+        if ord(ch) not in have and not _invisible(ch):
+            found.setdefault(ch)
+    return list(found)
+
+
+@lru_cache(maxsize=8192)
+def printable(text: str) -> str:
+    """`text` as the card draws and measures it: composed (NFC), each missing character replaced by the mark.
+
+    Whitespace the fonts lack prints as a space; format characters and variation selectors they lack are
+    left out (an emoji and its selector make one mark, not two).
+    """
+    if text.isascii() and text.isprintable():
+        return text  # Fira Sans has every printable ASCII character (a test pins this)
+    have = _drawable()
+    out = []
+    for ch in unicodedata.normalize("NFC", text):
+        if ord(ch) in have:
+            out.append(ch)
+        elif ch.isspace():
+            out.append(" ")
+        elif not _silent(ch):
+            out.append(substitute())
+    return "".join(out)
 
 
 @lru_cache(maxsize=8192)
 def width(text: str, font: str, size: float) -> float:
-    """Advance width of `text` [pt]."""
+    """Advance width of `text` as printed [pt]."""
     register()
-    return pdfmetrics.stringWidth(text, font, size)
+    return pdfmetrics.stringWidth(printable(text), font, size)
+
+
+@cache
+def _cap_height() -> float:
+    register()
+    return pdfmetrics.getFont(REGULAR).face.capHeight / 1000
 
 
 def ascent(size: float) -> float:
-    """Height of capitals above the baseline, close enough for placing text in boxes [pt]."""
-    return 0.73 * size
+    """Height of capitals above the baseline, from the font, for placing text in boxes [pt]."""
+    return _cap_height() * size
 
 
 def wrap(text: str, font: str, size: float, max_width: float) -> list[str]:

@@ -81,7 +81,8 @@ def _texts(c: Canvas, texts: list[Text]) -> None:
             w = fonts.width(op.text, op.font, op.size)
             x -= w if op.align == "right" else w / 2
         t.setTextOrigin(x, op.y)
-        t.textOut(op.text)
+        # the same substitution fonts.width measured with, so a replaced character is marked, not lost
+        t.textOut(fonts.printable(op.text))
     c.drawText(t)
 
 
