@@ -7,15 +7,14 @@ import unicodedata
 
 import pypdfium2 as pdfium
 import pytest
-from card_helpers import MADE_ON, default_style
+from card_helpers import card_from_text, default_style
 from fontTools.ttLib import TTFont as FontFile
 from pypdf import PdfReader
 
-from kneeboard.card import build_card, card_pdf, fonts
+from kneeboard.card import card_pdf, fonts
 from kneeboard.card.geometry import LARGE_CARDS
 from kneeboard.card.ops import FIGURE, Text
 from kneeboard.export import safe_name, write_each
-from kneeboard.profile_io import profile_from_text
 
 # Invented clubs and aircraft, one per script or language with letters beyond Latin-1.
 LANGUAGES = {
@@ -44,11 +43,8 @@ notes = "{notes}"
 
 
 def make_card(model, notes, registration="OK-ŘÍZ", configuration="Flaps up", size="a5"):
-    loaded = profile_from_text(PROFILE.format(registration=registration, model=model, notes=notes,
-                                              configuration=configuration))
-    assert loaded.errors == [], loaded.errors
-    style = default_style().with_changes(size=size)
-    return build_card(loaded.profile, style, loaded.fingerprint, made_on=MADE_ON)
+    text = PROFILE.format(registration=registration, model=model, notes=notes, configuration=configuration)
+    return card_from_text(text, default_style().with_changes(size=size))
 
 
 def extracted(data: bytes) -> str:
