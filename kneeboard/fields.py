@@ -9,7 +9,7 @@ uses) carrying it through `compute`.
 from dataclasses import dataclass
 
 from kneeboard import units
-from kneeboard.profile import CATEGORIES, SPEED_BASES
+from kneeboard.profile import CATEGORIES, EXTENDED, SPEED_BASES
 
 KT = 1852.0 / 3600.0  # [m/s]
 FT = 0.3048  # [m]
@@ -68,8 +68,11 @@ FIELDS: tuple[Field, ...] = (
           help="The weight the flight manual's stall speeds apply to."),
     Field("aircraft", "limit_load_factor", NUMBER, "Limit load factor", "default for the category",
           bounds=(1.0, 20.0, "a number above 1 and at most 20, e.g. 3.8")),
-    Field("aircraft", "maneuvering_speed", QUANTITY, "Maneuvering speed VA", "optional, at that weight",
-          quantity=units.SPEED, bounds=SPEED_RANGE),
+    Field("aircraft", "maneuvering_speed", QUANTITY, "Maneuvering speed VA", "optional",
+          quantity=units.SPEED, bounds=SPEED_RANGE,
+          help="The design VA. At a lighter weight the card scales it down; it is never raised above this figure."),
+    Field("aircraft", "maneuvering_speed_weight", QUANTITY, "VA published at", "default: the speeds' weight",
+          quantity=units.MASS, bounds=MASS_RANGE, help="The weight the flight manual gives VA for."),
     Field("aircraft", "speed_basis", CHOICE, "Speeds given as", options=SPEED_BASES,
           help="Whether the file's speeds are indicated (IAS) or calibrated (CAS) airspeeds."),
     Field("aircraft", "calibration", PAIRS, "Calibration, flaps up", columns=("IAS", "CAS"),
@@ -94,6 +97,12 @@ FIELDS: tuple[Field, ...] = (
           bounds=SPEED_RANGE),
     Field("configuration", "calibration", PAIRS, "Calibration", columns=("IAS", "CAS"),
           help="This configuration's own calibration table; without one the flaps-up table is used."),
+    Field("configuration", "extended", CHOICE, "Extended", options=EXTENDED,
+          help="Flaps (the default when a flap limit is given) or air brakes lower the limit load factor "
+               "(14 CFR 23.345: +2.0 for aeroplanes; CS 22.345: +4.0 with landing flaps, +3.5 with air brakes)."),
+    Field("configuration", "limit_load_factor", NUMBER, "Limit load factor", "default: by the regulation",
+          bounds=(1.0, 20.0, "a number above 1 and at most 20, e.g. 2.0"),
+          help="The flight manual's own limit load factor in this configuration, if it gives one."),
     # --- a glider's polar ---
     Field("glider", "polar_weight", QUANTITY, "Measured at", 'e.g. "400 kg"', required=True, quantity=units.MASS,
           bounds=MASS_RANGE),

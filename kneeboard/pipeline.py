@@ -18,11 +18,12 @@ The fingerprint printed on a card is always that of the profile file's own data,
 """
 
 import copy
+import re
 from dataclasses import dataclass, field, replace
 from datetime import date
 from pathlib import Path
 
-from kneeboard import report
+from kneeboard import fields, report
 from kneeboard.card.style import CardStyle, fleet_style_path, load_style
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
@@ -127,7 +128,7 @@ def prepare(source: Source, style: CardStyle | None, overrides: Overrides = NONE
     if any(p.is_error for p in problems):
         profile = results = None
     else:
-        table = build(profile, results=results)
+        table = build(profile, results=results, warnings=tuple(warning_line(p, profile) for p in problems))
     return Prepared(source.path, source.fingerprint, style, profile, results, table, tuple(problems),
                     style_problems)
 
@@ -185,6 +186,24 @@ REPORTS = {"text": report.to_text, "csv": report.to_csv, "json": report.to_json}
 def report_text(prepared: Prepared, form: str) -> str:
     """The table as "text", "csv" or "json" (see `kneeboard.report`)."""
     return REPORTS[form](prepared.table)
+
+
+# --- warnings as the card prints them --------------------------------------------------------------------------
+
+
+def warning_line(problem: Problem, profile: Profile) -> str:
+    """A warning as a line a pilot reads on the card: "WARNING Flaps 30, fixed speed: ...", no file paths."""
+    where = problem.path
+    m = re.match(r"configuration\[(\d+)\](?:\.(\w+))?(.*)", where)
+    if m and int(m.group(1)) <= len(profile.configurations):
+        name = profile.configurations[int(m.group(1)) - 1].name
+        key = m.group(2)
+        label = fields.BY_PATH[f"configuration.{key}"].label.lower() if f"configuration.{key}" in fields.BY_PATH \
+            else (key or "")
+        where = f"{name}, {label}{m.group(3)}" if label else name
+    elif where in fields.BY_PATH:
+        where = fields.BY_PATH[where].label.lower()
+    return f"WARNING {where}: {problem.message}"
 
 
 # --- applying style settings and overrides to the data ------------------------------------------------------------

@@ -12,6 +12,9 @@ CATEGORIES = ("normal", "utility", "acrobatic", "glider")
 SPEED_BASES = ("IAS", "CAS")
 DEFAULT_BANKS_DEG = (0.0, 15.0, 30.0, 45.0, 60.0)
 DEFAULT_PATTERN_FACTOR = 1.4
+#: What a configuration has extended, for its limit load factor (14 CFR 23.345; CS 22.345).
+NOTHING, FLAPS, AIR_BRAKES = "nothing", "flaps", "air brakes"
+EXTENDED = (NOTHING, FLAPS, AIR_BRAKES)
 AVGAS_DENSITY = 720.0  #: default fuel density [kg/m^3] (aviation gasoline, about 0.72 kg/L)
 
 
@@ -36,6 +39,8 @@ class Configuration:
     pattern_speed: float | None = None  #: fixed pattern speed [m/s], instead of the factor
     flap_limit_speed: float | None = None  #: VFE [m/s]
     calibration: Calibration | None = None  #: own table; None uses the aircraft's
+    extended: str = NOTHING  #: one of EXTENDED: flaps when a VFE is given, unless the file says otherwise
+    limit_load_factor: float | None = None  #: the flight manual's own limit in this configuration [-]
 
 
 @dataclass(frozen=True)
@@ -72,7 +77,8 @@ class Aircraft:
     max_weight: float  #: [kg]
     reference_weight: float  #: weight the published speeds apply to [kg]
     limit_load_factor: float | None  #: positive limit manoeuvring load factor [-]; None: the category's
-    maneuvering_speed: float | None = None  #: VA at reference weight [m/s]
+    maneuvering_speed: float | None = None  #: design VA [m/s], published at maneuvering_speed_weight
+    maneuvering_speed_weight: float | None = None  #: weight VA is published at [kg]; None: the reference weight
     speed_basis: str = "IAS"  #: how the file's speeds are given, one of SPEED_BASES
     calibration: Calibration | None = None  #: flaps-up table, used by VA and configurations without one
 

@@ -13,6 +13,7 @@ import numpy as np
 
 from kneeboard import units
 from kneeboard.tables import BUFFER, STALL, CardTable
+from kneeboard.texts import CAUTION
 
 JSON_SCHEMA = 1
 
@@ -52,6 +53,8 @@ def to_json_data(table: CardTable) -> dict:
             "pattern_speed": spd(c.pattern_speed),
             "zero_margin_bank_deg": float(np.degrees(c.zero_margin_bank)),
             "buffer_bank_deg": None if c.buffer_bank is None else float(np.degrees(c.buffer_bank)),
+            "limit_load_factor": float(c.limit_load_factor),
+            "limit_bank_deg": float(np.degrees(c.limit_bank)),
             "rows": rows,
         })
     glider = None
@@ -80,11 +83,14 @@ def to_json_data(table: CardTable) -> dict:
         "weight_kg": float(r.weight),
         "speed_unit": su,
         "distance_unit": du,
+        "over_max_weight": bool(r.over_max_weight),
         "limit_load_factor": float(r.limit_load_factor),
         "limit_bank_deg": float(np.degrees(r.limit_bank)),
         "maneuvering_speed": spd(r.maneuvering_speed),
         "configurations": configurations,
         "glider": glider,
+        "warnings": list(table.warnings),
+        "caution": CAUTION,
     }
 
 
@@ -96,8 +102,6 @@ def _mark(row) -> str:
     marks = {STALL: "STALL", BUFFER: "<buffer"}.get(row.state, "")
     if row.over_limit:
         marks += " >limit"
-    if row.extrapolated:
-        marks += " ~cal"
     return marks.strip()
 
 
@@ -110,14 +114,21 @@ def to_csv(table: CardTable) -> str:
                 f"pattern_speed_{su}", f"margin_{su}", f"turn_radius_{du}", "time_180_s", "time_360_s", "note"])
     for c in table.configurations:
         for row in c.rows:
+            turn = _turn(row)
             w.writerow([table.registration, c.name, row.bank_text, row.load_factor.text, row.stall_speed.text,
-                        c.pattern_speed.text, row.margin.text, _text(row.turn_radius), _text(row.time_180),
-                        _text(row.time_360), _mark(row)])
+                        c.pattern_speed.text, row.margin.text, *turn, _mark(row)])
     return out.getvalue()
 
 
 def _text(printed) -> str:
     return "" if printed is None else printed.text
+
+
+def _turn(row) -> list[str]:
+    """Radius and the 180/360 degree times as the card prints them: nothing where the configuration has stalled."""
+    if row.state == STALL:
+        return ["", "", ""]
+    return [_text(row.turn_radius), _text(row.time_180), _text(row.time_360)]
 
 
 def to_text(table: CardTable) -> str:
@@ -144,9 +155,10 @@ def to_text(table: CardTable) -> str:
             f"{'deg':>5} {'':>5} {su:>6} {su:>7} {du:>7} {'s':>5} {'s':>5}",
         ]
         for row in c.rows:
+            radius, t180, t360 = _turn(row)
             lines.append(
                 f"{row.bank_text:>5} {row.load_factor.text:>5} {row.stall_speed.text:>6} {row.margin.text:>7} "
-                f"{_text(row.turn_radius):>7} {_text(row.time_180):>5} {_text(row.time_360):>5}  {_mark(row)}"
+                f"{radius:>7} {t180:>5} {t360:>5}  {_mark(row)}"
             )
     if table.glider:
         g = table.glider

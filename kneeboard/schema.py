@@ -12,6 +12,7 @@ import unicodedata
 
 from kneeboard import fields, units
 from kneeboard.fields import (
+    MAX_BANK_DEG,
     OAT_RANGE,
     SINK_RANGE,
     SPEED_RANGE,
@@ -21,6 +22,8 @@ from kneeboard.profile import (
     AVGAS_DENSITY,
     DEFAULT_BANKS_DEG,
     DEFAULT_PATTERN_FACTOR,
+    FLAPS,
+    NOTHING,
     Aircraft,
     Calibration,
     CardSettings,
@@ -230,6 +233,7 @@ def _read_aircraft(r, data):
     reference = r.read("aircraft.reference_weight", a)
     n_limit = r.read("aircraft.limit_load_factor", a)
     va = r.read("aircraft.maneuvering_speed", a)
+    va_weight = r.read("aircraft.maneuvering_speed_weight", a)
     basis = r.read("aircraft.speed_basis", a, default="IAS")
     calibration = r.calibration(a, "aircraft.calibration")
     if max_weight is None:
@@ -242,6 +246,7 @@ def _read_aircraft(r, data):
         reference_weight=max_weight if reference is None else reference,
         limit_load_factor=n_limit,
         maneuvering_speed=va,
+        maneuvering_speed_weight=va_weight,
         speed_basis=basis,
         calibration=calibration,
     )
@@ -319,18 +324,17 @@ def _read_configurations(r, data):
         fixed = r.read("configuration.pattern_speed", c, f"{path}.pattern_speed")
         if "pattern_factor" in c and "pattern_speed" in c:
             r.problem(path, "gives both pattern_factor and pattern_speed", "one of them, never both")
-        if factor is not None and factor < 1.3:
-            r.problem(
-                f"{path}.pattern_factor", "is below 1.3, the least usual approach speed factor (FAA-H-8083-3)",
-                "1.3 or more", c["pattern_factor"], WARNING,
-            )
         vfe = r.read("configuration.flap_limit_speed", c, f"{path}.flap_limit_speed")
         calibration = r.calibration(c, f"{path}.calibration")
+        extended = r.read("configuration.extended", c, f"{path}.extended",
+                          default=FLAPS if vfe is not None else NOTHING)
+        n_limit = r.read("configuration.limit_load_factor", c, f"{path}.limit_load_factor")
         if stall is None:
             continue
         if fixed is None and factor is None:
             factor = DEFAULT_PATTERN_FACTOR
-        result.append(Configuration(name, stall, None if fixed is not None else factor, fixed, vfe, calibration))
+        result.append(Configuration(name, stall, None if fixed is not None else factor, fixed, vfe, calibration,
+                                    extended, n_limit))
     return result
 
 
@@ -402,13 +406,14 @@ def _read_banks(r, c):
     if "bank_angles" not in c:
         return DEFAULT_BANKS_DEG
     raw = c["bank_angles"]
-    wanted = f"a list of 1 to {MAX_BANKS} bank angles in degrees, each 0 <= b < 90, e.g. [0, 15, 30, 45, 60]"
+    wanted = (f"a list of 1 to {MAX_BANKS} bank angles in degrees, each from 0 to {MAX_BANK_DEG:g}, "
+              "e.g. [0, 15, 30, 45, 60]")
     if not isinstance(raw, list) or not 1 <= len(raw) <= MAX_BANKS:
         r.problem("card.bank_angles", "must be a list of numbers", wanted, raw)
         return DEFAULT_BANKS_DEG
     banks = []
     for i, b in enumerate(raw, start=1):
-        if isinstance(b, bool) or not isinstance(b, (int, float)) or not (_finite(b) and 0 <= b < 90):
+        if isinstance(b, bool) or not isinstance(b, (int, float)) or not (_finite(b) and 0 <= b <= MAX_BANK_DEG):
             r.problem(f"card.bank_angles[{i}]", "is not a bank angle a level turn can hold", wanted, b)
             continue
         banks.append(float(b))
@@ -450,8 +455,10 @@ def _cross_checks(r, profile):
     """Checks that need more than one field; the ones needing flight mechanics live in `kneeboard.checks`."""
     a = profile.aircraft
     if profile.weight > a.max_weight * (1 + 1e-9):
+        unit = profile.card.weight_unit
         r.problem(
-            "weight", f"{profile.weight:.0f} kg is above the maximum weight of {a.max_weight:.0f} kg",
+            "weight", f"{units.format_quantity(profile.weight, units.MASS, unit)} is above the maximum weight of "
+            f"{units.format_quantity(a.max_weight, units.MASS, unit)}; limit loads are reduced in proportion",
             "a weight at or below aircraft.max_weight", severity=WARNING,
         )
     if a.reference_weight > a.max_weight * (1 + 1e-9):

@@ -11,6 +11,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from kneeboard import rounding, units
+from kneeboard.aero import turns
 from kneeboard.compute import Results, compute
 from kneeboard.profile import Profile
 
@@ -50,9 +51,8 @@ class BankRow:
     load_factor: Printed  #: rounded up
     stall_speed: Printed  #: rounded up
     margin: Printed  #: rounded down; negative when stalled
-    state: str  #: OK, BUFFER (margin below the buffer) or STALL (no margin left)
-    over_limit: bool  #: load factor above the limit load factor
-    extrapolated: bool  #: the calibration table was extrapolated for this stall speed
+    state: str  #: OK, BUFFER (printed margin below the printed buffer) or STALL (printed margin 0 or less)
+    over_limit: bool  #: load factor above this configuration's limit load factor
     turn_radius: Printed | None  #: at the pattern speed, rounded up; None at 0 bank
     time_180: Printed | None  #: [s] rounded up
     time_360: Printed | None  #: [s] rounded up
@@ -62,10 +62,12 @@ class BankRow:
 class ConfigurationTable:
     name: str
     stall_speed: Printed  #: wings level at the card weight, rounded up
-    pattern_speed: Printed  #: rounded up: flying the printed figure keeps at least the printed margin
-    zero_margin_bank: Printed  #: rounded down
-    buffer_bank: Printed | None  #: rounded down; None when the wings-level margin is below the buffer
+    pattern_speed: Printed  #: rounded up; every printed margin and bank is taken from this, the speed flown
+    zero_margin_bank: Printed  #: at the printed pattern speed, rounded down
+    buffer_bank: Printed | None  #: at the printed pattern speed, rounded down; None: below the buffer wings level
     flap_limit_speed: Printed | None  #: rounded down
+    limit_load_factor: Printed  #: this configuration's, at the card weight, rounded down
+    limit_bank: Printed  #: its level-turn bank, rounded down
     rows: tuple[BankRow, ...]
 
 
@@ -125,10 +127,11 @@ class CardTable:
     notes: str
     results: Results  #: full precision, for machine output
     curves: tuple[Curve, ...]  #: for the chart
+    warnings: tuple[str, ...] = ()  #: every warning about this card, one line each, printed on every page
 
 
 def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_unit=None,
-          distance_unit=None, results: Results | None = None) -> CardTable:
+          distance_unit=None, results: Results | None = None, warnings: tuple[str, ...] = ()) -> CardTable:
     """Turn the results of `profile` into printed figures; units default to the profile's card settings.
 
     `results` are those of `compute(profile)` when the caller has them already (the pipeline does, so a card runs
@@ -151,8 +154,8 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
     def mass(x):
         return float(units.from_si(x, units.MASS, wu))
 
-    configurations = tuple(_configuration(r, card.buffer, results.limit_load_factor, spd, dist)
-                           for r in results.configurations)
+    buffer = _up(spd(card.buffer))
+    configurations = tuple(_configuration(r, buffer, spd, dist, su) for r in results.configurations)
     glider = None
     if results.glider is not None:
         g = results.glider
@@ -190,7 +193,7 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
                                  rounding.text(rounding.nearest(mass(results.reference_weight)), 1)),
         max_weight=_down(mass(results.max_weight)),
         over_max_weight=results.over_max_weight,
-        buffer=_up(spd(card.buffer)),
+        buffer=buffer,
         limit_load_factor=_down(results.limit_load_factor, 0.1),
         limit_bank=_down(math.degrees(results.limit_bank)),
         maneuvering_speed=None if results.maneuvering_speed is None else _down(spd(results.maneuvering_speed)),
@@ -202,6 +205,7 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
         notes=card.notes,
         results=results,
         curves=_curves(results, su),
+        warnings=tuple(warnings),
     )
 
 
@@ -225,32 +229,42 @@ def _bank_text(bank_rad: float) -> str:
     return f"{rounding.down(math.degrees(bank_rad), 0.01):.2f}".rstrip("0").rstrip(".")
 
 
-def _configuration(r, buffer: float, n_limit: float, spd, dist) -> ConfigurationTable:
+def _configuration(r, buffer: Printed, spd, dist, speed_unit: str) -> ConfigurationTable:
+    """One configuration's printed figures. Margins and banks come from the printed pattern speed, the speed the
+    pilot flies: printed pattern - printed stall = printed margin on every row (stall up, so margins err low)."""
+    pattern = _up(spd(r.pattern_speed))
+    vp = units.to_si(pattern.value, units.SPEED, speed_unit)  # the printed figure, back in m/s
     rows = []
     for i, b in enumerate(r.bank):
-        margin = float(r.margin[i])
-        state = STALL if margin <= 0.0 else BUFFER if margin < buffer else OK
+        stall = _up(spd(r.stall_speed[i]))
+        margin = pattern.value - stall.value
+        state = STALL if margin <= 0.0 else BUFFER if margin < buffer.value else OK
         bank_text = _bank_text(b)
         level = bank_text == "0"  # a row printed as wings level shows no turn, whatever the hundredths hid
         rows.append(BankRow(
             bank_deg=float(np.degrees(b)),
             bank_text=bank_text,
             load_factor=_up(float(r.load_factor[i]), LOAD_STEP),
-            stall_speed=_up(spd(r.stall_speed[i])),
-            margin=_down(spd(margin)),
+            stall_speed=stall,
+            margin=Printed(margin, rounding.text(margin, SPEED_STEP)),
             state=state,
-            over_limit=bool(r.load_factor[i] > n_limit),
-            extrapolated=bool(r.stall_extrapolated[i]),
+            over_limit=bool(r.over_limit[i]),
             turn_radius=None if level else _finite_up(dist(r.turn_radius[i])),
             time_180=None if level else _finite_up(float(r.time_180[i])),
             time_360=None if level else _finite_up(float(r.time_360[i])),
         ))
+    vb = vp - units.to_si(buffer.value, units.SPEED, speed_unit)
+    buffer_bank = None
+    if vb >= r.level_stall_speed:
+        buffer_bank = _down(math.degrees(float(turns.bank_at_stall_speed(r.level_stall_speed, vb))))
     return ConfigurationTable(
         name=r.name,
         stall_speed=_up(spd(r.level_stall_speed)),
-        pattern_speed=_up(spd(r.pattern_speed)),
-        zero_margin_bank=_down(math.degrees(r.zero_margin_bank)),
-        buffer_bank=None if r.buffer_bank is None else _down(math.degrees(r.buffer_bank)),
+        pattern_speed=pattern,
+        zero_margin_bank=_down(math.degrees(float(turns.bank_at_stall_speed(r.level_stall_speed, vp)))),
+        buffer_bank=buffer_bank,
         flap_limit_speed=None if r.flap_limit_speed is None else _down(spd(r.flap_limit_speed)),
+        limit_load_factor=_down(r.limit_load_factor, 0.1),
+        limit_bank=_down(math.degrees(r.limit_bank)),
         rows=tuple(rows),
     )

@@ -20,27 +20,41 @@ CAUTION = (
 #: The formulas behind every figure, and where each comes from (the README's table), for the app's help.
 FORMULAS_HTML = """\
 <h3>Where each figure comes from</h3>
-<p>Physics works in calibrated airspeed (CAS); the card prints indicated airspeed (IAS). Without a calibration
-table IAS is taken equal to CAS.</p>
+<p><b>Every stall happens at one angle of attack</b>, whatever the bank or the weight, and the airspeed
+indicator's position error follows the angle of attack. So the indicated stall speed rises with the bank and the
+weight exactly as the calibrated one does (flight manuals' stall-speed-by-bank tables list IAS and CAS each rising
+by &radic;n). The flight manual's calibration table is a 1-g table: it converts the published stall speed to the
+basis the file does not give, and the speeds flown at 1 g (pattern speed, VA, VFE). Without a table IAS is taken
+equal to CAS.</p>
 <table border="1" cellspacing="0" cellpadding="4">
 <tr><th align="left">figure</th><th align="left">formula</th><th align="left">source</th></tr>
 <tr><td>load factor in a level, coordinated turn</td><td>n = 1 / cos(bank)</td>
 <td>FAA-H-8083-25 (Pilot's Handbook of Aeronautical Knowledge), load factor chart</td></tr>
-<tr><td>stall speed in a bank</td><td>Vs(bank) = Vs &radic;n</td>
-<td>FAA-H-8083-25, &ldquo;Load Factors and Stalling Speeds&rdquo;</td></tr>
-<tr><td>stall speed and VA at weight</td><td>&times; &radic;(W / Wref)</td><td>lift equation; FAA-H-8083-25</td></tr>
-<tr><td>pattern speed</td><td>factor &times; wings-level stall speed at the card weight (1.4 default, 1.3 least)</td>
-<td>FAA-H-8083-3 (Airplane Flying Handbook), ch. 9</td></tr>
-<tr><td>margin</td><td>pattern speed &minus; stall speed in the bank, IAS</td><td>definition</td></tr>
-<tr><td>zero-margin bank</td><td>arccos((Vs / Vp)&sup2;), in CAS</td><td>from the two lines above</td></tr>
-<tr><td>buffer bank</td><td>bank where the IAS margin equals the buffer</td><td>same</td></tr>
-<tr><td>limit load factor, limit bank</td>
-<td>3.8 / 4.4 / 6.0 (normal / utility / acrobatic), gliders 5.3; bank = arccos(1 / n)</td>
-<td>14 CFR 23.337 before amendment 23-64; EASA CS 22.337</td></tr>
-<tr><td>IAS &harr; CAS</td><td>linear in the manual's calibration table; outside it the end offset is held and
-the figure flagged</td><td>the aircraft's flight manual</td></tr>
-<tr><td>TAS</td><td>CAS &radic;(&rho;0 / &rho;)</td><td>incompressible relation, FAA-H-8083-25</td></tr>
-<tr><td>density, density altitude</td><td>ICAO standard atmosphere, troposphere; &rho; = p / (R T) with the actual
+<tr><td>stall speed in a bank and at a weight</td><td>Vs &times; &radic;n &times; &radic;(W / Wref), in IAS and in
+CAS alike</td><td>FAA-H-8083-25, &ldquo;Load Factors and Stalling Speeds&rdquo;; lift equation</td></tr>
+<tr><td>pattern speed</td><td>a fixed speed, or factor &times; the CAS stall speed at the card weight (1.4 default;
+less than 1.3 in CAS is warned), converted to IAS</td><td>FAA-H-8083-3 (Airplane Flying Handbook), ch. 9</td></tr>
+<tr><td>margin</td><td>printed pattern speed &minus; printed stall speed in the bank (IAS): the printed figures add
+up</td><td>definition</td></tr>
+<tr><td>zero-margin bank</td><td>arccos((Vs / Vp)&sup2;), IAS, at the printed pattern speed</td>
+<td>from the two lines above</td></tr>
+<tr><td>buffer bank</td><td>arccos((Vs / (Vp &minus; buffer))&sup2;), IAS</td><td>same</td></tr>
+<tr><td>limit load factor</td><td>3.8 (less above 4,118 lb) / 4.4 / 6.0 (normal / utility / acrobatic), gliders
+5.3</td><td>14 CFR 23.337 before amendment 23-64; EASA CS 22.337</td></tr>
+<tr><td>limit with flaps or air brakes</td><td>aeroplanes +2.0 with flaps extended; gliders +4.0 with landing flaps,
++3.5 with air brakes; or the flight manual's own figure</td>
+<td>14 CFR 23.345(a)(1) before amendment 23-64; CS 22.345(b)(1), CS 22.345(a)(1)</td></tr>
+<tr><td>limit above the maximum weight</td><td>n<sub>limit</sub> &times; W<sub>max</sub> / W</td>
+<td>the design limit load, n<sub>limit</sub> W<sub>max</sub>, reached sooner</td></tr>
+<tr><td>limit bank</td><td>arccos(1 / n<sub>limit</sub>): where a level turn reaches the structure's limit load
+</td><td>from the load factor</td></tr>
+<tr><td>VA at this weight</td><td>VA &times; &radic;(W / W<sub>VA</sub>) when lighter; never above the published
+VA</td><td>FAA-H-8083-25; 14 CFR 23.1507, CS 22.1507</td></tr>
+<tr><td>IAS &harr; CAS</td><td>linear in the manual's calibration table; outside it the end offset is held and a
+warning printed</td><td>the aircraft's flight manual</td></tr>
+<tr><td>TAS</td><td>from CAS through the impact pressure and the Mach number (compressible, subsonic)</td>
+<td>ICAO Doc 7488; isentropic flow relations</td></tr>
+<tr><td>density, density altitude</td><td>ICAO standard atmosphere to 20 km; &rho; = p / (R T) with the actual
 temperature</td><td>ICAO Doc 7488, U.S. Standard Atmosphere 1976</td></tr>
 <tr><td>turn radius and rate</td><td>R = V&sup2; / (g tan bank), rate = g tan bank / V, V true airspeed</td>
 <td>FAA-H-8083-15 (Instrument Flying Handbook)</td></tr>
@@ -50,6 +64,6 @@ turn speed &times; &radic;n, sink &times; n<sup>1.5</sup></td>
 </table>
 <p>Glider sink rates are true (a variometer reads true sink); polar speeds are read in the file's speed basis.</p>
 <p><b>Rounding on the card is always toward safety:</b> stall speeds, pattern speeds, turn radii, times, sink rates
-and heights round up; margins, banks, VA and flap limits round down, to 1 kt / 1 mph / 1 km/h and 1 degree.
-Rounding happens once, in the table builder.</p>
+and heights round up; margins, banks, VA, limit load factors and flap limits round down, to 1 kt / 1 mph / 1 km/h
+and 1 degree. Every warning is printed on the card, on every page. Rounding happens once, in the table builder.</p>
 """

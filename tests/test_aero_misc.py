@@ -50,10 +50,41 @@ def test_default_limit_load_follows_the_regulation_for_heavy_normal_aeroplanes()
     assert limits.default_limit_load("utility", 6000 * 0.45359237) == pytest.approx(4.4)
 
 
-def test_maneuvering_speed_falls_with_weight():
-    # FAA-H-8083-25B chapter 8 (from memory): VA falls with weight, as sqrt(W / Wref).
-    va = limits.maneuvering_speed_at_weight(100.0, 1000.0, 1250.0)
-    assert va == pytest.approx(100 * math.sqrt(0.8))
+def test_maneuvering_speed_falls_with_weight_as_in_the_handbook_example():
+    # FAA-H-8083-25B chapter 8 (example from memory): "100 kt heavy, 90 kt light"; a 19 % lighter aeroplane
+    # (0.9^2 = 0.81 of the weight) has a 10 % lower VA.
+    assert limits.maneuvering_speed_at_weight(100.0, 810.0, 1000.0) == pytest.approx(90.0)
+
+
+@given(va=st.floats(20, 150), weight=st.floats(100, 6000), va_weight=st.floats(100, 6000))
+def test_maneuvering_speed_is_never_above_the_published_one(va, weight, va_weight):
+    # 14 CFR 23.1507; CS 22.1507: the operating VA may not exceed the design VA.
+    assert limits.maneuvering_speed_at_weight(va, weight, va_weight) <= va * (1 + 1e-12)
+
+
+@given(n=st.floats(1.5, 9), weight=st.floats(100, 6000), max_weight=st.floats(100, 6000))
+def test_overweight_limit_never_above_the_design_limit(n, weight, max_weight):
+    # computed from the design limit load at the maximum weight: n W_max / W above it, n at or below
+    got = float(limits.overweight_limit_load(n, weight, max_weight))
+    assert got <= n * (1 + 1e-12)
+    assert got * weight == pytest.approx(n * max_weight) if weight > max_weight else got == n
+
+
+def test_flaps_extended_limits_follow_the_regulations():
+    # 14 CFR 23.345(a)(1) before amendment 23-64: +2.0 with flaps fully extended; CS 22.345(b)(1)(i): +4.0 with
+    # wing-flaps in a landing setting; CS 22.345(a)(1): load factors up to 3.5 with the air brakes extended.
+    assert limits.flaps_limit_load("normal", 3.8) == 2.0
+    assert limits.flaps_limit_load("utility", 4.4) == 2.0
+    assert limits.flaps_limit_load("glider", 5.3) == 4.0
+    assert limits.AIR_BRAKES_LIMIT_LOAD == 3.5
+    assert limits.flaps_limit_load("glider", 3.0) == 3.0  # never above the aircraft's own
+
+
+def test_available_load_factor_at_1_4_vs():
+    # FAA-H-8083-25, "Load Factors and Stalling Speeds": the load factor at which the wing stalls is (V / Vs)^2;
+    # 1.96 g at 1.4 Vs (computed); a 50 kt stall at 100 kt stalls at 4 g (the handbook's own example).
+    assert limits.available_load_factor(1.4 * 50, 50) == pytest.approx(1.96)
+    assert limits.available_load_factor(100, 50) == pytest.approx(4.0)
 
 
 def test_va_is_stall_speed_at_limit_load():

@@ -63,12 +63,33 @@ def test_bank_at_stall_speed_none_below_level_stall():
     assert turns.bank_at_stall_speed(50.0, 50.0) == pytest.approx(0.0)
 
 
-def test_turn_radius_and_rate_si_exact():
-    # R = V^2 / (g tan phi), omega = g tan phi / V (FAA-H-8083-15, Instrument Flying Handbook): SI exactly.
-    v, phi = 61.73, math.radians(30)
-    assert turns.turn_radius(v, phi) == pytest.approx(v**2 / (G0 * math.tan(phi)), rel=1e-12)
-    assert turns.turn_rate(v, phi) == pytest.approx(G0 * math.tan(phi) / v, rel=1e-12)
-    assert turns.turn_time(v, phi, 2 * math.pi) == pytest.approx(2 * math.pi * v / (G0 * math.tan(phi)))
+@pytest.mark.parametrize("v, bank_deg", [(30.0, 15.0), (61.73, 30.0), (45.0, 60.0)])
+def test_turn_radius_and_time_from_a_flown_turn(v, bank_deg):
+    # An independent derivation: fly the level turn step by step. In a coordinated level turn lift balances the
+    # weight (L cos phi = m g), so the sideways force L sin phi turns the velocity: dv/dt = g tan phi, normal to v.
+    # Integrate the path (fourth-order Runge-Kutta) through a full circle and measure its radius and duration.
+    a = G0 * math.tan(math.radians(bank_deg))
+
+    def f(state):
+        x, y, vx, vy = state
+        return np.array([vx, vy, -a * vy / v, a * vx / v])
+
+    state, dt, t, turned = np.array([0.0, 0.0, v, 0.0]), 0.002, 0.0, 0.0
+    points = [state[:2].copy()]
+    while turned < 2 * math.pi:  # the heading change, measured off the velocity vector itself
+        before = math.atan2(state[3], state[2])
+        k1 = f(state)
+        k2 = f(state + dt / 2 * k1)
+        k3 = f(state + dt / 2 * k2)
+        k4 = f(state + dt * k3)
+        state = state + dt / 6 * (k1 + 2 * k2 + 2 * k3 + k4)
+        t += dt
+        turned += (math.atan2(state[3], state[2]) - before + math.pi) % (2 * math.pi) - math.pi
+        points.append(state[:2].copy())
+    pts = np.array(points)
+    diameter = pts[:, 1].max() - pts[:, 1].min()
+    assert turns.turn_radius(v, math.radians(bank_deg)) == pytest.approx(diameter / 2, rel=1e-3)
+    assert turns.turn_time(v, math.radians(bank_deg), 2 * math.pi) == pytest.approx(t, abs=2 * dt)
 
 
 def test_handbook_worked_example_120_kt_30_degrees():

@@ -44,7 +44,7 @@ def test_trainer_labels_and_texts_as_printed():
     assert figures["density altitude"] == "800 ft"
     assert figures["Flaps up · stall"] == "47 kt"
     assert figures["Flaps up · fly (pattern speed)"] == "66 kt"
-    assert figures["Flaps up · 5 kt buffer left at"] == "53°"
+    assert figures["Flaps up · 5 kt buffer left at"] == "54°"
     assert figures["Flaps up · no margin at"] == "59°"
     assert figures["Flaps full · flap limit"] == "85 kt"
     assert "Flaps up · flap limit" not in figures  # None: not printed
@@ -167,15 +167,18 @@ def test_heavier_weight_worse_figures():
     # the pattern speed grows with the stall speed, so the trainer's margins grow: not worse
     assert not [c for c in changes if c.label.endswith("· margin") and c.worse]
 
-    changes = compare(card("demo_retractable"), card("demo_retractable", weight="3100 lb"))
+    banks = (0, 30, 66)
+    before = card("demo_retractable", bank_angles=banks)
+    changes = compare(before, card("demo_retractable", bank_angles=banks, weight="3100 lb"))
     margins = [c for c in changes if c.label.endswith("· margin")]
     assert margins and all(c.worse for c in margins)
-    old_figures = printed_figures(card("demo_retractable"))
-    stalled = {c.label: c for c in changes}["Gear down, flaps 40 · 60° · margin"]
-    assert (stalled.old, stalled.new) == ("2 kt", "-1 kt")  # computed: `kneeboard table`, fixed 76 kt final
+    old_figures = printed_figures(before)
+    stalled = {c.label: c for c in changes}["Gear down, flaps 40 · 66° · margin"]
+    # computed: `kneeboard table ... --bank 0,30,66 --weight "2900 lb"` and `"3100 lb"`, fixed 76 kt CAS final
+    assert (stalled.old, stalled.new) == ("2 kt", "-1 kt")
     assert stalled.worse
     # stalled now: the turns table prints a dash, so its turn figures are no longer printed
-    radius = "Gear down, flaps 40 · 60° · turn radius"
+    radius = "Gear down, flaps 40 · 66° · turn radius"
     assert Change(radius, old_figures[radius], None) in changes
 
 

@@ -59,7 +59,13 @@ def test_negative_weight():
 def test_bank_of_90():
     loaded = load(MINIMAL + "[card]\nbank_angles = [0, 30, 90]\n")
     assert [p.path for p in loaded.errors] == ["card.bank_angles[3]"]
-    assert "0 <= b < 90" in loaded.errors[0].expected
+    assert "from 0 to 85" in loaded.errors[0].expected
+
+
+def test_banks_steeper_than_85_degrees_are_refused():
+    # n = 11.5 at 85 degrees: no figure a card needs lies beyond it
+    assert [p.path for p in load(MINIMAL + "[card]\nbank_angles = [0, 85.001]\n").errors] == ["card.bank_angles[2]"]
+    assert load(MINIMAL + "[card]\nbank_angles = [0, 85]\n").errors == []
 
 
 def test_speed_in_kg():
@@ -288,8 +294,8 @@ def test_calibration_that_turns_a_speed_negative_names_the_table():
 
 def test_bank_printed_rounded_down_never_up():
     # "%.4g" printed 89.9999 as "90" and 87.625 as "87.63", banks the row was not computed for, and 1e-05 as "1e-05".
-    card = card_of(MINIMAL + "[card]\nbank_angles = [0.00001, 12.5, 87.625, 89.9999]\n")
-    assert [row.bank_text for row in card.configurations[0].rows] == ["0", "12.5", "87.62", "89.99"]
+    card = card_of(MINIMAL + "[card]\nbank_angles = [0.00001, 12.5, 84.625, 84.9999]\n")
+    assert [row.bank_text for row in card.configurations[0].rows] == ["0", "12.5", "84.62", "84.99"]
 
 
 def test_bank_too_small_to_turn_prints_as_level():

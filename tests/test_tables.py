@@ -54,11 +54,15 @@ def test_calibration_used_both_ways():
     from kneeboard.profile import Calibration
 
     cal = Calibration((40 * KT, 60 * KT, 90 * KT), (44 * KT, 61 * KT, 90 * KT))
-    r = compute(profile(vs_kt=40, calibration=cal)).configurations[0]
-    # 40 IAS -> 44 CAS; 1.4 x 44 = 61.6 CAS -> IAS 60 + 0.6 * 30 / 29
-    assert r.level_stall_speed == pytest.approx(40 * KT)
-    assert r.pattern_speed / KT == pytest.approx(60 + 0.6 * 30 / 29)
-    assert math.degrees(r.zero_margin_bank) == pytest.approx(math.degrees(math.acos(1 / 1.96)))
+    r = compute(profile(vs_kt=40, calibration=cal, banks=(0, 60))).configurations[0]
+    # 40 IAS -> 44 CAS (the table at 1 g); the pattern factor is applied in CAS: 1.4 x 44 = 61.6 CAS -> IAS
+    # 60 + 0.6 * 30 / 29. Every stall is at one angle of attack: the IAS stall speed at 60 degrees is 40 sqrt(2),
+    # not the table read at the accelerated stall's CAS (computed).
+    vp = 60 + 0.6 * 30 / 29
+    assert r.level_stall_speed == pytest.approx(40 * KT) and r.level_stall_cas == pytest.approx(44 * KT)
+    assert r.pattern_speed / KT == pytest.approx(vp) and r.pattern_cas / KT == pytest.approx(61.6)
+    assert r.stall_speed[1] / KT == pytest.approx(40 * math.sqrt(2))
+    assert math.degrees(r.zero_margin_bank) == pytest.approx(math.degrees(math.acos((40 / vp) ** 2)))
 
 
 def test_row_states_survive_as_data():
@@ -74,8 +78,11 @@ def test_printed_values_are_rounded_conservatively():
     c = t.configurations[0]
     assert c.stall_speed.text == "48"  # 47.2 up
     assert c.rows[1].stall_speed.value == math.ceil(47.2 * 2**0.25)
-    assert c.rows[1].margin.value == math.floor(47.2 * 1.4 - 47.2 * 2**0.25)
-    assert c.zero_margin_bank.value == math.floor(math.degrees(math.acos(1 / 1.96)))
+    pattern = math.ceil(47.2 * 1.4)  # 66.08 up: the speed flown
+    assert c.pattern_speed.value == pattern
+    # margins and banks from the printed pattern speed: printed pattern - printed stall = printed margin
+    assert c.rows[1].margin.value == pattern - math.ceil(47.2 * 2**0.25)
+    assert c.zero_margin_bank.value == math.floor(math.degrees(math.acos((47.2 / pattern) ** 2)))
 
 
 def test_exact_values_are_not_pushed_a_step():
@@ -101,10 +108,15 @@ def test_properties_of_the_computation(vs, w1, w2, factor):
     assert all(a <= b + 1e-12 for a, b in zip(light.stall_speed, heavy.stall_speed))  # rises with weight
     assert all(a < b for a, b in zip(light.stall_speed, light.stall_speed[1:]))  # rises with bank
     assert all(a > b for a, b in zip(light.margin, light.margin[1:]))  # margin falls with bank
+    # one angle of attack: the indicated stall speed in a bank is sqrt(n) x the wings-level one
+    assert light.stall_speed == pytest.approx(light.level_stall_speed * light.load_factor ** 0.5, rel=1e-12)
     printed = build(p, weight=lo).configurations[0]
-    for row, exact_vs, exact_m in zip(printed.rows, light.stall_speed, light.margin):
-        assert row.stall_speed.value >= exact_vs / KT - 1e-9
-        assert row.margin.value <= exact_m / KT + 1e-9
+    assert printed.pattern_speed.value >= light.pattern_speed / KT - 1e-9
+    for row, exact_vs in zip(printed.rows, light.stall_speed):
+        assert row.stall_speed.value >= exact_vs / KT - 1e-9  # stall speeds up
+        # margins add up, and never exceed what flying the printed pattern speed leaves
+        assert row.margin.value == printed.pattern_speed.value - row.stall_speed.value
+        assert row.margin.value <= printed.pattern_speed.value - exact_vs / KT + 1e-9
 
 
 def test_samples_compute(sample_paths):

@@ -1,15 +1,27 @@
-"""Structural limits: limit load factors by category and the manoeuvring speed at weight.
+"""Structural limits: limit load factors by category and configuration, and the manoeuvring speed at weight.
 
-Sources: 14 CFR 23.337 before amendment 23-64 (normal 3.8, utility 4.4, acrobatic 6.0);
-EASA CS-22, CS 22.337 (gliders, utility category +5.3).
+No figure here ever rises above what the flight manual and the design regulation give:
+
+- Limit manoeuvring load factors: normal 3.8 (less above about 4,118 lb), utility 4.4, acrobatic 6.0
+  (14 CFR 23.337 before amendment 23-64); sailplanes, utility category +5.3 (EASA CS 22.337).
+- With flaps extended: aeroplanes +2.0 with the flaps fully extended, up to VF (14 CFR 23.345(a)(1) before
+  amendment 23-64); sailplanes +4.0 with the wing-flaps in the landing settings, up to VF (CS 22.345(b)(1)(i)), and
+  +3.5 with the air brakes extended (CS 22.345(a)(1)).
+- Above the maximum weight the structure reaches its design limit load sooner: the equivalent limit load factor is
+  n_limit x W_max / W (computed from the design limit load, which is n_limit x W_max).
+- The operating manoeuvring speed may not exceed the design VA (14 CFR 23.1507; CS 22.1507): VA at a lighter
+  weight is VA x sqrt(W / W_VA), and at a weight above W_VA it stays the published VA.
 """
 
 import numpy as np
 
-from kneeboard.aero.turns import weight_factor
-
 #: Positive limit manoeuvring load factor by category [-].
 CATEGORY_LIMIT_LOAD = {"normal": 3.8, "utility": 4.4, "acrobatic": 6.0, "glider": 5.3}
+#: Positive limit load factor with the flaps extended [-]: aeroplanes (14 CFR 23.345(a)(1)), sailplanes with
+#: wing-flaps in a landing setting (CS 22.345(b)(1)(i)).
+FLAPS_LIMIT_LOAD = {"normal": 2.0, "utility": 2.0, "acrobatic": 2.0, "glider": 4.0}
+#: Sailplanes with the air brakes extended (CS 22.345(a)(1)) [-].
+AIR_BRAKES_LIMIT_LOAD = 3.5
 
 
 def normal_category_limit_load(weight_lb):
@@ -32,10 +44,35 @@ def default_limit_load(category: str, max_weight: float) -> float:
     return CATEGORY_LIMIT_LOAD[category]
 
 
-def maneuvering_speed_at_weight(va, weight, reference_weight):
-    """Manoeuvring speed [m/s] at `weight` from VA [m/s] published at `reference_weight` [kg].
+def flaps_limit_load(category: str, aircraft_limit: float) -> float:
+    """The limit load factor of a flaps-extended configuration [-]: the regulation's, never above the aircraft's."""
+    return min(FLAPS_LIMIT_LOAD[category], aircraft_limit)
 
-    VA is a stall speed at the limit load factor, so it scales with sqrt(W / Wref) and falls as
-    the aeroplane gets lighter (FAA-H-8083-25, chapter on aerodynamics of flight).
+
+def overweight_limit_load(n_limit, weight, max_weight):
+    """The equivalent limit load factor [-] at `weight` [kg] of a structure designed for `n_limit` at `max_weight`.
+
+    At or below the maximum weight it is `n_limit`; above, the same design load is reached at n_limit W_max / W.
     """
-    return np.asarray(va, dtype=float) * weight_factor(weight, reference_weight)
+    weight = np.asarray(weight, dtype=float)
+    return np.asarray(n_limit, dtype=float) * np.minimum(1.0, np.asarray(max_weight, dtype=float) / weight)
+
+
+def maneuvering_speed_at_weight(va, weight, va_weight):
+    """Manoeuvring speed [m/s] at `weight` [kg] from the design VA [m/s] published at `va_weight` [kg].
+
+    VA is the stall speed at the limit load factor, so it falls as sqrt(W / W_VA) at lighter weights
+    (FAA-H-8083-25, chapter on aerodynamics of flight); above W_VA it is not raised: the loads of a full
+    control deflection depend on airspeed, and the operating VA may not exceed the design VA.
+    """
+    ratio = np.minimum(np.asarray(weight, dtype=float), va_weight) / np.asarray(va_weight, dtype=float)
+    return np.asarray(va, dtype=float) * np.sqrt(ratio)
+
+
+def available_load_factor(speed, stall_speed):
+    """Load factor [-] at which the wing stalls at `speed` [m/s], wings level: (V / Vs)^2.
+
+    `stall_speed` is the 1-g stall speed [m/s] at the same weight, on the same basis as `speed` (both IAS, or both
+    CAS): the stall happens at one angle of attack (FAA-H-8083-25, "Load Factors and Stalling Speeds").
+    """
+    return (np.asarray(speed, dtype=float) / np.asarray(stall_speed, dtype=float)) ** 2

@@ -11,6 +11,7 @@ from pathlib import Path
 
 from kneeboard import units
 from kneeboard.card.geometry import CARD_SIZES
+from kneeboard.fields import MAX_BANK_DEG
 from kneeboard.fileio import FileProblem, read_text
 from kneeboard.problems import WARNING, Problem
 from kneeboard.shipped import default_style_path
@@ -107,9 +108,10 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     banks = data.get("bank_angles")
     if banks is not None and not (
         isinstance(banks, list) and 1 <= len(banks) <= 24
-        and all(isinstance(b, (int, float)) and not isinstance(b, bool) and 0 <= b < 90 for b in banks)
+        and all(isinstance(b, (int, float)) and not isinstance(b, bool) and 0 <= b <= MAX_BANK_DEG for b in banks)
     ):
-        bad("bank_angles", "must be a list of banks in degrees", "1 to 24 numbers, each 0 <= b < 90", banks)
+        bad("bank_angles", "must be a list of banks in degrees", f"1 to 24 numbers, each from 0 to {MAX_BANK_DEG:g}",
+            banks)
         banks = None
     speed_unit = data.get("speed_unit")
     if speed_unit is not None and speed_unit not in units.SPEED_UNITS:

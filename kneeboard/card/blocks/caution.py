@@ -2,19 +2,35 @@
 off: the layout prints it on every page."""
 
 from kneeboard.card import fonts
-from kneeboard.card.draw import GREY, INK, Context, DoesNotFit, Draw, weight_text
+from kneeboard.card.draw import GREY, INK, WHITE, Context, DoesNotFit, Draw, weight_text
 from kneeboard.card.ops import CAUTION, SMALL
 from kneeboard.texts import CAUTION_CARD
 
 
 def caution(ctx: Context, width: float, page: int, pages: int):
-    """The caution, on every page, with a footer line naming the card."""
+    """Every warning about this card, then the caution, on every page, with a footer line naming the card.
+
+    A card never prints silently under a warning: each one is a line beginning with WARNING, in bold, on a
+    white-on-black lead so it is not mistaken for a note.
+    """
     t = ctx.table
     d = Draw(ctx)
     cs, ss = ctx.size(CAUTION), ctx.size(SMALL)
     bar = 2.5
-    lines = fonts.wrap("CAUTION. " + CAUTION_CARD, fonts.REGULAR, cs, width - bar - 4)
     y = -cs * 0.3
+    for warning in t.warnings:
+        text = warning.removeprefix("WARNING").strip()
+        lead = "WARNING"
+        lead_w = fonts.width(lead, fonts.BOLD, cs) + cs * 0.6
+        wrapped = fonts.wrap(text, fonts.BOLD, cs, width - lead_w - cs * 0.4)
+        for k, line in enumerate(wrapped):
+            y -= cs * 1.2
+            if k == 0:
+                d.rect(0, y + cs * 0.95, lead_w, cs * 1.2, fill=INK)
+                d.text(cs * 0.3, y, lead, CAUTION, True, color=WHITE)
+            d.text(lead_w + cs * 0.4, y, line, CAUTION, True)
+        y -= cs * 0.25
+    lines = fonts.wrap("CAUTION. " + CAUTION_CARD, fonts.REGULAR, cs, width - bar - 4)
     top = y
     for i, line in enumerate(lines):
         y -= cs * 1.2

@@ -22,6 +22,7 @@ class Cell:
     note: str = ""  #: a small suffix such as "*"
     role: str = FIGURE
     figure: Figure | None = None  #: the printed figure the cell shows
+    framed: bool = False  #: a heavy frame: a mark of its own (the structure's limit), combinable with the others
 
 
 def grid(d: Draw, block: str, top: float, columns, rows, row_h: float, size: float, shade=True) -> float:
@@ -38,12 +39,19 @@ def grid(d: Draw, block: str, top: float, columns, rows, row_h: float, size: flo
             d.rect(columns[0][0], y, columns[-1][0] + columns[-1][1] - columns[0][0], row_h, fill=SHADE)
         for (x, w), edge, cell in zip(columns, edges, row):
             color = INK
+            base = baseline(y, row_h, size)
             if cell.mark == HATCHED:
                 d.rect(x + 1, y - 0.5, w - 2, row_h - 1, fill=WHITE, hatch=HATCH, stroke=INK, width=0.6)
+                # a clear area behind the digits: the hatching never crosses the figure it marks
+                tw = fonts.width(cell.text, fonts.BOLD, size)
+                pad = size * 0.18
+                d.rect(edge - tw - pad, base + fonts.ascent(size) + pad, tw + 2 * pad, fonts.ascent(size) + 2 * pad,
+                       fill=WHITE)
             elif cell.mark == BLACK:
                 d.rect(x + 1, y - 0.5, w - 2, row_h - 1, fill=INK)
                 color = WHITE
-            base = baseline(y, row_h, size)
+            if cell.framed:
+                d.rect(x + 1.6, y - 1.1, w - 3.2, row_h - 2.2, stroke=INK, width=1.8)
             d.text(edge, base, cell.text, cell.role, cell.bold, "right", color, size if cell.role == FIGURE else None,
                    cell.figure)
             if cell.note:

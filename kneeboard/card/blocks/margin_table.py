@@ -48,14 +48,14 @@ def draw(ctx: Context, width: float, _height=None):
         first = configs[0].rows[i]
         bank = terms.at_bank(first.bank_text)
         row = [Cell(f"{first.bank_text}°", bold=True),
-               Cell(first.load_factor.text, mark=BLACK if first.over_limit else None,
+               Cell(first.load_factor.text,
                     figure=figure(terms.label(bank, terms.LOAD_FACTOR), first.load_factor, "g"))]
         for c in configs:
             r = c.rows[i]
             mark = {BUFFER: HATCHED, STALL: BLACK}.get(r.state)
-            row += [Cell(r.stall_speed.text, note="*" if r.extrapolated else "",
+            row += [Cell(r.stall_speed.text, framed=r.over_limit,
                          figure=figure(terms.label(c.name, bank, terms.STALL), r.stall_speed, su, HIGHER_IS_WORSE)),
-                    Cell(r.margin.text, bold=True, mark=mark,
+                    Cell(r.margin.text, bold=True, mark=mark, framed=r.over_limit,
                          figure=figure(terms.label(c.name, bank, terms.MARGIN), r.margin, su, LOWER_IS_WORSE))]
         rows.append(row)
     row_h = fs * 1.5
@@ -83,22 +83,23 @@ def _legend(d: Draw, width: float, top: float, t, rows) -> float:
     entries = [(HATCHED, f"margin under the {t.buffer.text} {t.speed_unit} buffer",
                 figure(terms.BUFFER, t.buffer, t.speed_unit)),
                (BLACK, "no margin: stalls at this bank", None)]
-    if any(r[1].mark == BLACK for r in rows):
-        entries.append(("load", f"load factor above the {t.limit_load_factor.text} limit", None))
-    if any(cell.note for r in rows for cell in r):
-        entries.append(("*", "* calibration table extrapolated", None))
+    if any(cell.framed for r in rows for cell in r):
+        entries.append(("frame", "load factor at or above that configuration's limit load", None))
     entries.append(("text", f"stall IAS at {weight_text(t)}, wings level and in the bank", None))
     x, y = 0.0, top
     box = ss * 1.2
     for kind, text, tag in entries:
-        w = (box + ss * 0.4 if kind in (HATCHED, BLACK, "load") else 0) + fonts.width(text, fonts.REGULAR, ss)
+        swatch = kind in (HATCHED, BLACK, "frame")
+        w = (box + ss * 0.4 if swatch else 0) + fonts.width(text, fonts.REGULAR, ss)
         if x > 0 and x + w > width:
             x, y = 0.0, y - ss * 1.6
         if kind == HATCHED:
             d.rect(x, y, box, box, fill=WHITE, hatch=HATCH, stroke=INK, width=0.6)
-        elif kind in (BLACK, "load"):
+        elif kind == BLACK:
             d.rect(x, y, box, box, fill=INK)
-        if kind in (HATCHED, BLACK, "load"):
+        elif kind == "frame":
+            d.rect(x + 0.9, y - 0.9, box - 1.8, box - 1.8, stroke=INK, width=1.8)
+        if swatch:
             x += box + ss * 0.4
         d.text(x, y - box + ss * 0.15, text, SMALL, color=INK, figures=tag)
         x += fonts.width(text, fonts.REGULAR, ss) + ss * 1.5

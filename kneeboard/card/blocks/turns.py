@@ -4,7 +4,7 @@ from kneeboard import terms
 from kneeboard.card import fonts
 from kneeboard.card.blocks.grid import NO_VALUE, Cell, grid, group_headers, heading, sub_headers
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, INK, RULE, Context, DoesNotFit, Draw, figure
+from kneeboard.card.draw import GREY, INK, RULE, Context, Draw, figure
 from kneeboard.card.ops import LABEL, SMALL
 from kneeboard.tables import STALL
 
@@ -51,8 +51,10 @@ def draw(ctx: Context, width: float, _height=None):
                                                                r.turn_radius, du)),
                         Cell(times, figure=figure(terms.label(c.name, bank, terms.TURN_TIMES), times, "s"))]
         rows.append(row)
-    if not rows:
-        raise DoesNotFit(NAME, "no bank above 0 degrees to show")
+    if not rows:  # every bank above 0 stalls (or none was asked for): say so rather than show an empty table
+        y -= ctx.size(SMALL) * 1.3
+        d.text(0, y, "no turn figures: no bank above 0° with margin left", SMALL, color=GREY)
+        return d.block(NAME, -(y - ctx.size(SMALL) * 0.6))
     top = y
     y = grid(d, NAME, y, columns, rows, fs * 1.45, fs)
     for _, x, _w in groups:
