@@ -1,7 +1,8 @@
 """Making and writing cards for one aircraft or a fleet: the command line and the app both use this.
 
-A profile with errors, or whose card cannot be laid out, is reported and skipped; the others are
-still made. Every file is written atomically.
+A profile with errors, or whose card cannot be laid out, is reported and skipped; the others are still made. No
+profile holds the fleet hostage: whatever goes wrong with one file, the rest are made. Every file is written
+atomically, and a fleet flows through one card at a time (`export_cards`), so memory stays flat with its size.
 """
 
 import itertools
@@ -14,7 +15,7 @@ from kneeboard.card import Card, LayoutError
 from kneeboard.card.sheets import SheetError
 from kneeboard.fileio import FileProblem, write_atomic
 from kneeboard.pipeline import Styles, card_pdf, fleet_pdf, make_card, prepare_file
-from kneeboard.problems import Problem
+from kneeboard.problems import Problem, printable
 
 
 @dataclass
@@ -34,9 +35,10 @@ class Batch:
 
 def make_cards(paths: list[Path], styles: Styles, made_on: str | None = None,
                progress: Callable[[int, int, str], bool] | None = None) -> Batch:
-    """Cards of `paths` (each with its style by the one rule of `styles`), in registration order.
+    """Cards of `paths` (each with its style by the one rule of `styles`), in registration order, kept in memory.
 
-    `progress(done, total, name)` may return False to cancel.
+    `progress(done, total, name)` may return False to cancel. For a fleet written to files, `export_cards` makes
+    the same cards one at a time.
     """
     batch = Batch()
     made = []
@@ -44,22 +46,33 @@ def make_cards(paths: list[Path], styles: Styles, made_on: str | None = None,
         if progress is not None and progress(i - 1, len(paths), path.name) is False:
             batch.cancelled = True
             break
-        prepared = prepare_file(path, styles)
-        batch.warnings += prepared.warnings
-        if prepared.table is None:
-            batch.failures.append(Failure(path, [str(p) for p in prepared.errors]))
-            continue
-        try:
-            card = make_card(prepared, made_on)
-        except LayoutError as exc:
-            batch.failures.append(Failure(path, [f"{path}: {exc}"]))
-            continue
-        made.append((card.registration.casefold(), str(path), card))
-        batch.sources[card.registration] = path
+        card = _card(path, styles, made_on, batch)
+        if card is not None:
+            made.append((card.registration.casefold(), str(path), card))
+            batch.sources[card.registration] = path
     if progress is not None and not batch.cancelled:
         progress(len(paths), len(paths), "")
     batch.cards = [card for _, _, card in sorted(made, key=lambda item: item[:2])]
     return batch
+
+
+def _card(path: Path, styles: Styles, made_on: str | None, batch) -> Card | None:
+    """The card of one profile file, or None with its failure and warnings noted in `batch`."""
+    try:
+        prepared = prepare_file(path, styles)
+        batch.warnings += prepared.warnings
+        if prepared.table is None:
+            batch.failures.append(Failure(path, [str(p) for p in prepared.errors]))
+            return None
+        try:
+            return make_card(prepared, made_on)
+        except LayoutError as exc:
+            batch.failures.append(Failure(path, [f"{printable(path)}: {exc}"]))
+            return None
+    except Exception as exc:  # a bug in the handling of one file must not cost the rest of the fleet its cards
+        batch.failures.append(Failure(path, [f"{printable(path)}: internal error on this profile, please report "
+                                             f"it: {type(exc).__name__}: {printable(str(exc))}"]))
+        return None
 
 
 # Windows refuses these as file names whatever the extension (and the same with a digit, COM1...LPT9).
@@ -85,6 +98,12 @@ def _kept(ch: str) -> bool:
     return ch in "-_" or category[0] in "LM" or category == "Nd"
 
 
+def unique_names(registrations) -> list[str]:
+    """One file stem per card, from its registration: collisions (ignoring case) get -2, -3, ..."""
+    used: set[str] = set()
+    return [_unique(safe_name(registration), used) for registration in registrations]
+
+
 def write_fleet(cards: list[Card], out: Path, sheet: str | None = None) -> None:
     """All cards in one PDF (imposed on `sheet` if given), written atomically."""
     try:
@@ -96,18 +115,9 @@ def write_fleet(cards: list[Card], out: Path, sheet: str | None = None) -> None:
 
 def write_each(cards: list[Card], folder: Path) -> list[Path]:
     """One PDF per aircraft in `folder`, named by registration; returns the files written."""
-    if not folder.is_dir():
-        try:
-            folder.mkdir(parents=True)
-        except OSError as exc:
-            raise FileProblem(f"{folder}: cannot create the folder ({exc.strerror or exc})") from None
-    written, used = [], set()
-    for card in cards:
-        name = safe_name(card.registration)
-        stem, n = name, 2
-        while stem.casefold() in used:
-            stem, n = f"{name}-{n}", n + 1
-        used.add(stem.casefold())
+    _make_folder(folder)
+    written = []
+    for card, stem in zip(cards, unique_names(c.registration for c in cards)):
         path = folder / f"{stem}.pdf"
         write_atomic(path, card_pdf(card))
         written.append(path)
@@ -115,13 +125,138 @@ def write_each(cards: list[Card], folder: Path) -> list[Path]:
 
 
 def write_pngs(cards: list[Card], folder: Path, prefix: str, dpi: int) -> list[Path]:
-    """Each card page as a PNG at `dpi`, named PREFIX<REGISTRATION>-front.png / -back.png."""
+    """Each card page as a PNG at `dpi`, named PREFIX<name>-front.png / -back.png (the names of `write_each`)."""
+    written = []
+    for card, stem in zip(cards, unique_names(c.registration for c in cards)):
+        written += _pngs(card, folder, f"{prefix}{stem}", dpi)
+    return written
+
+
+def _pngs(card: Card, folder: Path, stem: str, dpi: int) -> list[Path]:
     from kneeboard.card.raster import pdf_to_pngs
 
     written = []
-    for card in cards:
-        for side, png in zip(("front", "back"), pdf_to_pngs(card_pdf(card), dpi)):
-            path = folder / f"{prefix}{safe_name(card.registration)}-{side}.png"
-            write_atomic(path, png)
-            written.append(path)
+    for side, png in zip(("front", "back"), pdf_to_pngs(card_pdf(card), dpi)):
+        path = folder / f"{stem}-{side}.png"
+        write_atomic(path, png)
+        written.append(path)
     return written
+
+
+def _make_folder(folder: Path) -> None:
+    if not folder.is_dir():
+        try:
+            folder.mkdir(parents=True)
+        except OSError as exc:
+            raise FileProblem(f"{printable(folder)}: cannot create the folder ({exc.strerror or exc})") from None
+
+
+# --- a fleet, one card at a time ------------------------------------------------------------------------------
+
+
+@dataclass
+class Export:
+    """What `export_cards` made: counts and files match what was written, failures name their files."""
+
+    cards: int = 0
+    pages: int = 0  #: pages (or sheets) of the one PDF
+    written: list[Path] = field(default_factory=list)  #: every file written, PDFs and PNGs
+    failures: list[Failure] = field(default_factory=list)
+    warnings: list[Problem] = field(default_factory=list)
+    cancelled: bool = False
+
+
+def registration_order(paths: list[Path]) -> list[Path]:
+    """`paths` in the order their cards print: by registration (case ignored), then file name.
+
+    Only the files' data is read (no validation, no physics), so ordering a fleet costs a fraction of making it.
+    """
+    from kneeboard.profile_io import read_source
+
+    def key(path: Path):
+        data = read_source(path).data or {}
+        aircraft = data.get("aircraft") if isinstance(data.get("aircraft"), dict) else {}
+        registration = aircraft.get("registration")
+        return (registration.strip().casefold() if isinstance(registration, str) else "", str(path))
+
+    return sorted(paths, key=key)
+
+
+def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, sheet: str | None = None,
+                 each: Path | None = None, png_dpi: int | None = None, made_on: str | None = None,
+                 progress: Callable[[int, int, str], bool] | None = None) -> Export:
+    """Make the cards of `paths` one at a time and write them as they come: one PDF `out` (imposed on `sheet`),
+    one PDF per aircraft in `each`, and PNGs of every page at `png_dpi`. A card's layout is dropped once drawn.
+
+    Raises FileProblem when a file cannot be written (the first one stops the writing, as a full disk would).
+    `progress(done, total, name)` may return False to cancel; then the one PDF is not written.
+    """
+    from kneeboard.card.render import PdfWriter
+    from kneeboard.card.sheets import grid_for, impose
+
+    result = Export()
+    ordered = registration_order(paths)
+    writer = None
+    if out is not None:
+        title = "kneeboard cards" + (f" on {sheet} sheets" if sheet else "")
+        writer = PdfWriter(title)
+    if each is not None:
+        _make_folder(each)
+    used: set[str] = set()
+    group: list = []  # cards waiting to fill a sheet
+    grid = None
+
+    def flush() -> None:
+        if group:
+            writer.add(impose(group, sheet))
+            group.clear()
+
+    for i, path in enumerate(ordered):
+        if progress is not None and progress(i, len(ordered), path.name) is False:
+            result.cancelled = True
+            return result
+        card = _card(path, styles, made_on, result)
+        if card is None:
+            continue
+        stem = _unique(safe_name(card.registration), used)
+        if writer is not None:
+            if sheet is None:
+                writer.add(card.pages)
+            else:
+                first = card.pages[0]
+                try:
+                    grid = grid or grid_for(first.width, first.height, sheet)
+                except SheetError as exc:
+                    raise FileProblem(f"{printable(out)}: {exc}") from None
+                if (first.width, first.height) != (grid.card_w, grid.card_h):
+                    result.failures.append(Failure(path, [f"{printable(path)}: its card is not the size of the "
+                                                          "others on the sheet; print it on its own"]))
+                    continue
+                group.append(card.pages)
+                if len(group) == grid.per_sheet:
+                    flush()
+        if each is not None:
+            target = each / f"{stem}.pdf"
+            write_atomic(target, card_pdf(card))
+            result.written.append(target)
+        if png_dpi:
+            folder, prefix = (each, "") if each is not None else (out.parent, f"{out.stem}-")
+            result.written += _pngs(card, folder, f"{prefix}{stem}", png_dpi)
+        result.cards += 1
+    if progress is not None:
+        progress(len(ordered), len(ordered), "")
+    if writer is not None and result.cards:
+        if sheet is not None:
+            flush()
+        result.pages = writer.pages
+        write_atomic(out, writer.finish())
+        result.written.insert(0, out)
+    return result
+
+
+def _unique(name: str, used: set[str]) -> str:
+    stem, n = name, 2
+    while stem.casefold() in used:
+        stem, n = f"{name}-{n}", n + 1
+    used.add(stem.casefold())
+    return stem

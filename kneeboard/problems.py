@@ -1,6 +1,7 @@
 """One error model for profiles and styles: every problem says where, what, and what would do."""
 
 import reprlib
+import unicodedata
 from dataclasses import dataclass, replace
 from typing import Literal
 
@@ -31,10 +32,10 @@ class Problem:
         return replace(self, file=file)
 
     def __str__(self) -> str:
-        where = f"{self.file}: " if self.file else ""
+        where = f"{printable(self.file)}: " if self.file else ""
         found = f" (found {_show(self.value)})" if self.value is not None else ""
         wanted = f"; expected {self.expected}" if self.expected else ""
-        return f"{where}{self.severity}: {self.path}: {self.message}{found}{wanted}"
+        return printable(f"{where}{self.severity}: {self.path}: {self.message}{found}{wanted}")
 
 
 _REPR = reprlib.Repr()  # keyword arguments need Python 3.12
@@ -44,3 +45,17 @@ _REPR.maxlevel, _REPR.maxstring, _REPR.maxother, _REPR.maxlist, _REPR.maxdict = 
 def _show(value: object, limit: int = 40) -> str:
     text = _REPR.repr(value)  # bounded: a deep or huge value must not be rendered in full to be cut
     return text if len(text) <= limit else text[: limit - 3] + "..."
+
+
+def printable(text) -> str:
+    """`text` (a message, a file name) safe to show on a terminal: control, format and separator characters
+    (newlines, escape sequences, bidirectional overrides) written as escapes, everything else as it is."""
+    text = str(text)
+    if text.isprintable():
+        return text
+    return "".join(ch if ch.isprintable() or unicodedata.category(ch) == "Zs" else _escape(ch) for ch in text)
+
+
+def _escape(ch: str) -> str:
+    code = ord(ch)
+    return f"\\x{code:02x}" if code < 0x100 else f"\\u{code:04x}" if code < 0x10000 else f"\\U{code:08x}"

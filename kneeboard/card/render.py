@@ -30,24 +30,49 @@ def _binary_streams() -> None:
     rl_config.useA85 = 0
 
 
+class PdfWriter:
+    """A PDF drawn page by page: a fleet's pages go in as they are laid out, so no fleet is held in memory whole.
+
+    Only the compressed page streams stay until `finish()`; each page's layout can be dropped once it is added.
+    """
+
+    def __init__(self, title: str = "kneeboard card", subject: str = ""):
+        fonts.register()
+        _binary_streams()
+        self._buf = io.BytesIO()
+        self._canvas: Canvas | None = None
+        self._title, self._subject = title, subject
+        self.pages = 0
+
+    def add(self, pages) -> None:
+        for page in pages:
+            c = self._canvas
+            if c is None:
+                # the initial font is ours too, so no unembedded standard font is ever referenced
+                c = self._canvas = Canvas(self._buf, pagesize=(page.width, page.height), invariant=1,
+                                          pageCompression=1, initialFontName=fonts.REGULAR, initialFontSize=10)
+                c.setTitle(self._title)
+                c.setSubject(self._subject)
+                c.setCreator(f"kneeboard {__version__}")
+            c.setPageSize((page.width, page.height))
+            for part in page.parts:
+                draw_ops(c, part.ops, part.dx, part.dy)
+            c.showPage()
+            self.pages += 1
+
+    def finish(self) -> bytes:
+        """The PDF's bytes; a writer that got no page makes none (ValueError)."""
+        if self._canvas is None:
+            raise ValueError("a PDF needs at least one page")
+        self._canvas.save()
+        return self._buf.getvalue()
+
+
 def pdf_bytes(pages, title: str = "kneeboard card", subject: str = "") -> bytes:
     """One PDF page per layout page, each page box exactly the page's size."""
-    fonts.register()
-    _binary_streams()
-    buf = io.BytesIO()
-    # the initial font is ours too, so no unembedded standard font is ever referenced
-    c = Canvas(buf, pagesize=(pages[0].width, pages[0].height), invariant=1, pageCompression=1,
-               initialFontName=fonts.REGULAR, initialFontSize=10)
-    c.setTitle(title)
-    c.setSubject(subject)
-    c.setCreator(f"kneeboard {__version__}")
-    for page in pages:
-        c.setPageSize((page.width, page.height))
-        for part in page.parts:
-            draw_ops(c, part.ops, part.dx, part.dy)
-        c.showPage()
-    c.save()
-    return buf.getvalue()
+    writer = PdfWriter(title, subject)
+    writer.add(pages)
+    return writer.finish()
 
 
 def draw_ops(c: Canvas, ops, dx: float = 0.0, dy: float = 0.0) -> None:
