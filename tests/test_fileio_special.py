@@ -8,32 +8,13 @@ import os
 import socket
 import stat
 import tempfile
-import threading
 from pathlib import Path
 
 import pytest
+from hang_guard import promptly
 
 from kneeboard import fileio
 from kneeboard.fileio import FileProblem
-
-HANG_GUARD_S = 30  #: far beyond any read; reached only when a read blocks
-
-
-def promptly(function, *args):
-    """Run `function(*args)` in a thread; its result or exception, failing the test if it never returns."""
-    outcome = {}
-
-    def run():
-        try:
-            outcome["value"] = function(*args)
-        except BaseException as exc:  # handed back to the test
-            outcome["error"] = exc
-
-    thread = threading.Thread(target=run, daemon=True)
-    thread.start()
-    thread.join(HANG_GUARD_S)
-    assert not thread.is_alive(), f"{function.__name__}{args} blocked"
-    return outcome
 
 
 def refused(function, *args) -> str:

@@ -53,7 +53,8 @@ def build_card(profile: Profile, style: CardStyle, fingerprint: str, weight: flo
 
     if table is None:
         table = build(styled_profile(profile, style), weight)
-    layout = layout_card(table, style, fingerprint, made_on or today(), logo_png(style.logo))
+    logo = style.logo_png if style.logo_png is not None else logo_png(style.logo)  # checked when the style loaded
+    layout = layout_card(table, style, fingerprint, made_on or today(), logo)
     return Card(table.registration, table, layout, fingerprint)
 
 
