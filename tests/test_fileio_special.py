@@ -275,3 +275,23 @@ def test_other_outputs_pass(tmp_path, inputs):
     (tmp_path / "old.pdf").write_bytes(b"an earlier card")
     fileio.refuse_overwrite_of_inputs(tmp_path / "old.pdf", list(inputs))
     assert (tmp_path / "old.pdf").read_bytes() == b"an earlier card"  # checking writes nothing
+
+
+# --- the profile loader on special files ---------------------------------------------------------------
+
+
+@pytest.mark.parametrize("special", ["fifo", "/dev/null", "/dev/zero", "loop"])
+def test_the_profile_loader_names_special_files_without_waiting(tmp_path, fifo, special):
+    from kneeboard.profile_io import load_profile
+
+    if special == "fifo":
+        path = fifo
+    elif special == "loop":
+        path = tmp_path / "loop.toml"
+        path.symlink_to("loop.toml")
+    else:
+        path = Path(special)
+    outcome = promptly(load_profile, path)
+    loaded = outcome["value"]
+    assert loaded.profile is None and [p.path for p in loaded.problems] == ["(file)"]
+    assert any(word in loaded.problems[0].message for word in ("FIFO", "device", "loop"))
