@@ -32,7 +32,11 @@ def read_text(path: Path, limit: int = MAX_FILE_BYTES) -> str:
     loop or an impossible name each give a message; nothing ever waits on a FIFO.
     """
     path = Path(path)
-    data = read_bytes(path, limit, "a profile is a few KiB")
+    return decode_text(read_bytes(path, limit, "a profile is a few KiB"), path)
+
+
+def decode_text(data: bytes, path: Path) -> str:
+    """The text of a file's bytes as read_text decodes them; raises FileProblem when they are not UTF-8."""
     try:
         return data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
