@@ -1,5 +1,3 @@
-import sys
+from kneeboard.cli import main_exit
 
-from kneeboard.cli import main
-
-sys.exit(main())
+main_exit()

@@ -1,13 +1,17 @@
-"""The command line: `kneeboard check | table | card`, calling the same functions as the app."""
+"""The command line: `kneeboard check | table | card`, calling the same functions as the app; `kneeboard [PATH]`
+opens the app."""
 
 import argparse
+import difflib
+import errno
 import os
 import sys
+import textwrap
 from pathlib import Path
 
 from kneeboard import __version__
 from kneeboard.fileio import FileProblem, terminate_cleanly
-from kneeboard.problems import Problem
+from kneeboard.problems import Problem, printable
 from kneeboard.texts import CAUTION
 
 # Sizes and options are plain names here; the modules behind each command load only when it runs,
@@ -17,7 +21,8 @@ SHEET_SIZES = ("letter", "a4")
 SPEED_UNITS = ("kt", "mph", "km/h")
 DISTANCE_UNITS = ("ft", "m")
 
-EXIT_OK, EXIT_PROBLEMS, EXIT_BUG = 0, 2, 70
+EXIT_OK, EXIT_PROBLEMS, EXIT_BUG, EXIT_OUTPUT = 0, 2, 70, 74  #: 74: the output device failed (EX_IOERR)
+EXIT_PIPE = 141  #: the reader of the output went away (128 + SIGPIPE), as a shell tool's exit
 COMMANDS = ("check", "table", "card")
 PROGRESS_ABOVE = 5  #: more aircraft than this get a progress line on stderr
 
@@ -26,21 +31,32 @@ class UsageProblem(Exception):
     """A bad option value; the message names the option."""
 
 
+USAGE = """kneeboard [PROFILE_OR_FOLDER]      open the app (on the last fleet, or the sample fleet)
+       kneeboard COMMAND ...              check | table | card, without a window"""
+
+
 def _parser() -> argparse.ArgumentParser:
+    caution = textwrap.fill(CAUTION, 79)
     p = argparse.ArgumentParser(
         prog="kneeboard",
+        usage=USAGE,
         description="Cockpit cards of stall speed and margin by bank angle, from an aircraft's published figures.",
-        epilog=CAUTION,
+        epilog=caution,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument("--version", action="version", version=f"kneeboard {__version__}")
+    p.add_argument("--version", action="version", version=f"kneeboard {__version__}\n{caution}")
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
 
+    def command(name, help_text):
+        return sub.add_parser(name, help=help_text, description=help_text[0].upper() + help_text[1:] + ".",
+                              epilog=caution, formatter_class=argparse.RawDescriptionHelpFormatter)
+
     style_help = "card style (default: the fleet.style.toml beside each profile, else the shipped default)"
-    check = sub.add_parser("check", help="validate profiles and list every problem")
+    check = command("check", "validate profiles and list every problem")
     check.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
     check.add_argument("--style", metavar="STYLE.toml", help=style_help)
 
-    table = sub.add_parser("table", help="print the computed table of one profile")
+    table = command("table", "print the computed table of one profile")
     table.add_argument("profile", metavar="PROFILE")
     table.add_argument("--weight", metavar="QTY", help='weight to compute for, e.g. "690 kg" or "1500 lb"')
     table.add_argument("--bank", metavar="LIST", help="bank angles in degrees, e.g. 0,20,40")
@@ -48,7 +64,7 @@ def _parser() -> argparse.ArgumentParser:
     table.add_argument("--distance-unit", choices=DISTANCE_UNITS)
     table.add_argument("--format", choices=("text", "csv", "json"), default="text")
     table.add_argument("--style", metavar="STYLE.toml", help=style_help)
-    card = sub.add_parser("card", help="make cockpit cards as PDF (one aircraft or a whole folder)")
+    card = command("card", "make cockpit cards as PDF (one aircraft or a whole folder)")
     card.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
     card.add_argument("-o", "--output", metavar="OUT.pdf", help="one PDF with every card")
     card.add_argument("--each", metavar="DIR", help="one PDF per aircraft in DIR, named by registration")
@@ -76,7 +92,7 @@ def _parse_banks(text: str | None):
 
 def _print_problems(problems: list[Problem], stream) -> None:
     for p in problems:
-        print(p, file=stream)
+        print(p, file=stream)  # Problem's text escapes what a file holds (newlines, escape sequences)
 
 
 def _styles(args, **overrides):
@@ -107,17 +123,17 @@ def cmd_check(args) -> int:
     _print_style_problems(styles, files)
     failed = 0
     for path in files:
-        prepared = prepare_file(path, styles)
+        prepared = _safely(prepare_file, path, styles)
         _print_problems(list(prepared.problems), sys.stdout)
         if prepared.table is None:
             failed += 1
-            print(f"{path}: {len(prepared.errors)} error(s); no card can be made")
+            print(f"{printable(path)}: {len(prepared.errors)} error(s); no card can be made")
             continue
         a = prepared.profile.aircraft
         names = ", ".join(c.name for c in prepared.profile.configurations)
         warned = f", {len(prepared.warnings)} warning(s)" if prepared.warnings else ""
-        print(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(prepared.profile.configurations)} "
-              f"configuration(s): {names}; fingerprint {prepared.fingerprint}")
+        print(printable(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(prepared.profile.configurations)} "
+                        f"configuration(s): {names}; fingerprint {prepared.fingerprint}"))
     print(CAUTION)
     return EXIT_PROBLEMS if failed else EXIT_OK
 
@@ -133,7 +149,7 @@ def cmd_table(args) -> int:
     machine = args.format != "text"
     _print_problems(list(prepared.problems), sys.stderr)
     if prepared.table is None:
-        print(f"{args.profile}: {len(prepared.errors)} error(s); no table can be made", file=sys.stderr)
+        print(f"{printable(args.profile)}: {len(prepared.errors)} error(s); no table can be made", file=sys.stderr)
         return EXIT_PROBLEMS
     sys.stdout.write(report_text(prepared, args.format))
     print(CAUTION, file=sys.stderr if machine else sys.stdout)
@@ -141,7 +157,7 @@ def cmd_table(args) -> int:
 
 
 def cmd_card(args) -> int:
-    from kneeboard.export import make_cards, write_each, write_fleet, write_pngs
+    from kneeboard.export import export_cards
     from kneeboard.profile_io import expand_paths
 
     if not args.output and not args.each:
@@ -157,44 +173,51 @@ def cmd_card(args) -> int:
 
     def progress(done, total, name):
         if show and name:
-            print(f"card {done + 1} of {total}: {name}", file=sys.stderr)
+            print(printable(f"card {done + 1} of {total}: {name}"), file=sys.stderr)
         return True
 
     _print_style_problems(styles, paths)
-    batch = make_cards(paths, styles, progress=progress)
-    _print_problems(batch.warnings, sys.stderr)
-    for failure in batch.failures:
+    out = Path(args.output) if args.output else None
+    each = Path(args.each) if args.each else None
+    try:
+        made = export_cards(paths, styles, out=out, sheet=args.sheet, each=each, png_dpi=args.png,
+                            progress=progress)
+    except FileProblem as exc:
+        print(f"kneeboard card: {printable(exc)}", file=sys.stderr)
+        print(CAUTION)
+        return EXIT_PROBLEMS
+    _print_problems(made.warnings, sys.stderr)
+    for failure in made.failures:
         for line in failure.lines:
-            print(line, file=sys.stderr)
-        print(f"{failure.path}: skipped", file=sys.stderr)
-    failed = bool(batch.failures)
-    if batch.cards:
-        try:
-            if args.output:
-                out = Path(args.output)
-                write_fleet(batch.cards, out, args.sheet)
-                pages = "sheets" if args.sheet else "pages"
-                print(f"wrote {out}: {len(batch.cards)} card(s) on {_count_pages(out)} {pages}")
-                if args.png:
-                    pngs = write_pngs(batch.cards, out.parent, f"{out.stem}-", args.png)
-                    print(f"wrote {len(pngs)} PNG page(s) at {args.png} dpi beside {out.name}")
-            if args.each:
-                written = write_each(batch.cards, Path(args.each))
-                print(f"wrote {len(written)} PDF(s) in {args.each}")
-                if args.png:
-                    pngs = write_pngs(batch.cards, Path(args.each), "", args.png)
-                    print(f"wrote {len(pngs)} PNG page(s) at {args.png} dpi in {args.each}")
-        except FileProblem as exc:
-            print(f"kneeboard card: {exc}", file=sys.stderr)
-            failed = True
+            print(printable(line), file=sys.stderr)
+        print(f"{printable(failure.path)}: skipped", file=sys.stderr)
+    if made.cards:
+        pngs = [p for p in made.written if p.suffix == ".png"]
+        if out is not None:
+            print(printable(f"wrote {out}: {made.cards} card(s) on {made.pages} {'sheets' if args.sheet else 'pages'}"))
+        if each is not None:
+            n = sum(1 for p in made.written if p.suffix == ".pdf" and p.parent == each)
+            print(printable(f"wrote {n} PDF(s) in {each}"))
+        if pngs:
+            print(printable(f"wrote {len(pngs)} PNG page(s) at {args.png} dpi in {pngs[0].parent}"))
     else:
         print("kneeboard card: no card could be made", file=sys.stderr)
     print(CAUTION)
-    return EXIT_PROBLEMS if failed or not batch.cards else EXIT_OK
+    return EXIT_PROBLEMS if made.failures or not made.cards else EXIT_OK
 
 
-def _count_pages(path: Path) -> int:
-    return path.read_bytes().count(b"/Type /Page\n") or path.read_bytes().count(b"/Type /Page ")
+def _safely(prepare, path, styles):
+    """Prepare one profile; a bug in the handling of one file is that file's error, never the whole run's."""
+    from kneeboard.pipeline import Prepared
+
+    try:
+        return prepare(path, styles)
+    except Exception as exc:
+        if os.environ.get("KNEEBOARD_DEBUG"):
+            raise
+        problem = Problem("(file)", f"internal error on this profile, please report it: {type(exc).__name__}: {exc}",
+                          file=str(path))
+        return Prepared(path, "", None, None, None, None, (problem,))
 
 
 HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card}
@@ -204,9 +227,7 @@ def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
     terminate_cleanly()
     if not argv or (argv[0] not in COMMANDS and not argv[0].startswith("-")):
-        from kneeboard.app.main import run  # the desktop app, on a folder or profile if one is named
-
-        return run(argv[0] if argv else None)
+        return _open_app(argv[0] if argv else None)
     parser = _parser()
     args = parser.parse_args(argv)  # exits 2 with a usage message on bad options
     if args.command is None:
@@ -215,17 +236,63 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return HANDLERS[args.command](args)
     except UsageProblem as exc:
-        print(f"kneeboard {args.command}: {exc}", file=sys.stderr)
+        print(f"kneeboard {args.command}: {printable(exc)}", file=sys.stderr)
         return EXIT_PROBLEMS
     except KeyboardInterrupt:
         print("kneeboard: interrupted", file=sys.stderr)
         return 130
+    except BrokenPipeError:
+        return _closed_pipe()
+    except OSError as exc:
+        if exc.errno in (errno.ENOSPC, errno.EIO, errno.EDQUOT, errno.EROFS):  # stdout on a full or failed device
+            _quiet_stdout()
+            print(f"kneeboard: the output could not be written ({exc.strerror or exc})", file=sys.stderr)
+            return EXIT_OUTPUT
+        return _internal_error(exc)
     except Exception as exc:  # a bug, not bad input: one line, and the traceback on request
-        if os.environ.get("KNEEBOARD_DEBUG"):
-            raise
-        print(f"kneeboard: internal error, please report it: {type(exc).__name__}: {exc} "
-              "(set KNEEBOARD_DEBUG=1 for details)", file=sys.stderr)
-        return EXIT_BUG
+        return _internal_error(exc)
+
+
+def _open_app(target: str | None) -> int:
+    """`kneeboard [PATH]`: the app, when there is a screen; a word that is neither a path nor a command is a typo."""
+    if target is not None and not os.path.lexists(target):
+        close = difflib.get_close_matches(target, COMMANDS, n=1, cutoff=0.5)
+        hint = f"; did you mean '{close[0]}'?" if close else f"; the commands are {', '.join(COMMANDS)}"
+        print(printable(f"kneeboard: unknown command '{target}'{hint} (or give a profile or folder to open in "
+                        "the app; see kneeboard --help)"), file=sys.stderr)
+        return EXIT_PROBLEMS
+    from kneeboard.display import window_problem
+
+    problem = window_problem()
+    if problem is not None:
+        print(problem, file=sys.stderr)
+        return EXIT_PROBLEMS
+    from kneeboard.app.main import run  # the desktop app, on a folder or profile if one is named
+
+    return run(target)
+
+
+def _internal_error(exc: Exception) -> int:
+    if os.environ.get("KNEEBOARD_DEBUG"):
+        raise exc
+    print(printable(f"kneeboard: internal error, please report it: {type(exc).__name__}: {exc} "
+                    "(set KNEEBOARD_DEBUG=1 for details)"), file=sys.stderr)
+    return EXIT_BUG
+
+
+def _quiet_stdout() -> None:
+    """Point stdout at /dev/null, so the interpreter's own flush at exit cannot fail a second time."""
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError):
+        pass
+
+
+def _closed_pipe() -> int:
+    # `kneeboard check FLEET | head -1`: the reader has what it wanted; end quietly, as a shell tool does
+    _quiet_stdout()
+    return EXIT_PIPE
 
 
 if __name__ == "__main__":
@@ -233,5 +300,14 @@ if __name__ == "__main__":
 
 
 def main_exit() -> None:
-    """Console-script entry point."""
-    sys.exit(main())
+    """Console-script entry point; the last flush of stdout is answered like every other write."""
+    code = main()
+    try:
+        sys.stdout.flush()
+    except BrokenPipeError:
+        code = _closed_pipe()
+    except OSError as exc:
+        _quiet_stdout()
+        print(f"kneeboard: the output could not be written ({exc.strerror or exc})", file=sys.stderr)
+        code = EXIT_OUTPUT
+    sys.exit(code)

@@ -13,7 +13,7 @@ from pathlib import Path
 
 from kneeboard.card import Card, LayoutError
 from kneeboard.card.sheets import SheetError
-from kneeboard.fileio import FileProblem, write_atomic
+from kneeboard.fileio import FileProblem, refuse_overwrite_of_inputs, write_atomic
 from kneeboard.pipeline import Styles, card_pdf, fleet_pdf, make_card, prepare_file
 from kneeboard.problems import Problem, printable
 
@@ -132,12 +132,12 @@ def write_pngs(cards: list[Card], folder: Path, prefix: str, dpi: int) -> list[P
     return written
 
 
-def _pngs(card: Card, folder: Path, stem: str, dpi: int) -> list[Path]:
+def _pngs(card: Card, folder: Path, stem: str, dpi: int, guard=lambda path: path) -> list[Path]:
     from kneeboard.card.raster import pdf_to_pngs
 
     written = []
     for side, png in zip(("front", "back"), pdf_to_pngs(card_pdf(card), dpi)):
-        path = folder / f"{stem}-{side}.png"
+        path = guard(folder / f"{stem}-{side}.png")
         write_atomic(path, png)
         written.append(path)
     return written
@@ -196,6 +196,15 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
 
     result = Export()
     ordered = registration_order(paths)
+    for path in ordered:
+        styles.for_profile(path)  # every style (and its logo) is known before anything is written
+
+    def guard(target: Path) -> Path:
+        refuse_overwrite_of_inputs(target, [*ordered, *styles.inputs()])
+        return target
+
+    if out is not None:
+        guard(out)
     writer = None
     if out is not None:
         title = "kneeboard cards" + (f" on {sheet} sheets" if sheet else "")
@@ -236,12 +245,12 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
                 if len(group) == grid.per_sheet:
                     flush()
         if each is not None:
-            target = each / f"{stem}.pdf"
+            target = guard(each / f"{stem}.pdf")
             write_atomic(target, card_pdf(card))
             result.written.append(target)
         if png_dpi:
             folder, prefix = (each, "") if each is not None else (out.parent, f"{out.stem}-")
-            result.written += _pngs(card, folder, f"{prefix}{stem}", png_dpi)
+            result.written += _pngs(card, folder, f"{prefix}{stem}", png_dpi, guard)
         result.cards += 1
     if progress is not None:
         progress(len(ordered), len(ordered), "")

@@ -1,7 +1,9 @@
 """Reading and writing files safely: size limits before parsing, atomic replacement on write."""
 
 import contextlib
+import errno
 import os
+import stat
 import tempfile
 from pathlib import Path
 
@@ -24,30 +26,128 @@ class FileProblem(Exception):
 
 
 def read_text(path: Path, limit: int = MAX_FILE_BYTES) -> str:
-    """Text of a small UTF-8 file; raises FileProblem for a missing, huge or non-UTF-8 file."""
+    """Text of a small UTF-8 regular file; raises FileProblem for anything else.
+
+    A missing, huge, non-UTF-8 or special file (FIFO, device, socket, folder), a symbolic link
+    loop or an impossible name each give a message; nothing ever waits on a FIFO.
+    """
     path = Path(path)
-    try:
-        with path.open("rb") as f:
-            data = f.read(limit + 1)
-    except FileNotFoundError:
-        raise FileProblem(f"{path}: no such file") from None
-    except IsADirectoryError:
-        raise FileProblem(f"{path}: is a folder, not a file") from None
-    except OSError as exc:
-        raise FileProblem(f"{path}: cannot be read ({exc.strerror or exc})") from None
-    if len(data) > limit:
-        raise FileProblem(f"{path}: larger than {limit // 1024} KiB; a profile is a few KiB, refused unread")
+    return decode_text(read_bytes(path, limit, "a profile is a few KiB"), path)
+
+
+def decode_text(data: bytes, path: Path) -> str:
+    """The text of a file's bytes as read_text decodes them; raises FileProblem when they are not UTF-8."""
     try:
         return data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         raise FileProblem(f"{path}: not UTF-8 text (byte {exc.start}); save it as UTF-8") from None
 
 
+def read_bytes(path: Path, limit: int = MAX_FILE_BYTES, why: str = "") -> bytes:
+    """The bytes of a regular file of at most `limit` bytes; raises FileProblem for anything else.
+
+    The file is opened without blocking (a FIFO without a writer would otherwise wait forever,
+    a device would stream without end), then the open descriptor itself is checked: only a
+    regular file is read, and it is refused unread when it is larger than `limit`.
+    """
+    path = Path(path)
+    flags = os.O_RDONLY | getattr(os, "O_NONBLOCK", 0) | getattr(os, "O_BINARY", 0) | getattr(os, "O_CLOEXEC", 0)
+    try:
+        fd = os.open(path, flags)
+    except ValueError:  # a NUL in the name: no file system has such a file
+        raise FileProblem(f"{_shown(path)}: is not a possible file name (it holds a NUL character)") from None
+    except OSError as exc:
+        raise FileProblem(f"{path}: {_open_failure(exc, 'read')}") from None
+    try:
+        info = os.fstat(fd)
+        if not stat.S_ISREG(info.st_mode):
+            raise FileProblem(f"{path}: {_kind(info.st_mode)}, not a regular file; refused")
+        if info.st_size > limit:
+            raise FileProblem(f"{path}: {_too_large(limit, why)}")
+        chunks, size = [], 0
+        while size <= limit:  # the size can change under us: read to the limit, never further
+            chunk = os.read(fd, limit + 1 - size)
+            if not chunk:
+                break
+            chunks.append(chunk)
+            size += len(chunk)
+    except BlockingIOError:
+        raise FileProblem(f"{path}: cannot be read without waiting; refused") from None
+    except OSError as exc:
+        raise FileProblem(f"{path}: cannot be read ({exc.strerror or exc})") from None
+    finally:
+        os.close(fd)
+    if size > limit:
+        raise FileProblem(f"{path}: {_too_large(limit, why)}")
+    return b"".join(chunks)
+
+
+def _too_large(limit: int, why: str) -> str:
+    amount = f"{limit // 1024} KiB" if limit >= 1024 else f"{limit} bytes"
+    return f"larger than {amount}{'; ' + why if why else ''}, refused unread"
+
+
+def _shown(path) -> str:
+    """A path for a message, with NULs and other controls escaped."""
+    return repr(str(path))[1:-1]
+
+
+def _kind(mode: int) -> str:
+    """What a file that is not a regular file is, in words."""
+    if stat.S_ISDIR(mode):
+        return "is a folder"
+    if stat.S_ISFIFO(mode):
+        return "is a FIFO (named pipe)"
+    if stat.S_ISSOCK(mode):
+        return "is a socket"
+    if stat.S_ISCHR(mode) or stat.S_ISBLK(mode):
+        return "is a device"
+    return "is a special file"
+
+
+def _open_failure(exc: OSError, doing: str) -> str:
+    """Why a file could not be opened, in words."""
+    if exc.errno == errno.ENOENT:
+        return "no such file"
+    if exc.errno == errno.EISDIR:
+        return "is a folder, not a file"
+    if exc.errno == errno.ELOOP:
+        return "its symbolic links form a loop; refused"
+    if exc.errno == errno.ENXIO:  # opening a socket, or a FIFO for writing with no reader
+        return "is a socket or pipe, not a regular file; refused"
+    if exc.errno == errno.ENAMETOOLONG:
+        return "the name is too long for the file system"
+    return f"cannot be {doing} ({exc.strerror or exc})"
+
+
 TEMP_SUFFIX = ".part"
+NAME_MAX = 255  #: bytes in a file name on every common file system; a temporary's name never exceeds it
+_PID_WIDTH = 10  #: digits reserved for a writer's process id in a temporary's name
+_RANDOM_WIDTH = 8  #: characters tempfile adds to make a temporary's name unique
+
+
+def _name_max(folder: Path) -> int:
+    try:
+        return min(NAME_MAX, os.pathconf(folder or ".", "PC_NAME_MAX"))
+    except (OSError, ValueError, AttributeError):  # no pathconf on this platform, or the folder is not there
+        return NAME_MAX
+
+
+def _temp_stem(path: Path) -> str:
+    """The part of a file's name its temporaries carry: all of it, or its start when the whole would not fit.
+
+    The temporary ".NAME.PID.RANDOM.part" must fit wherever NAME fits (a legal 250-byte name too),
+    so a long NAME is cut, at a character boundary, leaving room for the widest process id.
+    """
+    budget = _name_max(path.parent) - (3 + _PID_WIDTH + _RANDOM_WIDTH + len(TEMP_SUFFIX))
+    stem = path.name
+    while len(os.fsencode(stem)) > budget:
+        stem = stem[:-1]
+    return stem
 
 
 def _temp_prefix(path: Path, pid: int | str) -> str:
-    return f".{path.name}.{pid}."
+    return f".{_temp_stem(path)}.{pid}."
 
 
 def remove_stale_temporaries(path: Path) -> list[Path]:
@@ -57,12 +157,13 @@ def remove_stale_temporaries(path: Path) -> list[Path]:
     A writer that is still running (another save of the same file) is left alone.
     """
     removed = []
+    stem = _temp_stem(path)
     try:
-        candidates = list(path.parent.glob(f".{glob_escape(path.name)}.*{TEMP_SUFFIX}"))
-    except OSError:
+        candidates = list(path.parent.glob(f".{glob_escape(stem)}.*{TEMP_SUFFIX}"))
+    except (OSError, ValueError):
         return removed
     for tmp in candidates:
-        pid = tmp.name[len(path.name) + 2:].split(".", 1)[0]
+        pid = tmp.name[len(stem) + 2:].split(".", 1)[0]
         if pid.isdigit() and not _alive(int(pid)):
             with contextlib.suppress(OSError):
                 tmp.unlink()
@@ -81,9 +182,37 @@ def _alive(pid: int) -> bool:
         os.kill(pid, 0)
     except ProcessLookupError:
         return False
-    except PermissionError:
+    except (PermissionError, OverflowError):
         return True
     return True
+
+
+def write_target(path: Path) -> tuple[Path, os.stat_result | None]:
+    """Where writing `path` really goes, and what is there now (None: nothing yet).
+
+    A symbolic link is followed, so its target gets the new bytes and the link stays a link; a
+    link loop, or anything at the end that is not a regular file (a folder, a device, a FIFO, a
+    socket), raises FileProblem: replacing it would destroy it, writing into it could hang.
+    """
+    path = Path(path)
+    try:
+        os.stat(path)
+    except ValueError:
+        raise FileProblem(f"{_shown(path)}: is not a possible file name (it holds a NUL character)") from None
+    except FileNotFoundError:
+        pass  # a new file, or a link to one not yet there: written at the link's target
+    except OSError as exc:
+        raise FileProblem(f"{path}: {_open_failure(exc, 'written')}") from None
+    target = Path(os.path.realpath(path))
+    try:
+        info = os.stat(target)
+    except FileNotFoundError:
+        return target, None
+    except OSError as exc:
+        raise FileProblem(f"{path}: {_open_failure(exc, 'written')}") from None
+    if not stat.S_ISREG(info.st_mode):
+        raise FileProblem(f"{path}: {_kind(info.st_mode)}, not a regular file; nothing was written")
+    return target, info
 
 
 def write_atomic(path: Path, data: bytes | str) -> None:
@@ -92,31 +221,64 @@ def write_atomic(path: Path, data: bytes | str) -> None:
     The bytes go to a temporary file in the same folder, are flushed to disk, and replace the
     target in one rename; on any error (or an interrupting signal) the temporary file is removed
     and the target untouched. A writer killed outright cannot clean up; its temporary is removed
-    by the next write of the same file.
+    by the next write of the same file. A symbolic link's target is written (the link stays);
+    a folder, device, FIFO or socket is refused (see `write_target`); a replaced file keeps its
+    owner, group and mode where the system allows.
     """
     path = Path(path)
     if isinstance(data, str):
         data = data.encode("utf-8")
-    remove_stale_temporaries(path)
+    target, before = write_target(path)
+    remove_stale_temporaries(target)
     try:
-        fd, tmp = tempfile.mkstemp(prefix=_temp_prefix(path, os.getpid()), suffix=TEMP_SUFFIX,
-                                   dir=path.parent or ".")
+        fd, tmp = tempfile.mkstemp(prefix=_temp_prefix(target, os.getpid()), suffix=TEMP_SUFFIX,
+                                   dir=target.parent or ".")
     except OSError as exc:
-        raise FileProblem(f"{path}: cannot write in {path.parent} ({exc.strerror or exc})") from None
+        raise FileProblem(f"{path}: cannot write in {target.parent} ({exc.strerror or exc})") from None
     try:
         with os.fdopen(fd, "wb") as f:
             f.write(data)
             f.flush()
             os.fsync(f.fileno())
-        _keep_mode(path, tmp)
-        os.replace(tmp, path)
-        _sync_folder(path.parent)
+        _keep_owner_and_mode(before, tmp)
+        os.replace(tmp, target)
+        _sync_folder(target.parent)
     except BaseException as exc:
         with contextlib.suppress(OSError):
             os.unlink(tmp)
         if isinstance(exc, OSError):
             raise FileProblem(f"{path}: cannot be written ({exc.strerror or exc})") from None
         raise
+
+
+def refuse_overwrite_of_inputs(output: Path, inputs) -> None:
+    """Raise FileProblem when writing `output` would destroy one of `inputs` (profiles, a style, a logo).
+
+    Refused: an output that is an input, or reaches one through a symbolic or hard link, and any
+    output ending in ".toml" (the ending of profiles and styles: no card is ever written there).
+    """
+    output = Path(output)
+    if output.name.lower().endswith(".toml"):
+        raise FileProblem(f"{output}: ends in .toml like profiles and styles; choose another name for the output")
+    real = _real(output)
+    for given in inputs:
+        given = Path(given)
+        if _real(given) == real or _same_file(output, given):
+            raise FileProblem(f"{output}: is the input {given}; an output never replaces an input")
+
+
+def _real(path: Path) -> str:
+    try:
+        return os.path.normcase(os.path.realpath(path))
+    except (OSError, ValueError):
+        return os.path.normcase(os.path.abspath(path))
+
+
+def _same_file(a: Path, b: Path) -> bool:
+    try:
+        return os.path.samefile(a, b)
+    except (OSError, ValueError):  # one of them does not exist (or cannot be reached): not the same file
+        return False
 
 
 def _sync_folder(folder: Path) -> None:
@@ -132,12 +294,23 @@ def _sync_folder(folder: Path) -> None:
         os.close(fd)
 
 
-def _keep_mode(path: Path, tmp: str) -> None:
-    """A replaced file keeps its permissions; a new one gets the usual ones (mkstemp makes 0600)."""
-    try:
-        mode = path.stat().st_mode & 0o777
-    except FileNotFoundError:
+def _keep_owner_and_mode(before: os.stat_result | None, tmp: str) -> None:
+    """A replaced file keeps its owner, group and permissions; a new one gets the usual ones (mkstemp makes 0600).
+
+    Only the superuser may give a file to someone else; a member of the file's group may still
+    keep its group. Where neither is allowed the file becomes the saver's, as any editor does.
+    """
+    if before is None:
         umask = os.umask(0)
         os.umask(umask)
-        mode = 0o666 & ~umask
-    os.chmod(tmp, mode)
+        os.chmod(tmp, 0o666 & ~umask)
+        return
+    chown = getattr(os, "chown", None)
+    if chown is not None and (before.st_uid, before.st_gid) != (os.getuid(), os.getgid()):
+        for uid, gid in ((before.st_uid, before.st_gid), (-1, before.st_gid)):
+            try:
+                chown(tmp, uid, gid)
+                break
+            except OSError:  # EPERM, or a file system without owners
+                continue
+    os.chmod(tmp, stat.S_IMODE(before.st_mode))

@@ -24,7 +24,7 @@ from datetime import date
 from pathlib import Path
 
 from kneeboard import fields, report
-from kneeboard.card.style import CardStyle, fleet_style_path, load_style
+from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organisation_problems
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
 from kneeboard.problems import Problem
@@ -80,8 +80,23 @@ class Styles:
         key = self.path_for(profile_path)
         if key not in self._loaded:
             style, problems = load_style(key)
-            self._loaded[key] = (None if style is None else self.overrides.styled(style), tuple(problems))
+            if style is not None and (self.overrides.size is not None or self.overrides.landscape is not None):
+                style = self.overrides.styled(style)
+                too_wide = organisation_problems(style)  # the organisation must fit the card this run makes
+                problems = list(problems) + [p.in_file(str(key or "")) for p in too_wide]
+                style = None if too_wide else style
+            self._loaded[key] = (style, tuple(problems))
         return self._loaded[key]
+
+    def inputs(self) -> list[Path]:
+        """Every style and logo file read so far: an output may never replace one."""
+        found = []
+        for key, (style, _) in self._loaded.items():
+            if key is not None:
+                found.append(key)
+            if style is not None and style.logo is not None:
+                found.append(style.logo)
+        return found
 
 
 @dataclass(frozen=True)
@@ -150,12 +165,12 @@ def prepare_text(text: str, style: CardStyle, overrides: Overrides = NONE, path:
 def make_card(prepared: Prepared, made_on: str | None = None):
     """The laid-out card of a prepared profile; raises LayoutError when it cannot be printed legibly."""
     from kneeboard.card import Card, layout_card
-    from kneeboard.card.logo import logo_png
 
     if prepared.table is None:
         raise ValueError("a profile with errors has no card")
+    # the logo was decoded and checked when the style was read: drawing never meets a broken one
     layout = layout_card(prepared.table, prepared.style, prepared.fingerprint, made_on or today(),
-                         logo_png(prepared.style.logo))
+                         prepared.style.logo_png)
     return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint)
 
 

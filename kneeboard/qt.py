@@ -9,11 +9,16 @@ def ensure_gui_app():
     It is a full QApplication, not a bare QGuiApplication: Qt allows one application object per
     process, and widgets created later in the same process (the app, a test) need the full one.
     """
+    import threading
+
     from PySide6.QtCore import QCoreApplication
     from PySide6.QtWidgets import QApplication
 
     app = QCoreApplication.instance()
     if app is None:
+        if threading.current_thread() is not threading.main_thread():
+            # Qt's application object belongs to the main thread; one made elsewhere corrupts Qt's event loop later
+            raise RuntimeError("the Qt application must be started on the main thread before rendering elsewhere")
         if not os.environ.get("DISPLAY") and not os.environ.get("WAYLAND_DISPLAY"):
             os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
         app = QApplication(["kneeboard"])

@@ -229,6 +229,13 @@ def _bank_text(bank_rad: float) -> str:
     return f"{rounding.down(math.degrees(bank_rad), 0.01):.2f}".rstrip("0").rstrip(".")
 
 
+def _bank_deg(stall: float, speed: float) -> float:
+    """Bank [deg] where the stall speed rises to `speed`; 0 when it is there already (a printed speed may lie a
+    rounding's hair under the stall speed it was taken from)."""
+    bank = float(turns.bank_at_stall_speed(stall, speed))
+    return math.degrees(bank) if math.isfinite(bank) else 0.0
+
+
 def _configuration(r, buffer: Printed, spd, dist, speed_unit: str) -> ConfigurationTable:
     """One configuration's printed figures. Margins and banks come from the printed pattern speed, the speed the
     pilot flies: printed pattern - printed stall = printed margin on every row (stall up, so margins err low)."""
@@ -256,12 +263,12 @@ def _configuration(r, buffer: Printed, spd, dist, speed_unit: str) -> Configurat
     vb = vp - units.to_si(buffer.value, units.SPEED, speed_unit)
     buffer_bank = None
     if vb >= r.level_stall_speed:
-        buffer_bank = _down(math.degrees(float(turns.bank_at_stall_speed(r.level_stall_speed, vb))))
+        buffer_bank = _down(_bank_deg(r.level_stall_speed, vb))
     return ConfigurationTable(
         name=r.name,
         stall_speed=_up(spd(r.level_stall_speed)),
         pattern_speed=pattern,
-        zero_margin_bank=_down(math.degrees(float(turns.bank_at_stall_speed(r.level_stall_speed, vp)))),
+        zero_margin_bank=_down(_bank_deg(r.level_stall_speed, vp)),
         buffer_bank=buffer_bank,
         flap_limit_speed=None if r.flap_limit_speed is None else _down(spd(r.flap_limit_speed)),
         limit_load_factor=_down(r.limit_load_factor, 0.1),

@@ -75,13 +75,69 @@ class QuantityError(ValueError):
 
 @lru_cache(maxsize=512)
 def _unit(text: str):
-    """Resolve a unit expression once; pint objects are immutable, so caching is safe."""
+    """Resolve a unit expression once and check it is a plain unit; pint objects are immutable, so caching is safe.
+
+    Every call into pint happens inside the one `try`: pint raises many unrelated types for junk
+    (and some only later, from `dimensionality`), so nothing it raises may escape as anything but
+    QuantityError.
+    """
     if not _is_unit_expression(text):
         raise QuantityError(f"{text!r} is not a unit", "")
     try:
-        return ureg.parse_units(text)
+        unit = ureg.parse_units(text)
+        _check_plain(text, unit)
+        unit.dimensionality  # noqa: B018 - resolved here, where a failure can still be caught
+    except QuantityError:
+        raise
     except Exception as exc:  # pint raises several unrelated types for junk
         raise QuantityError(f"unknown unit {text!r}", "") from exc
+    return unit
+
+
+def _check_plain(text: str, unit) -> None:
+    """Refuse a unit that would change the number as written, or that is no amount at all.
+
+    A logarithmic unit (neper, decibel, octave, decade) is a level, not an amount; a pure-number
+    factor (percent, turn, radian, degree of angle, dozen, ppm...) or a unit hiding one (rpm is
+    2 pi radian per minute) silently scales the number; units whose dimensions cancel ("g/kg")
+    are such a factor too. A temperature scale with an offset (degC) only stands alone.
+    """
+    container = unit._units
+    names = list(container)
+    for name in names:
+        plain_name = name.removeprefix("delta_")
+        definition = ureg._units.get(name) or ureg._units.get(plain_name)
+        if definition is None:
+            raise QuantityError(f"{text!r} is not a unit a value can have", "")
+        if definition.is_logarithmic:
+            raise QuantityError(f"{text!r} holds {plain_name}, a logarithmic unit (a level, not an amount); "
+                                "only plain units are accepted", "")
+        if name not in ureg._units or not definition.is_multiplicative and (len(names) > 1 or container[name] != 1):
+            # pint turns an offset scale inside a product into a made-up delta_ unit
+            raise QuantityError(f"{text!r} puts the temperature scale {plain_name} inside an expression; "
+                                'a temperature is written alone, e.g. "15 degC"', "")
+        if not ureg.get_dimensionality(name):
+            raise QuantityError(f"{text!r} holds {name}, a pure number that would change the value as written; "
+                                "write the value in a plain unit", "")
+        roots = ureg.get_root_units(name)[1]._units
+        hidden = [root for root in roots if not ureg.get_dimensionality(root)]
+        if hidden:
+            raise QuantityError(f"{text!r} holds {name}, which counts {hidden[0]}s (a pure number); "
+                                "write the value in a plain unit", "")
+    _check_no_cancelling(text, container)
+
+
+def _check_no_cancelling(text: str, container) -> None:
+    """Refuse units whose dimensions cancel between them ("kt*g/kg", "kt*h/s"): a pure-number factor in disguise."""
+    used: dict[str, float] = {}
+    total: dict[str, float] = {}
+    for name, power in container.items():
+        for dim, exponent in ureg.get_dimensionality(name).items():
+            used[dim] = used.get(dim, 0) + abs(exponent * power)
+            total[dim] = total.get(dim, 0) + exponent * power
+    if any(used[dim] != abs(total[dim]) for dim in used):
+        raise QuantityError(f"{text!r} has units that cancel each other (a pure-number factor); "
+                            "write the value in one plain unit", "")
 
 
 def _is_unit_expression(text: str) -> bool:
@@ -103,12 +159,33 @@ def _factor(unit_text: str, si_unit: str) -> float:
     return float(ureg.Quantity(1.0, _unit(unit_text)).to(si_unit).magnitude)
 
 
+# "1,560 lb", "1 560 lb", "1'560 lb", "1_560 lb": digits grouped in threes. Read as written they would be
+# 1 of a unit called ",560 lb"; refused with a word on how to write them.
+_GROUPED = re.compile(r"\s*([-+]?[0-9]{1,3}(?:([,' _])[0-9]{3})(?:\2[0-9]{3})*(?:\.[0-9]*)?)\s*(.*?)\s*\Z")
+_DECIMAL_COMMA = re.compile(r"\s*([-+]?[0-9]+),([0-9]+)\s*(.*?)\s*\Z")
+
+
 def split(text: str) -> tuple[float, str]:
     """Split "52 kt" into (52.0, "kt"); raises QuantityError when it is not number-and-unit."""
     m = _NUMBER_UNIT.match(text) if len(text) <= MAX_TEXT else None
     if not m:
         raise QuantityError("not a number followed by a unit", "")
+    if m.group(2)[:1] in (",", "'", "_") or m.group(2)[:1].isdigit():
+        _refuse_separators(text)
     return float(m.group(1)), m.group(2)
+
+
+def _refuse_separators(text: str) -> None:
+    """Say how to write a number with thousands separators or a decimal comma, which are not read."""
+    grouped = _GROUPED.match(text)
+    if grouped:
+        digits = re.sub(r"[,' _]", "", grouped.group(1))
+        raise QuantityError("thousands separators are not accepted; "
+                            f"write {' '.join(filter(None, (digits, grouped.group(3))))}", "")
+    comma = _DECIMAL_COMMA.match(text)
+    if comma:
+        written = " ".join(filter(None, (f"{comma.group(1)}.{comma.group(2)}", comma.group(3))))
+        raise QuantityError(f"the decimal separator is a point, not a comma; write {written}", "")
 
 
 def parse(value: object, kind: Kind) -> float:

@@ -41,6 +41,29 @@ def checked_file(path):
 
 
 @pytest.fixture
+def open_document(qapp):
+    """Open profile documents for a test and delete them when it ends, on the main thread.
+
+    A QObject left to Python's cyclic garbage collector may be destroyed on whatever thread collects it (a test's
+    worker thread, say), and Qt objects must die on the thread they live in.
+    """
+    import shiboken6
+
+    from kneeboard.app.document import ProfileDocument
+
+    made = []
+
+    def open_(path):
+        made.append(ProfileDocument.open(path))
+        return made[-1]
+
+    yield open_
+    for doc in made:
+        if shiboken6.isValid(doc):
+            shiboken6.delete(doc)
+
+
+@pytest.fixture
 def sample_paths():
     return sorted(SAMPLES.glob("*.toml"))
 

@@ -9,9 +9,9 @@ from kneeboard.card.ops import Image, Text
 from kneeboard.card.style import load_style
 from kneeboard.shipped import default_style_path
 
-# a 2 x 1 pixel PNG (invented test image)
+# a 2 x 1 pixel PNG (invented test image; every chunk's checksum right, as logos are now checked)
 PNG = base64.b64decode(
-    "iVBORw0KGgoAAAANSUhEUgAAAAIAAAABCAYAAAD0In+KAAAAEUlEQVR4nGNgYGD4z8DAwMAAAAgAAdXo4W8AAAAASUVORK5CYII="
+    "iVBORw0KGgoAAAANSUhEUgAAAAIAAAABCAYAAAD0In+KAAAAD0lEQVR4nGNQckn7DwQMABNLBMmFFcQnAAAAAElFTkSuQmCC"
 )
 SVG = '<svg xmlns="http://www.w3.org/2000/svg" width="40" height="20"><rect width="40" height="20" fill="#246"/></svg>'
 

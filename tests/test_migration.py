@@ -27,12 +27,10 @@ def test_format_0_is_read_and_warned():
     assert migrate_text(MINIMAL) == (MINIMAL, None)
 
 
-def test_app_migrates_and_keeps_the_original_on_first_save(qapp, tmp_path):
-    from kneeboard.app.document import ProfileDocument
-
+def test_app_migrates_and_keeps_the_original_on_first_save(open_document, tmp_path):
     path = tmp_path / "old.toml"
     path.write_text(FORMAT_0)
-    doc = ProfileDocument.open(path)
+    doc = open_document(path)
     assert doc.modified and doc.migrated_from == 0
     assert doc.undo_stack.undoText() == "Update the file format"
     assert not any("schema" in p.path for p in doc.loaded.problems)

@@ -43,13 +43,11 @@ def test_style_paths_stay_in_the_style_folder(tmp_path, logo):
     assert problems[0].path == "logo" and ("outside" in problems[0].message or "no such" in problems[0].message)
 
 
-def test_unknown_keys_survive_a_save(qapp, tmp_path):
-    from kneeboard.app.document import ProfileDocument
-
+def test_unknown_keys_survive_a_save(open_document, tmp_path):
     path = tmp_path / "p.toml"
     path.write_text(MINIMAL.replace("[aircraft]", "owner_note = \"hangar 3\"\n\n[aircraft]") +
                     'paint = "blue"   # kept\n')
-    doc = ProfileDocument.open(path)
+    doc = open_document(path)
     assert [p.path for p in doc.loaded.warnings] == ["owner_note", "configuration[1].paint"]
     doc.set(("aircraft", "max_weight"), "760 kg")
     doc.save()

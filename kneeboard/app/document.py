@@ -4,18 +4,26 @@ The document is the one truth the editor edits: values are stored exactly as typ
 entry stays in the document, and the problem it causes is shown), comments and unknown keys
 survive, and every edit goes through Qt's undo stack as a before/after snapshot of the whole
 text, so undoing back to the start gives the original file byte for byte.
+
+The document also remembers what it read from disk (a hash of the bytes, their time and size)
+at opening and at every save. A save checks the file again just before writing and raises
+SaveConflict when someone else changed it meanwhile (another program, a second window), and a
+file watcher tells the window as soon as that happens, so no one's change is overwritten unseen.
 """
 
 import copy
+import hashlib
+import os
 import tomllib
 import uuid
+from dataclasses import dataclass
 from pathlib import Path
 
 import tomlkit
-from PySide6.QtCore import QObject, Signal
+from PySide6.QtCore import QFileSystemWatcher, QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
-from kneeboard.fileio import FileProblem, read_text, write_atomic
+from kneeboard.fileio import MAX_FILE_BYTES, FileProblem, decode_text, read_bytes, write_atomic
 from kneeboard.profile_io import (
     ProfileFile,
     backup_path,
@@ -26,6 +34,29 @@ from kneeboard.profile_io import (
 )
 
 Key = tuple  #: a path into the document: ("configuration", 0, "stall_speed")
+
+
+class SaveConflict(FileProblem):
+    """The file changed on disk since it was opened or last saved; saving would overwrite that change."""
+
+
+@dataclass(frozen=True)
+class DiskState:
+    """What a file held when it was read or written: enough to tell whether it differs now."""
+
+    sha256: str  #: hash of the file's bytes
+    mtime_ns: int
+    size: int  #: [bytes]
+
+
+def disk_state(path: Path) -> tuple[bytes, DiskState]:
+    """The bytes of a profile file and their state; raises FileProblem as reading does."""
+    data = read_bytes(Path(path), MAX_FILE_BYTES, "a profile is a few KiB")
+    try:
+        info = os.stat(path)
+    except OSError as exc:
+        raise FileProblem(f"{path}: cannot be read ({exc.strerror or exc})") from None
+    return data, DiskState(hashlib.sha256(data).hexdigest(), info.st_mtime_ns, info.st_size)
 
 
 class _Edit(QUndoCommand):
@@ -65,10 +96,17 @@ def key_text(key: Key) -> str:
 class ProfileDocument(QObject):
     changed = Signal()  #: after every edit, undo and redo
     modifiedChanged = Signal(bool)
+    changedOnDisk = Signal()  #: the file now differs from what this document read or wrote  # noqa: N815
 
-    def __init__(self, text: str, path: Path | None = None, parent=None):
+    def __init__(self, text: str, path: Path | None = None, parent=None, disk: DiskState | None = None):
         super().__init__(parent)
         self.path = Path(path) if path is not None else None
+        self.disk = disk  #: what the file held when last read or written here; None: not read from a file
+        self._told: str | None = None  # the change on disk last signalled
+        self._watcher = QFileSystemWatcher(self)
+        self._watcher.fileChanged.connect(self._disk_event)
+        self._watcher.directoryChanged.connect(self._disk_event)
+        self._watch()
         self.untitled_id = uuid.uuid4().hex[:12]  #: names the crash-recovery copy until the profile has a file
         self.undo_stack = QUndoStack(self)
         # a bound method, not a lambda: Qt drops the connection when this object goes away
@@ -89,7 +127,8 @@ class ProfileDocument(QObject):
     @classmethod
     def open(cls, path: Path, parent=None) -> "ProfileDocument":
         """Raises FileProblem when the file cannot be read or is not TOML at all."""
-        return cls(read_text(Path(path)), path, parent)
+        data, state = disk_state(Path(path))
+        return cls(decode_text(data, Path(path)), path, parent, state)
 
     def text(self) -> str:
         return self._text
@@ -221,23 +260,86 @@ class ProfileDocument(QObject):
         self.apply(change, label)
 
     # --- saving --------------------------------------------------------------------------------
-    def save(self, path: Path | None = None) -> None:
-        """Write the document atomically; raises FileProblem and keeps the edits when it fails."""
+    def save(self, path: Path | None = None, force: bool = False) -> None:
+        """Write the document atomically; raises FileProblem and keeps the edits when it fails.
+
+        Saving over its own file raises SaveConflict when that file changed on disk since this
+        document read or wrote it, unless `force` (the person chose to overwrite that change).
+        """
         target = Path(path) if path is not None else self.path
         if target is None:
             raise FileProblem("the profile has no file yet; choose where to save it")
+        if not force and target == self.path and self.changed_on_disk():
+            raise SaveConflict(f"{target}: was changed on disk since it was opened; saving would overwrite "
+                               "that change")
         if self.migrated_from is not None and target == self.path and target.is_file():
             backup = backup_path(target, self.migrated_from)
             if not backup.exists():  # the first save over an older file keeps that file
-                write_atomic(backup, target.read_bytes())
+                write_atomic(backup, read_bytes(target))
         write_atomic(target, self._text)
+        written = self._text.encode("utf-8")
+        try:
+            info = os.stat(target)
+            self.disk = DiskState(hashlib.sha256(written).hexdigest(), info.st_mtime_ns, info.st_size)
+        except OSError:
+            self.disk = None
         self.migrated_from = None if file_format(self._text) != 0 else self.migrated_from
         self.path = target
+        self._told = None
+        self._watch()
         self.saved_text = self._text
         self._loaded = None
         self._plain = None
         self.undo_stack.setClean()
         self.changed.emit()
+
+    # --- the file on disk ------------------------------------------------------------------------
+    def changed_on_disk(self) -> bool:
+        """Whether the file now holds other bytes than this document read or wrote (or is gone)."""
+        return self._sha_on_disk() is not None
+
+    def _sha_on_disk(self) -> str | None:
+        """The hash of what the file holds now when it differs from what was read or written ("" gone), else None."""
+        if self.path is None or self.disk is None:
+            return None
+        try:
+            _data, now = disk_state(self.path)
+        except FileProblem:
+            return ""  # deleted, or replaced by something unreadable: not what we read
+        return None if now.sha256 == self.disk.sha256 else now.sha256
+
+    def reload_from_disk(self) -> None:
+        """Replace the text with the file's, as one undoable edit; the document is then clean (as saved)."""
+        data, state = disk_state(self.path)
+        text = decode_text(data, self.path)
+        document_from_text(text, str(self.path))  # raises FileProblem before anything changes
+        if text != self._text:
+            self.undo_stack.push(_Edit(self, self._text, text, "Reload from disk", -1))
+        self.disk = state
+        self._told = None
+        self.saved_text = text
+        self.undo_stack.setClean()
+        self._watch()
+
+    def _watch(self) -> None:
+        """Watch the file and its folder; an atomic replace drops the file's watch, so it is added again."""
+        if self.path is None:
+            return
+        real = Path(os.path.realpath(self.path))
+        wanted = [str(p) for p in (real, real.parent) if p.exists()]
+        stale = [p for p in self._watcher.files() + self._watcher.directories() if p not in wanted]
+        if stale:
+            self._watcher.removePaths(stale)
+        missing = [p for p in wanted if p not in self._watcher.files() + self._watcher.directories()]
+        if missing:
+            self._watcher.addPaths(missing)
+
+    def _disk_event(self, _path: str) -> None:
+        self._watch()
+        now = self._sha_on_disk()
+        if now is not None and now != self._told:  # one signal per change, however many events it makes
+            self._told = now
+            self.changedOnDisk.emit()
 
     def _load_text(self, text: str, parsed=None) -> None:
         self._doc = parsed  # None: parsed again only if another edit comes (undo and redo need just the text)

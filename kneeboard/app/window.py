@@ -17,7 +17,7 @@ from PySide6.QtWidgets import (
 )
 
 from kneeboard.app.actions import CardActions
-from kneeboard.app.document import ProfileDocument
+from kneeboard.app.document import ProfileDocument, SaveConflict
 from kneeboard.app.editor import ProfileEditor
 from kneeboard.app.fleet import FleetPanel
 from kneeboard.app.paths import SAMPLES, TEMPLATES
@@ -54,6 +54,8 @@ class MainWindow(CardActions, QMainWindow):
         self.ask_restore = self._ask_restore
         self.ask_save_path = self._ask_save_path
         self.show_problems = self._show_problems
+        self.ask_conflict = self._ask_conflict  # -> "reload" | "overwrite" | "save-as" | "cancel"
+        self._asking_conflict = False
 
         self.fleet = FleetPanel()
         self.fleet.opened.connect(self.open_profile)
@@ -204,6 +206,7 @@ class MainWindow(CardActions, QMainWindow):
         doc.changed.connect(self.schedule_preview)
         doc.changed.connect(self._update_title)
         doc.modifiedChanged.connect(lambda _m: self._update_title())
+        doc.changedOnDisk.connect(self._changed_on_disk)
         self.act_undo.setEnabled(True)
         self._update_title()
         self.schedule_preview()
@@ -260,11 +263,62 @@ class MainWindow(CardActions, QMainWindow):
             return self.save_as()
         try:
             self.doc.save()
+        except SaveConflict:
+            return self._settle_conflict()
         except FileProblem as exc:
             self.show_problems("The profile was not saved", f"{exc}\nYour changes are still here.")
             return False
         self._after_save()
         return True
+
+    # --- someone else changed the open file ------------------------------------------------------
+    def _changed_on_disk(self) -> None:
+        """The watcher saw the file change: without unsaved edits take theirs (undoable), else ask."""
+        if self._asking_conflict or self.doc is None:
+            return
+        if not self.doc.modified:  # nothing of this window's would be lost
+            try:
+                self.doc.reload_from_disk()
+                note = "changed on disk and was reloaded (Undo brings back the earlier text)"
+            except FileProblem:
+                note = "changed on disk and cannot be read now; saving will ask first"
+            self.statusBar().showMessage(f"{self.doc.path.name} {note}", 8000)
+            return
+        self._settle_conflict()
+
+    def _settle_conflict(self, answer: str | None = None) -> bool:
+        """Ask (unless answered) what to do about the file's change on disk; True when the edits are now saved."""
+        if answer is None:
+            self._asking_conflict = True
+            try:
+                answer = self.ask_conflict()
+            finally:
+                self._asking_conflict = False
+        try:
+            if answer == "reload":
+                self.doc.reload_from_disk()
+                self._forget_autosave()
+                return False
+            if answer == "overwrite":
+                self.doc.save(force=True)
+                self._after_save()
+                return True
+        except FileProblem as exc:
+            self.show_problems("The profile was not saved" if answer == "overwrite" else "The file cannot be read",
+                               f"{exc}\nYour changes are still here.")
+            return False
+        return self.save_as() if answer == "save-as" else False
+
+    def _ask_conflict(self) -> str:
+        name = self.doc.path.name if self.doc.path else "the profile"
+        box = QMessageBox(QMessageBox.Icon.Warning, "Changed on disk",
+                          f"{name} was changed on disk by someone else since you opened it.", parent=self)
+        choices = {box.addButton("Reload theirs", QMessageBox.ButtonRole.DestructiveRole): "reload",
+                   box.addButton("Keep mine (overwrite)", QMessageBox.ButtonRole.AcceptRole): "overwrite",
+                   box.addButton("Save mine as…", QMessageBox.ButtonRole.ActionRole): "save-as"}
+        box.setDefaultButton(box.addButton(QMessageBox.StandardButton.Cancel))
+        box.exec()
+        return choices.get(box.clickedButton(), "cancel")
 
     def save_as(self) -> bool:
         if self.doc is None:

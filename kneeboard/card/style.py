@@ -1,19 +1,25 @@
 """Card styles: a small TOML file a school applies to its whole fleet.
 
-Like profiles, a style is data: every bad value becomes a Problem naming the field, and a logo
-path may not leave the style's own folder.
+Like profiles, a style is data read through the profile reader's guards (size, nesting, huge
+numbers, text rules): every bad value becomes a Problem naming the field, never an exception. A
+logo path may not leave the style's own folder, and the logo is checked and drawn into PNG bytes
+when the style is loaded (`CardStyle.logo_png`), so drawing a card never meets a broken logo.
 """
 
 import re
-import tomllib
 from dataclasses import dataclass, field, replace
 from pathlib import Path
 
 from kneeboard import units
-from kneeboard.card.geometry import CARD_SIZES
+from kneeboard.card.geometry import CARD_SIZES, page_box
 from kneeboard.fields import MAX_BANK_DEG
 from kneeboard.fileio import FileProblem, read_text
 from kneeboard.problems import WARNING, Problem
+from kneeboard.profile_io import parse_text
+
+# the profile's own text rules, so a style's text is held to the same (controls, bidi and zero-width marks)
+from kneeboard.schema import _key_text as key_text
+from kneeboard.schema import _not_text as first_non_text
 from kneeboard.shipped import default_style_path
 
 STYLE_VERSION = 1
@@ -26,8 +32,10 @@ def fleet_style_path(folder: Path) -> Path | None:
     """The fleet's own style file in `folder`, or None when it uses the default."""
     path = Path(folder) / FLEET_STYLE
     return path if path.is_file() else None
+
 _COLOUR = re.compile(r"#[0-9A-Fa-f]{6}\Z")
-MAX_LOGO_BYTES = 2 * 1024 * 1024
+MAX_ORGANISATION = 60  #: characters
+MAX_LOGO_NAME = 200  #: characters of the logo's file name as written
 
 
 @dataclass(frozen=True)
@@ -45,20 +53,30 @@ class CardStyle:
     speed_unit: str | None = None
     distance_unit: str | None = None
     source: Path | None = field(default=None, compare=False)
+    #: the logo as checked PNG bytes, made when the style is loaded; None without a logo (or for a style
+    #: built in code, whose `logo` is then read when a card is drawn)
+    logo_png: bytes | None = field(default=None, compare=False, repr=False)
 
     def with_changes(self, **changes) -> "CardStyle":
         return replace(self, **changes)
 
 
 def load_style(path: Path | None = None) -> tuple[CardStyle | None, list[Problem]]:
-    """Read a style file (default: the shipped one); None and the problems when it has errors."""
+    """Read a style file (default: the shipped one); None and the problems when it has errors.
+
+    Never raises for anything the file (or its logo) contains: a special file, a link loop, a
+    huge or deeply nested file, a broken logo are each a Problem naming the field or "(file)".
+    """
     path = Path(path) if path is not None else default_style_path()
     try:
-        data = tomllib.loads(read_text(path))
+        text = read_text(path)
     except FileProblem as exc:
         return None, [Problem("(file)", str(exc).removeprefix(f"{path}: "), file=str(path))]
-    except tomllib.TOMLDecodeError as exc:
-        return None, [Problem("(file)", f"is not valid TOML: {exc}", file=str(path))]
+    data, problems = parse_text(text)
+    if data is None:
+        wanted = "a card style file as described in the README"
+        return None, [Problem(p.path, p.message.replace("to be a profile", "to be a style"), wanted, file=str(path))
+                      for p in problems]
     style, problems = style_from_data(data, path.parent)
     problems = [p.in_file(str(path)) for p in problems]
     return (None if any(p.is_error for p in problems) else replace(style, source=path)), problems
@@ -75,7 +93,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
              "back", "bank_angles", "speed_unit", "distance_unit"}
     for key in data:
         if key not in known:
-            bad(key, "unknown key, not used", "", data[key], WARNING)
+            bad(key_text(key), "unknown key, not used", "", data[key], WARNING)
     version = data.get("style", STYLE_VERSION)
     if not isinstance(version, int) or isinstance(version, bool) or version > STYLE_VERSION or version < 1:
         bad("style", "is not a style format this kneeboard reads", f"style = {STYLE_VERSION}", version)
@@ -88,7 +106,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
             return default_value
         return value
 
-    organisation = text("organisation", "")
+    organisation = _organisation(data, bad)
     accent = text("accent", default.accent)
     if not _COLOUR.match(accent):
         bad("accent", "is not a colour", 'a colour as "#RRGGBB", e.g. "#1B5E8C"', accent)
@@ -104,7 +122,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     back = _blocks(data, "back", (), bad) or ()
     for name in set(front or ()) & set(back):
         bad("back", f"{name!r} is listed on both the front and the back", "each block once", name)
-    logo = _logo(data.get("logo"), folder, bad)
+    logo, logo_bytes = _logo(data.get("logo"), folder, bad)
     banks = data.get("bank_angles")
     if banks is not None and not (
         isinstance(banks, list) and 1 <= len(banks) <= 24
@@ -121,7 +139,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     if distance_unit is not None and distance_unit not in units.DISTANCE_UNITS:
         bad("distance_unit", "is not accepted", " | ".join(units.DISTANCE_UNITS), distance_unit)
         distance_unit = None
-    return CardStyle(
+    style = CardStyle(
         organisation=organisation,
         logo=logo,
         accent=accent,
@@ -134,7 +152,11 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
         bank_angles_deg=None if banks is None else tuple(sorted({float(b) for b in banks})),
         speed_unit=speed_unit,
         distance_unit=distance_unit,
-    ), found
+        logo_png=logo_bytes,
+    )
+    too_wide = organisation_problems(style)
+    found.extend(too_wide)
+    return (style.with_changes(organisation="") if too_wide else style), found
 
 
 def _blocks(data, key, default, bad):
@@ -156,25 +178,92 @@ def _blocks(data, key, default, bad):
     return tuple(dict.fromkeys(v for v in value if v in known))
 
 
-def _logo(value, folder: Path, bad) -> Path | None:
+def _organisation(data, bad) -> str:
+    """The organisation's name, held to the profile's text rules (its width is checked once the card is known)."""
+    value = data.get("organisation", "")
+    expected = f"text on one line of up to {MAX_ORGANISATION} characters"
+    if not isinstance(value, str):
+        bad("organisation", "must be text in quotes", expected, value)
+        return ""
+    if len(value) > MAX_ORGANISATION:
+        bad("organisation", f"is {len(value)} characters long", expected, value)
+        return ""
+    odd = first_non_text(value)
+    if odd is not None:
+        bad("organisation", f"contains the control character U+{ord(odd):04X}", "printable text on one line", value)
+        return ""
+    return value
+
+
+#: The registration the organisation's room is measured beside: ten characters, longer than most registrations.
+REGISTRATION_SAMPLE = "XX-XXXXXXX"
+
+
+def organisation_room(size: str, landscape: bool = False, binding: str = "none", logo: bool = False) -> float:
+    """Width each of the organisation's two lines may take in the header of this card [pt].
+
+    Measured as the header places it, at the smallest type the layout may reach on this card:
+    the content width, less the logo and the sample registration beside it.
+    """
+    from kneeboard.card import fonts
+    from kneeboard.card.draw import BASE_SIZE, FIGURE, LABEL, MIN_TEXT, REGISTRATION, SECONDARY
+    from kneeboard.card.layout import SHRINK, min_figure_size
+
+    scale = min_figure_size(size) / (BASE_SIZE[FIGURE] * SECONDARY) / SHRINK  # the last scale tried, or above
+    reg, label = max(BASE_SIZE[REGISTRATION] * scale, MIN_TEXT), max(BASE_SIZE[LABEL] * scale, MIN_TEXT)
+    width = page_box(size, landscape, binding).content_width
+    if logo:
+        width -= reg * 1.25 * 2 + label
+    return width - fonts.width(REGISTRATION_SAMPLE, fonts.BOLD, reg) - 2 * label
+
+
+def organisation_problems(style: CardStyle) -> list[Problem]:
+    """The problem of an organisation too wide for the style's card; call it again after changing the size."""
+    from kneeboard.card import fonts
+    from kneeboard.card.draw import MIN_TEXT
+
+    text = style.organisation
+    if not text:
+        return []
+    room = organisation_room(style.size, style.landscape, style.binding, style.logo is not None)
+    lines = fonts.wrap(text, fonts.BOLD, MIN_TEXT, max(room, 1.0))
+    if len(lines) <= 2 and all(fonts.width(line, fonts.BOLD, MIN_TEXT) <= room for line in lines):
+        return []
+    card = style.size + (" landscape" if style.landscape else "")
+    card += f" (bound {style.binding})" if style.binding != "none" else ""
+    beside = "registration and logo" if style.logo is not None else "registration"
+    return [Problem("organisation", f"does not fit in two lines of {max(room, 0):.0f} pt beside the {beside} "
+                    f"on a {card} card, even at the smallest type", "a shorter name, or a larger card", text)]
+
+
+def _logo(value, folder: Path, bad) -> tuple[Path | None, bytes | None]:
+    """The logo's resolved path inside the style's folder and its checked PNG bytes; (None, None) and a problem."""
+    from kneeboard.card.logo import LogoProblem, load_logo
+
     if value in (None, ""):
-        return None
+        return None, None
     expected = "a PNG or SVG file in the style's folder or below it"
-    if not isinstance(value, str) or len(value) > 200:
+    if not isinstance(value, str) or len(value) > MAX_LOGO_NAME:
         bad("logo", "is not a file name", expected, value)
-        return None
-    base = folder.resolve()
-    path = (base / value).resolve()
+        return None, None
+    if first_non_text(value) is not None:  # a NUL too: no file is named so
+        bad("logo", "holds a control character; no file is named so", expected, value)
+        return None, None
+    try:
+        base = folder.resolve()
+        path = (base / value).resolve()
+    except (OSError, RuntimeError, ValueError):  # a symbolic link loop (RuntimeError until Python 3.13)
+        bad("logo", "its symbolic links form a loop; refused", expected, value)
+        return None, None
     if Path(value).is_absolute() or not path.is_relative_to(base):
         bad("logo", "points outside the style's folder; refused", expected, value)
-        return None
+        return None, None
     if path.suffix.lower() not in (".png", ".svg"):
         bad("logo", "is not a PNG or SVG file", expected, value)
-        return None
-    if not path.is_file():
-        bad("logo", "no such file", expected, value)
-        return None
-    if path.stat().st_size > MAX_LOGO_BYTES:
-        bad("logo", "is larger than 2 MiB", "a logo file under 2 MiB", value)
-        return None
-    return path
+        return None, None
+    try:
+        return path, load_logo(path)
+    except LogoProblem as exc:
+        bad("logo", str(exc), "a PNG or SVG logo (see the README)" if "no such file" not in str(exc) else expected,
+            value)
+        return None, None
