@@ -115,9 +115,16 @@ def to_csv(table: CardTable) -> str:
     for c in table.configurations:
         for row in c.rows:
             turn = _turn(row)
-            w.writerow([table.registration, c.name, row.bank_text, row.load_factor.text, row.stall_speed.text,
+            w.writerow([_cell(table.registration), _cell(c.name), row.bank_text, row.load_factor.text,
+                        row.stall_speed.text,
                         c.pattern_speed.text, row.margin.text, *turn, _mark(row)])
     return out.getvalue()
+
+
+def _cell(text: str) -> str:
+    """A text cell a spreadsheet will not read as a formula: one starting with = + - @ (or a tab or carriage
+    return) is led by an apostrophe, as spreadsheets expect for text (OWASP, CSV injection)."""
+    return f"'{text}" if text[:1] in ("=", "+", "-", "@", "\t", "\r") else text
 
 
 def _text(printed) -> str:

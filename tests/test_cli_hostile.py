@@ -1,0 +1,167 @@
+"""The command line under the cases that once broke it: outputs onto inputs, closed pipes, full devices, typos,
+no display, a fleet with one file the program mishandles. Each case names what it once did."""
+
+import os
+import shutil
+import subprocess
+import sys
+
+import pytest
+from conftest import MINIMAL, ROOT, SAMPLES
+
+from kneeboard import display, pipeline
+from kneeboard.cli import main
+
+
+def run(capsys, *args):
+    code = main([str(a) for a in args])
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def kneeboard(*args, env=None, **kwargs):
+    base = {k: v for k, v in os.environ.items() if k not in ("DISPLAY", "WAYLAND_DISPLAY", "QT_QPA_PLATFORM")}
+    return subprocess.run([sys.executable, "-m", "kneeboard", *map(str, args)], capture_output=True, text=True,
+                          timeout=120, env={**base, **(env or {})}, cwd=ROOT, **kwargs)
+
+
+@pytest.fixture
+def fleet(tmp_path):
+    folder = tmp_path / "fleet"
+    folder.mkdir()
+    for name in ("demo_trainer.toml", "demo_microlight.toml"):
+        shutil.copy(SAMPLES / name, folder)
+    (folder / "fleet.style.toml").write_text('organisation = "Demo Flying Club"\n')
+    return folder
+
+
+@pytest.mark.parametrize("target", ["demo_trainer.toml", "fleet.style.toml", "new.toml"])
+def test_an_output_never_replaces_an_input(capsys, fleet, target):
+    # `card p.toml -o p.toml` once replaced the profile with a PDF, exit 0; the style likewise
+    before = {p.name: p.read_bytes() for p in fleet.iterdir()}
+    code, _, err = run(capsys, "card", fleet, "-o", fleet / target)
+    assert code == 2 and (".toml" in err or "input" in err)
+    assert {p.name: p.read_bytes() for p in fleet.iterdir()} == before
+
+
+def test_an_output_through_a_link_onto_an_input_is_refused(capsys, fleet, tmp_path):
+    link = tmp_path / "card.pdf"
+    link.symlink_to(fleet / "demo_trainer.toml")
+    before = (fleet / "demo_trainer.toml").read_bytes()
+    code, _, err = run(capsys, "card", fleet / "demo_trainer.toml", "-o", link)
+    assert code == 2 and "input" in err
+    assert (fleet / "demo_trainer.toml").read_bytes() == before and link.is_symlink()
+
+
+def test_each_and_png_names_match_and_counts_are_what_was_written(capsys, tmp_path):
+    # --each --png once named PNGs apart from the de-duplicated PDFs, and counted files it never wrote
+    folder = tmp_path / "twins"
+    folder.mkdir()
+    text = (SAMPLES / "demo_microlight.toml").read_text(encoding="utf-8")
+    (folder / "a.toml").write_text(text)
+    (folder / "b.toml").write_text(text.replace('registration = "DEMO-ML"', 'registration = "demo-ml"'))
+    out = tmp_path / "cards"
+    code, text_out, err = run(capsys, "card", folder, "--each", out, "--png", 40)
+    assert code == 0, err
+    names = sorted(p.name for p in out.iterdir())
+    assert names == sorted(["DEMO-ML.pdf", "DEMO-ML-front.png", "DEMO-ML-back.png",
+                            "demo-ml-2.pdf", "demo-ml-2-front.png", "demo-ml-2-back.png"])
+    assert "wrote 2 PDF(s)" in text_out and "wrote 4 PNG page(s)" in text_out
+
+
+def test_one_profile_the_program_mishandles_never_costs_the_others_their_cards(capsys, fleet, monkeypatch):
+    real = pipeline.compute
+
+    def broken_for_the_trainer(profile, *args, **kwargs):
+        if profile.aircraft.registration == "DEMO-TRN":
+            raise ZeroDivisionError("an invented bug")
+        return real(profile, *args, **kwargs)
+
+    monkeypatch.setattr(pipeline, "compute", broken_for_the_trainer)
+    out = fleet.parent / "cards.pdf"
+    code, text, err = run(capsys, "card", fleet, "-o", out)
+    assert code == 2 and out.is_file() and "1 card(s)" in text
+    assert "demo_trainer.toml: internal error on this profile" in err and "Traceback" not in err
+    code, text, _ = run(capsys, "check", fleet)
+    assert code == 2 and "demo_microlight.toml: ok" in text and "internal error on this profile" in text
+
+
+def test_a_closed_pipe_ends_quietly():
+    # `kneeboard check DIR | head -1` once ended in "internal error, please report it"
+    proc = subprocess.Popen([sys.executable, "-m", "kneeboard", "check", str(SAMPLES)], stdout=subprocess.PIPE,
+                            stderr=subprocess.PIPE, cwd=ROOT)
+    proc.stdout.readline()
+    proc.stdout.close()
+    err = proc.stderr.read().decode()
+    assert proc.wait(timeout=60) == 141 and "internal error" not in err and "Traceback" not in err
+
+
+@pytest.mark.skipif(not os.path.exists("/dev/full"), reason="needs /dev/full (Linux)")
+def test_a_full_output_device_is_said_in_one_line():
+    with open("/dev/full", "w") as full:
+        proc = subprocess.run([sys.executable, "-m", "kneeboard", "table", str(SAMPLES / "demo_trainer.toml")],
+                              stdout=full, stderr=subprocess.PIPE, text=True, cwd=ROOT, timeout=60)
+    assert proc.returncode == 74 and proc.stderr.strip().endswith("(No space left on device)")
+    assert "internal error" not in proc.stderr
+
+
+def test_control_characters_in_a_file_name_are_escaped(capsys, tmp_path):
+    path = tmp_path / "evil\x1b[31m\nname.toml"
+    path.write_text(MINIMAL.replace('"50 kt"', '"50 kg"'))
+    code, out, _ = run(capsys, "check", path)
+    assert code == 2 and "\x1b" not in out and "\\x1b[31m\\x0aname.toml" in out
+    assert all(line.startswith(str(tmp_path)) or line.startswith("CAUTION") for line in out.splitlines())
+
+
+def test_csv_cells_never_start_a_formula(capsys, tmp_path):
+    path = tmp_path / "p.toml"
+    path.write_text(MINIMAL.replace('name = "Flaps up"', 'name = "=HYPERLINK(1)"'))
+    code, out, _ = run(capsys, "table", path, "--format", "csv")
+    assert code == 0 and ",'=HYPERLINK(1)," in out and "\n=" not in out and ",=" not in out
+    assert ",-1," in out  # a negative margin stays a number (1.4 x stall leaves none at 60 degrees)
+
+
+def test_an_unknown_command_gets_a_suggestion_with_or_without_a_display():
+    for env in ({}, {"DISPLAY": ":99"}):
+        proc = kneeboard("crad", "x.toml", env=env)
+        assert proc.returncode == 2 and "unknown command 'crad'; did you mean 'card'?" in proc.stderr
+        assert "xcb" not in proc.stderr and "Aborted" not in proc.stderr
+
+
+def test_no_display_is_said_in_one_line_naming_what_works():
+    proc = kneeboard()
+    assert proc.returncode == 2
+    assert proc.stderr.count("\n") == 1 and "no display" in proc.stderr and "check, table and card" in proc.stderr
+
+
+def test_missing_window_libraries_are_named_by_their_packages(tmp_path):
+    empty = tmp_path / "lib"
+    empty.mkdir()
+    (empty / "libxcb.so.1").touch()
+    said = display.window_problem({"DISPLAY": ":0"}, "linux", folders=(str(empty),))
+    assert said.splitlines()[1].startswith("  sudo apt install libxcb-cursor0 libxcb-icccm4")
+    assert "libxcb1" not in said  # the one that is there is not asked for
+    for library in display.XCB_LIBRARIES:
+        (empty / library).touch()
+    assert display.window_problem({"DISPLAY": ":0"}, "linux", folders=(str(empty),)) is None
+    assert display.window_problem({}, "darwin") is None
+    assert display.window_problem({"QT_QPA_PLATFORM": "offscreen"}, "linux") is None
+
+
+def test_help_names_the_app_and_every_page_ends_with_the_caution(capsys):
+    for args in (["--help"], ["check", "--help"], ["table", "--help"], ["card", "--help"], ["--version"]):
+        with pytest.raises(SystemExit) as stop:
+            main(args)
+        assert stop.value.code == 0
+        out = " ".join(capsys.readouterr().out.split())
+        assert out.endswith("qualified flight instructor."), args
+    with pytest.raises(SystemExit):
+        main(["--help"])
+    assert "kneeboard [PROFILE_OR_FOLDER]" in capsys.readouterr().out
+
+
+@pytest.mark.parametrize("weight", ["0.001 kg", "600000 kg", "5e-324 kg", "48 kt*neper"])
+def test_a_weight_override_is_checked_like_the_files_own(capsys, fleet, weight):
+    # these once made cards the reader would refuse, or ended in exit 70 for the whole fleet
+    code, _, err = run(capsys, "card", fleet, "-o", fleet.parent / "w.pdf", "--weight", weight)
+    assert code == 2 and "--weight" in err and "internal error" not in err
