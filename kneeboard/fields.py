@@ -124,7 +124,11 @@ FIELDS: tuple[Field, ...] = (
 
 #: The sections of a profile file (tables, or arrays of tables) and the top-level keys.
 SECTIONS = ("aircraft", "weight", "configuration", "glider", "card")
-TOP_LEVEL = ("schema",) + SECTIONS
+TOP_LEVEL = ("schema", "template") + SECTIONS  #: template: the template a new profile was made from
+
+#: The keys whose template values are placeholders for the aircraft's own figures (the card settings are defaults).
+PLACEHOLDER_SECTIONS = ("aircraft", "weight", "configuration", "glider")
+NOT_PLACEHOLDERS = {"aircraft.category", "aircraft.speed_basis", "configuration.name", "configuration.pattern_factor"}
 
 BY_PATH: dict[str, Field] = {f.path: f for f in FIELDS}
 

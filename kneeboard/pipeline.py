@@ -27,7 +27,7 @@ from kneeboard import fields, report
 from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organisation_problems
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
-from kneeboard.problems import Problem
+from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import Profile
 from kneeboard.profile_io import Source, read_source, source_from_text
 from kneeboard.schema import profile_from_data
@@ -133,17 +133,18 @@ def prepare(source: Source, style: CardStyle | None, overrides: Overrides = NONE
         return Prepared(source.path, source.fingerprint, style, None, None, None, source.problems, style_problems)
     data, origins = _merged(source.data, style, overrides)
     profile, found = profile_from_data(data)
+    found += placeholder_problems(source.data)
     problems = [_relabel(p, origins).in_file(where) for p in found]
     results = table = None
     if profile is not None:
         results = compute(profile)
-        problems += [p.in_file(where) for p in physics_checks(profile, results)]
+        problems += [p.in_file(where) for p in physics_checks(profile, results) + glyph_problems(profile)]
     if style is None:
         problems += [p for p in style_problems if p.is_error]
     if any(p.is_error for p in problems):
         profile = results = None
     else:
-        table = build(profile, results=results, warnings=tuple(warning_line(p, profile) for p in problems))
+        table = build(profile, results=results, warnings=card_warnings(problems, profile))
     return Prepared(source.path, source.fingerprint, style, profile, results, table, tuple(problems),
                     style_problems)
 
@@ -203,7 +204,76 @@ def report_text(prepared: Prepared, form: str) -> str:
     return REPORTS[form](prepared.table)
 
 
+# --- checks of the data that are neither the reader's nor the physics' ----------------------------------------
+
+PLACEHOLDER = "is the template's placeholder, not a figure from this aircraft's flight manual"
+
+
+def placeholder_problems(data: dict) -> list[Problem]:
+    """Every value of a profile made from a template (it says `template = "..."`) still equal to the template's."""
+    from kneeboard.shipped import template_data
+
+    template = template_data(data.get("template")) if isinstance(data.get("template"), str) else None
+    if template is None:
+        return []
+    found = []
+
+    def walk(ours, theirs, path, section):
+        for key, value in theirs.items():
+            if key not in ours:
+                continue
+            here = f"{path}.{key}" if path else key
+            if isinstance(value, dict):
+                walk(ours[key], value, here, key if not path else section) if isinstance(ours[key], dict) else None
+            elif isinstance(value, list) and value and isinstance(value[0], dict):
+                if isinstance(ours[key], list):
+                    for i, (a, b) in enumerate(zip(ours[key], value), start=1):
+                        if isinstance(a, dict):
+                            walk(a, b, f"{here}[{i}]", section or key)
+            elif ours[key] == value and f"{section or key}.{key}" not in fields.NOT_PLACEHOLDERS:
+                found.append(Problem(here, PLACEHOLDER, "this aircraft's own figure", value, WARNING))
+
+    for section in fields.PLACEHOLDER_SECTIONS:
+        if isinstance(data.get(section), (dict, list)) and section in template:
+            ours, theirs = data[section], template[section]
+            if isinstance(theirs, dict) and isinstance(ours, dict):
+                walk(ours, theirs, section, section)
+            elif isinstance(theirs, list) and isinstance(ours, list):
+                for i, (a, b) in enumerate(zip(ours, theirs), start=1):
+                    if isinstance(a, dict) and isinstance(b, dict):
+                        walk(a, b, f"{section}[{i}]", section)
+    return found
+
+
+def glyph_problems(profile: Profile) -> list[Problem]:
+    """Text the card prints with a character its fonts cannot draw (it prints as a box): named at its field."""
+    from kneeboard.card import fonts
+
+    texts = [("aircraft.registration", profile.aircraft.registration), ("aircraft.model", profile.aircraft.model)]
+    texts += [(f"configuration[{i}].name", c.name) for i, c in enumerate(profile.configurations, start=1)]
+    texts.append(("card.notes", profile.card.notes))
+    found = []
+    for path, text in texts:
+        missing = fonts.missing(text)
+        if missing:
+            shown = ", ".join(missing[:8]) + (", ..." if len(missing) > 8 else "")
+            found.append(Problem(path, f"holds characters the card's fonts cannot draw ({shown}); they print as "
+                                 f"{fonts.substitute()}", "Latin, Greek or Cyrillic letters", severity=WARNING))
+    return found
+
+
 # --- warnings as the card prints them --------------------------------------------------------------------------
+
+
+def card_warnings(problems, profile: Profile) -> tuple[str, ...]:
+    """The card's WARNING lines: one per warning, the template's placeholders gathered into one line."""
+    warnings = [p for p in problems if not p.is_error]
+    placeholders = [p for p in warnings if p.message == PLACEHOLDER]
+    lines = [warning_line(p, profile) for p in warnings if p.message != PLACEHOLDER]
+    if placeholders:
+        lines.append(f"WARNING placeholder values from a template, not from a flight manual ({len(placeholders)}): "
+                     "replace them with this aircraft's figures")
+    return tuple(lines)
 
 
 def warning_line(problem: Problem, profile: Profile) -> str:

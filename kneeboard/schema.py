@@ -5,6 +5,7 @@ its path, what is wrong and what would be accepted, and reading goes on so that 
 everything. Errors make the profile unusable; warnings are shown but do not stop a card.
 """
 
+import difflib
 import json
 import math
 import re
@@ -65,9 +66,23 @@ class _Reader:
         return value
 
     def unknown(self, data, known_set, prefix):
+        """Keys not declared here: kept in the file, not used; one that looks like a misspelt known key says so.
+
+        A misspelt *section* at the top level (`[weigth]`) is an error: the card would silently go without it.
+        """
         for key in data:
-            if key not in known_set:
-                path = f"{prefix}.{_key_text(key)}" if prefix else _key_text(key)
+            if key in known_set:
+                continue
+            path = f"{prefix}.{_key_text(key)}" if prefix else _key_text(key)
+            close = difflib.get_close_matches(key, sorted(known_set), n=1, cutoff=0.75) if isinstance(key, str) \
+                else []
+            if close and not prefix and close[0] in fields.SECTIONS:
+                self.problem(path, f"is not a section of a profile; did you mean [{close[0]}]?",
+                             f"[{close[0]}]", value=None)
+            elif close:
+                self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",
+                             value=data[key], severity=WARNING)
+            else:
                 self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING)
 
     def read(self, name: str, data: dict, path: str | None = None, default=None):

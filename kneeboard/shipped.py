@@ -32,6 +32,15 @@ def template_path(category: str) -> Path:
     return _path("kneeboard.resources.templates", f"{category}.toml")
 
 
+def template_data(category: str) -> dict | None:
+    """The plain data of a category's template, or None when there is no such template."""
+    import tomllib
+
+    if category not in CATEGORIES_WITH_TEMPLATES:
+        return None
+    return tomllib.loads(template_path(category).read_text(encoding="utf-8"))
+
+
 def samples_folder() -> Path:
     """The shipped sample fleet (read only: copy it with `copy_samples` before editing)."""
     return _path("kneeboard.samples")

@@ -146,3 +146,41 @@ def test_templates_use_only_declared_fields():
             for row in table if isinstance(table, list) else [table]:
                 for key in row:
                     assert (section, key) in {(f.section, f.key) for f in fields.FIELDS}, (category, section, key)
+
+
+def test_a_profile_from_a_template_warns_until_every_placeholder_is_replaced():
+    from conftest import checked
+
+    from kneeboard.shipped import template_path
+
+    text = template_path("normal").read_text(encoding="utf-8")
+    p = checked(text)
+    paths = {w.path for w in p.warnings if "placeholder" in w.message}
+    assert {"aircraft.registration", "aircraft.model", "aircraft.max_weight", "configuration[1].stall_speed"} <= paths
+    assert any(line.startswith("WARNING placeholder values") for line in p.table.warnings)
+    mine = (text.replace('"NEW-1"', '"DEMO-77"').replace('"Aircraft model"', '"Trainer (invented)"')
+            .replace('"1000 kg"', '"780 kg"').replace('"100 kt"', '"98 kt"').replace('"50 kt"', '"48 kt"')
+            .replace('"45 kt"', '"43 kt"'))
+    assert not [w for w in checked(mine).warnings if "placeholder" in w.message]
+    # a profile never made from a template is never judged by one
+    assert not [w for w in checked(mine.replace('template = "normal"', "")).warnings if "placeholder" in w.message]
+
+
+def test_a_misspelt_section_is_an_error_and_a_misspelt_key_a_hint():
+    from conftest import MINIMAL, checked
+
+    p = checked(MINIMAL + '[weigth]\ntotal = "700 kg"\n')
+    assert [str(e).split(": ", 1)[1] for e in p.errors] == [
+        "weigth: is not a section of a profile; did you mean [weight]?; expected [weight]"]
+    p = checked(MINIMAL + 'flap_limt_speed = "80 kt"\n')
+    assert "did you mean flap_limit_speed?" in p.warnings[0].message
+    assert any("flap_limit_speed" in line for line in p.table.warnings)
+
+
+def test_characters_the_fonts_cannot_draw_are_named_at_their_field():
+    from conftest import MINIMAL, checked
+
+    p = checked(MINIMAL + '[card]\nnotes = "日本 and Říčany"\n')
+    (w,) = [w for w in p.warnings if w.path == "card.notes"]
+    assert "日, 本" in w.message and "Ř" not in w.message
+    assert not [w for w in checked(MINIMAL + '[card]\nnotes = "Αερολέσχη Аэроклуб"\n').warnings]
