@@ -76,9 +76,10 @@ class _Reader:
             path = f"{prefix}.{_key_text(key)}" if prefix else _key_text(key)
             close = difflib.get_close_matches(key, sorted(known_set), n=1, cutoff=0.75) if isinstance(key, str) \
                 else []
-            if close and not prefix and close[0] in fields.SECTIONS:
-                self.problem(path, f"is not a section of a profile; did you mean [{close[0]}]?",
-                             f"[{close[0]}]", value=None)
+            if close and not prefix and close[0] in fields.SECTIONS and isinstance(data[key], (dict, list)):
+                # named at the section it looks like: that is the field the person will look for
+                self.problem(close[0], f"[{_key_text(key)}] is not a section of a profile; did you mean "
+                             f"[{close[0]}]?", f"[{close[0]}]")
             elif close:
                 self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",
                              value=data[key], severity=WARNING)
