@@ -98,6 +98,14 @@ def to_json(table: CardTable) -> str:
     return json.dumps(to_json_data(table), indent=2)
 
 
+#: The marks of the text and CSV tables, and what each means: the card shows them as black fill, hatching, a frame.
+MARKS = {
+    "STALL": "margin 0 or less: the configuration stalls at this bank (black on the card)",
+    "<buffer": "margin below the buffer (hatched on the card)",
+    ">limit": "load factor at or above the configuration's limit load factor (framed on the card)",
+}
+
+
 def _mark(row) -> str:
     marks = {STALL: "STALL", BUFFER: "<buffer"}.get(row.state, "")
     if row.over_limit:
@@ -143,10 +151,11 @@ def to_text(table: CardTable) -> str:
     su, du = table.speed_unit, table.distance_unit
     lines = [
         f"{table.registration}  {table.model}",
-        f"weight {table.weight.text} {table.weight_unit} (speeds published at {table.reference_weight.text} "
+        f"card weight {table.weight.text} {table.weight_unit} (reference weight {table.reference_weight.text} "
         f"{table.weight_unit}){'  ABOVE MAXIMUM WEIGHT' if table.over_max_weight else ''}",
-        f"limit load factor {table.limit_load_factor.text} (level-turn bank {table.limit_bank.text} deg)"
-        + (f", maneuvering speed at this weight {table.maneuvering_speed.text} {su}" if table.maneuvering_speed
+        f"limit load factor {table.limit_load_factor.text} g, limit bank {table.limit_bank.text} deg (structural, "
+        "not a bank to fly)"
+        + (f"; maneuvering speed VA at this weight {table.maneuvering_speed.text} {su}" if table.maneuvering_speed
            else ""),
         f"turns at pressure altitude {table.pressure_altitude.text} {du}, {table.temperature_c.text} degC, "
         f"density altitude {table.density_altitude.text} {du}; buffer {table.buffer.text} {su}",
@@ -155,9 +164,10 @@ def to_text(table: CardTable) -> str:
         buffer_bank = f"{c.buffer_bank.text} deg" if c.buffer_bank else "none (margin below buffer)"
         lines += [
             "",
-            f"{c.name}: stall {c.stall_speed.text} {su}, pattern {c.pattern_speed.text} {su}, "
-            f"zero margin at {c.zero_margin_bank.text} deg, buffer kept to {buffer_bank}"
-            + (f", flap limit {c.flap_limit_speed.text} {su}" if c.flap_limit_speed else ""),
+            f"{c.name}: stall speed {c.stall_speed.text} {su}, pattern speed {c.pattern_speed.text} {su}, "
+            f"zero-margin bank {c.zero_margin_bank.text} deg, buffer bank {buffer_bank}, "
+            f"limit load factor {c.limit_load_factor.text} g"
+            + (f", flap limit speed VFE {c.flap_limit_speed.text} {su}" if c.flap_limit_speed else ""),
             f"{'bank':>5} {'n':>5} {'stall':>6} {'margin':>7} {'radius':>7} {'180':>5} {'360':>5}",
             f"{'deg':>5} {'':>5} {su:>6} {su:>7} {du:>7} {'s':>5} {'s':>5}",
         ]
@@ -181,4 +191,6 @@ def to_text(table: CardTable) -> str:
                          f"{_text(row.turn_radius):>7} {_text(row.circle_time):>7} {_text(row.height_loss_180):>9}")
     if table.notes:
         lines += ["", f"notes: {table.notes}"]
+    lines += ["", "marks: " + "; ".join(f"{mark} {meaning}" for mark, meaning in MARKS.items())]
+    lines += table.warnings
     return "\n".join(lines) + "\n"

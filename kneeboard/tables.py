@@ -107,6 +107,7 @@ class CardTable:
 
     registration: str
     model: str
+    category: str  #: the aircraft's category (normal, utility, acrobatic, glider)
     speed_unit: str
     distance_unit: str
     weight_unit: str
@@ -184,6 +185,7 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
     return CardTable(
         registration=profile.aircraft.registration,
         model=profile.aircraft.model,
+        category=profile.aircraft.category,
         speed_unit=su,
         distance_unit=du,
         weight_unit=wu,

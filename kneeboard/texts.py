@@ -1,8 +1,8 @@
 """Words the card, the app and the command line all show, kept in one place."""
 
 CAUTION_CARD = (
-    "Computed from published stall speeds for coordinated, level, power-off flight at the stated weight. "
-    "Actual stall speed changes with centre of gravity, power, contamination and manoeuvre. "
+    "Computed from the flight manual's power-off stall speeds, for coordinated, level turns at the stated weight. "
+    "The actual stall speed changes with center of gravity, power, contamination and maneuver. "
     "The aircraft flight manual and local regulations govern. Not a substitute for instruction."
 )
 

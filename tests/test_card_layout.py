@@ -61,9 +61,10 @@ def _printed_texts(table):
         for p in (c.stall_speed, c.pattern_speed, c.flap_limit_speed):
             if p is not None:
                 texts.add(p.text)
-        for p in (c.zero_margin_bank, c.buffer_bank):
+        for p in (c.zero_margin_bank, c.buffer_bank, c.limit_bank):
             if p is not None:
                 texts.add(f"{p.text}°")
+        texts.add(c.limit_load_factor.text)
         for r in c.rows:
             texts |= {r.load_factor.text, r.stall_speed.text, r.margin.text, f"{r.bank_text}°"}
             for p in (r.turn_radius, r.time_180, r.time_360):
@@ -83,7 +84,7 @@ def test_every_figure_is_the_table_builders_rounded_text(name):
     figures = [op.text for page in c.pages for op in page.ops if isinstance(op, Text) and op.role == FIGURE]
     assert figures
     for text in figures:
-        parts = text.split("/")  # "19/38": the 180 and 360 degree times, each the builder's text
+        parts = text.split("/")  # "19/38": the 180 and 360 degree times; "3.8/74°": limit and limit bank
         for part in parts:
             part = part.removesuffix("°") + ("°" if part.endswith("°") else "")
             assert part in allowed, text
@@ -157,7 +158,7 @@ def test_chart_marks_zero_margin_and_buffer_banks():
     c = card("demo_trainer")
     chart_texts = {op.text for page in c.pages for op in page.ops if isinstance(op, Text)}
     for cfg in c.table.configurations:
-        assert f"{cfg.zero_margin_bank.text}°" in chart_texts
-        assert f"fly {cfg.pattern_speed.text}" in chart_texts
+        assert f"zero-margin bank {cfg.zero_margin_bank.text}°" in chart_texts
+        assert f"pattern {cfg.pattern_speed.text}" in chart_texts
     assert any(re.match(r"stall speed, kt IAS", t) for t in chart_texts)
     assert "bank angle" in chart_texts

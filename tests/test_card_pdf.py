@@ -80,8 +80,11 @@ def test_caution_on_every_page(name):
 
 
 def test_caution_wording_fixed():
-    for phrase in ("coordinated, level, power-off flight at the stated weight", "centre of gravity, power, "
-                   "contamination and manoeuvre", "flight manual and local regulations govern"):
+    # power-off is the stall speeds' condition, not the turn's: a level turn needs power
+    assert "power-off flight" not in CAUTION_CARD
+    for phrase in ("power-off stall speeds, for coordinated, level turns at the stated weight",
+                   "center of gravity, power, contamination and maneuver",
+                   "flight manual and local regulations govern"):
         assert phrase in CAUTION_CARD
 
 

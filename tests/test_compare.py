@@ -23,7 +23,7 @@ def expected_count(table) -> int:
     top = 8 + (table.maneuvering_speed is not None) + table.over_max_weight
     n = top
     for c in table.configurations:
-        n += 3 + (c.buffer_bank is not None) + (c.flap_limit_speed is not None)
+        n += 4 + (c.buffer_bank is not None) + (c.flap_limit_speed is not None)  # with its limit
         for r in c.rows:
             n += 2
             if r.state != STALL and r.turn_radius is not None:
@@ -37,19 +37,19 @@ def expected_count(table) -> int:
 def test_trainer_labels_and_texts_as_printed():
     figures = printed_figures(card("demo_trainer"))
     # computed: the trainer's table (see `kneeboard table sample_aircraft/demo_trainer.toml`)
-    assert figures["weight"] == "1560 lb"
+    assert figures["card weight"] == "1560 lb"
     assert figures["limit load factor"] == "4.4 g"
     assert figures["limit bank"] == "76°"
     assert figures["maneuvering speed VA"] == "94 kt"
     assert figures["density altitude"] == "800 ft"
-    assert figures["Flaps up · stall"] == "47 kt"
-    assert figures["Flaps up · fly (pattern speed)"] == "66 kt"
-    assert figures["Flaps up · 5 kt buffer left at"] == "54°"
-    assert figures["Flaps up · no margin at"] == "59°"
-    assert figures["Flaps full · flap limit"] == "85 kt"
-    assert "Flaps up · flap limit" not in figures  # None: not printed
+    assert figures["Flaps up · stall speed"] == "47 kt"
+    assert figures["Flaps up · pattern speed"] == "66 kt"
+    assert figures["Flaps up · buffer bank"] == "54°"
+    assert figures["Flaps up · zero-margin bank"] == "59°"
+    assert figures["Flaps full · flap limit speed VFE"] == "85 kt"
+    assert "Flaps up · flap limit speed VFE" not in figures  # None: not printed
     assert figures["30° · load factor"] == "1.16 g"
-    assert figures["Flaps up · 30° · stall"] == "51 kt"
+    assert figures["Flaps up · 30° · stall speed"] == "51 kt"
     assert figures["Flaps up · 30° · margin"] == "15 kt"
     assert figures["Flaps up · 30° · turn radius"] == "671 ft"
     assert figures["Flaps up · 30° · 180°/360° time"] == "19/38 s"
@@ -59,8 +59,10 @@ def test_trainer_labels_and_texts_as_printed():
     assert "Flaps up · 0° · turn radius" not in figures
     labels = list(figures)
     # print order: the header, the margin table row by row, then the limits block's summary
-    assert labels.index("weight") < labels.index("Flaps up · 0° · stall") < labels.index("Flaps full · 0° · stall") \
-        < labels.index("Flaps up · 10° · stall") < labels.index("Flaps up · stall")
+    in_order = ("card weight", "Flaps up · 0° · stall speed", "Flaps full · 0° · stall speed",
+                "Flaps up · 10° · stall speed", "Flaps up · stall speed")
+    order = [labels.index(label) for label in in_order]
+    assert order == sorted(order)
 
 
 def test_glider_circling_rows():
@@ -69,10 +71,10 @@ def test_glider_circling_rows():
     figures = printed_figures(c)
     row = next(r for r in table.glider.rows if r.bank_text == "30")
     assert figures["circling · 30° · speed"] == f"{row.speed.text} km/h"
-    assert figures["circling · 30° · sink"] == f"{row.sink_rate.text} {table.sink_unit}"
+    assert figures["circling · 30° · sink rate"] == f"{row.sink_rate.text} {table.sink_unit}"
     assert figures["circling · 30° · turn radius"] == f"{row.turn_radius.text} m"
     assert figures["circling · 30° · circle time"] == f"{row.circle_time.text} s"
-    assert figures["circling · 30° · 180° loss"] == f"{row.height_loss_180.text} m"
+    assert figures["circling · 30° · 180° height loss"] == f"{row.height_loss_180.text} m"
     assert figures["circling · straight · speed"] == f"{table.glider.min_sink_speed.text} km/h"
     assert "circling · 0° · speed" not in figures  # the card's circling table starts above 0 bank
 
@@ -108,7 +110,7 @@ def row_figures(table, config, row) -> dict[str, str]:
     """The figures of one margin-table row as the card prints them, read straight from the row."""
     su, du = table.speed_unit, table.distance_unit
     at = f"{config.name} · {row.bank_text}° · "
-    out = {at + "load factor": f"{row.load_factor.text} g", at + "stall": f"{row.stall_speed.text} {su}",
+    out = {at + "load factor": f"{row.load_factor.text} g", at + "stall speed": f"{row.stall_speed.text} {su}",
            at + "margin": f"{row.margin.text} {su}"}
     if row.state != STALL and row.turn_radius is not None:  # the turns table prints a dash when stalled
         out[at + "turn radius"] = f"{row.turn_radius.text} {du}"
@@ -137,10 +139,10 @@ def test_heavier_weight_lists_exactly_the_changed_figures(name, heavier):
     changes = compare(old_card, new_card)
     by_label = {c.label: c for c in changes}
     assert len(by_label) == len(changes)
-    assert by_label["weight"] == Change("weight", f"{old.weight.text} lb", heavier)
+    assert (by_label["card weight"].old, by_label["card weight"].new) == (f"{old.weight.text} lb", heavier)
 
     expected = expected_row_changes(old, new)
-    assert any(label.endswith("· stall") or label.endswith("· margin") for label in expected)
+    assert any(label.endswith("· stall speed") or label.endswith("· margin") for label in expected)
     row_changes = {c.label: (c.old, c.new) for c in changes if c.label.count(" · ") == 2}
     assert row_changes == expected
 
@@ -148,9 +150,9 @@ def test_heavier_weight_lists_exactly_the_changed_figures(name, heavier):
     assert not [c for c in changes if c.label.endswith("load factor")]
     # the configuration summary: listed exactly when its printed text moved
     for co, cn in zip(old.configurations, new.configurations):
-        assert (f"{cn.name} · stall" in by_label) == (co.stall_speed.text != cn.stall_speed.text)
-        assert (f"{cn.name} · fly (pattern speed)" in by_label) == (co.pattern_speed.text != cn.pattern_speed.text)
-        assert (f"{cn.name} · no margin at" in by_label) == (co.zero_margin_bank.text != cn.zero_margin_bank.text)
+        assert (f"{cn.name} · stall speed" in by_label) == (co.stall_speed.text != cn.stall_speed.text)
+        assert (f"{cn.name} · pattern speed" in by_label) == (co.pattern_speed.text != cn.pattern_speed.text)
+        assert (f"{cn.name} · zero-margin bank" in by_label) == (co.zero_margin_bank.text != cn.zero_margin_bank.text)
     assert ("limit load factor" in by_label) is False
     assert ("density altitude" in by_label) is False
     # in the new card's print order, figures no longer printed last
@@ -162,7 +164,7 @@ def test_heavier_weight_lists_exactly_the_changed_figures(name, heavier):
 
 def test_heavier_weight_worse_figures():
     changes = compare(card("demo_trainer"), card("demo_trainer", weight="1650 lb"))
-    stalls = [c for c in changes if c.label.endswith("· stall")]
+    stalls = [c for c in changes if c.label.endswith("· stall speed")]
     assert stalls and all(c.worse for c in stalls)
     # the pattern speed grows with the stall speed, so the trainer's margins grow: not worse
     assert not [c for c in changes if c.label.endswith("· margin") and c.worse]
@@ -219,7 +221,7 @@ def test_worse_is_judged_by_number_unit_and_the_figures_direction():
 def test_every_card_figure_says_which_way_is_worse_where_it_matters():
     figures = card("demo_trainer").figures()
     assert figures["Flaps up · 30° · margin"].worse == LOWER_IS_WORSE
-    assert figures["Flaps up · 30° · stall"].worse == HIGHER_IS_WORSE
-    assert figures["Flaps up · no margin at"].worse == LOWER_IS_WORSE
+    assert figures["Flaps up · 30° · stall speed"].worse == HIGHER_IS_WORSE
+    assert figures["Flaps up · zero-margin bank"].worse == LOWER_IS_WORSE
     assert figures["limit bank"].worse == LOWER_IS_WORSE
     assert figures["Flaps up · 30° · turn radius"].worse is None

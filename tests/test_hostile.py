@@ -24,7 +24,6 @@ import re
 import subprocess
 import sys
 import tomllib
-from datetime import timedelta
 from unittest import mock
 
 import pytest
@@ -215,7 +214,7 @@ def test_polar_without_three_points_or_a_minimum(tmp_path, capsys, base, polar):
 # --- size ---------------------------------------------------------------------------------------------------
 
 
-@fuzz(12, deadline=timedelta(seconds=10))
+@fuzz(12, deadline=None)  # tomllib parses a megabyte of escapes in seconds on a loaded machine; hang_guard bounds it
 @given(base=BASES, filler=FILLERS, size=st.integers(10_000, MAX_FILE_BYTES - 4_000),  # past every text limit
        where=st.sampled_from(["aircraft.registration", "aircraft.model", "card.notes", "comment", "unknown key"]))
 def test_huge_strings_up_to_the_size_limit(tmp_path, capsys, base, filler, size, where):
@@ -235,7 +234,7 @@ def test_huge_strings_up_to_the_size_limit(tmp_path, capsys, base, filler, size,
         assert where in [p.path for p in loaded.errors] and "characters long" in str(loaded.errors)
 
 
-@fuzz(6, deadline=timedelta(seconds=10))
+@fuzz(6, deadline=None)
 @given(base=BASES, extra=st.integers(1, 200_000), filler=FILLERS)
 def test_files_over_the_limit_are_refused_unread(tmp_path, capsys, base, extra, filler):
     text = BASE_TEXTS[base] + "# " + filler * (MAX_FILE_BYTES // len(filler.encode("utf-8")))

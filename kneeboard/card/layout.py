@@ -12,7 +12,7 @@ from dataclasses import dataclass
 from kneeboard.card import blocks
 from kneeboard.card.blocks.caution import caution
 from kneeboard.card.blocks.header import back_header
-from kneeboard.card.draw import RULE, SECONDARY, Context, DoesNotFit
+from kneeboard.card.draw import BASE_SIZE, FIGURE, RULE, SECONDARY, Context, DoesNotFit
 from kneeboard.card.geometry import BINDING_MARGIN, LARGE_CARDS, MM, SAFE_MARGIN, PageBox, page_box
 from kneeboard.card.ops import Circle, Page, Part
 from kneeboard.card.style import CardStyle
@@ -24,6 +24,7 @@ SHRINK = 0.95
 MIN_FIGURE_LARGE = 10.0
 MIN_FIGURE_SMALL = 8.0
 MIN_COLUMN = 220.0  #: narrowest column worth flowing into [pt]
+LIGHT_BACK = 0.35  #: a back page whose blocks fill less than this share of it is worth saving
 
 
 class LayoutError(Exception):
@@ -60,19 +61,33 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
     floor = min_figure_size(style.size)
     scale = style.font_scale * SIZE_SCALE[style.size]
     last: DoesNotFit | None = None
-    while True:
+
+    def attempt(scale: float) -> Flowed | None:
+        """The best arrangement at this type scale: of one and two columns (landscape), the one that gives the
+        chart the most room; None when none fits."""
+        nonlocal last
         ctx = Context(table, style, scale, fingerprint, made_on, logo_png)
-        if ctx.figure * SECONDARY < floor - 1e-9:
-            break
-        try:
-            return CardLayout(_flow(ctx, box, front, back, two_columns=style.landscape), scale)
-        except DoesNotFit as exc:
-            last = exc
-        if style.landscape:  # a block too wide for half a landscape page may fit across all of it
+        found = []
+        for two in ((True, False) if style.landscape else (False,)):
             try:
-                return CardLayout(_flow(ctx, box, front, back, two_columns=False), scale)
+                found.append(_flow(ctx, box, front, back, two_columns=two))
             except DoesNotFit as exc:
                 last = exc
+        return max(found, key=lambda f: (f.chart_area, -len(f.pages))) if found else None
+
+    def legible(scale: float) -> bool:
+        return BASE_SIZE[FIGURE] * scale * SECONDARY >= floor - 1e-9
+
+    while legible(scale):
+        flowed = attempt(scale)
+        if flowed is not None:
+            # a back page that would hold little earns no paper: one page if two smaller steps of type allow it
+            if len(flowed.pages) == 2 and not back and flowed.back_fill < LIGHT_BACK:
+                for smaller in (scale * SHRINK, scale * SHRINK**2):
+                    one = attempt(smaller) if legible(smaller) else None
+                    if one is not None and len(one.pages) == 1:
+                        return CardLayout(one.pages, smaller)
+            return CardLayout(flowed.pages, scale)
         scale *= SHRINK
     block = last.block if last else "card"
     raise LayoutError(
@@ -83,7 +98,16 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
     )
 
 
-def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_columns: bool) -> tuple[Page, ...]:
+@dataclass(frozen=True)
+class Flowed:
+    """One arrangement of the blocks: its pages, and what chooses between arrangements."""
+
+    pages: tuple[Page, ...]
+    chart_area: float  #: the chart's plot room [pt^2]; 0 without a chart
+    back_fill: float  #: the share of the back page's columns its blocks take; 1 without a back page
+
+
+def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_columns: bool) -> Flowed:
     """Assign blocks to the columns of the front and back pages, then place them.
 
     Fixed blocks are measured once; the chart is assigned at its least readable height and then
@@ -136,11 +160,14 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
         pages.append((top_block, cols, column_top))
     total = len(pages)
     result = []
+    chart_area, back_fill = 0.0, 1.0
     for side, (top_block, cols, column_top) in enumerate(pages, start=1):
         parts, placed = [], []
         if top_block is not None:
             parts.append(Part(box.left, box.top, top_block.ops))
             placed.append(top_block.name)
+        if side == 2:
+            back_fill = sum(sum(height(n) for n in names) for names in cols) / (len(cols) * (column_top - bottom))
         for c, names in enumerate(cols):
             used = sum(height(n) for n in names) + gap * max(len(names) - 1, 0)
             spare = column_top - bottom - used
@@ -150,6 +177,7 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
                 if spec.sizes is not None:  # a block that grows takes the room its column has left
                     least, preferred = spec.sizes(ctx, col_w)
                     b = spec.draw(ctx, col_w, min(preferred, least + spare))
+                    chart_area += col_w * b.height
                 else:
                     b = built[name]
                 parts.append(Part(box.left + c * (col_w + gap), y, b.ops))
@@ -159,7 +187,7 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
         parts.append(Part(box.left, box.bottom + closing.height, closing.ops))
         parts.append(Part(0.0, 0.0, tuple(_binding_marks(box, ctx.style.binding))))
         result.append(Page(box.width, box.height, tuple(parts), tuple(placed) + ("caution",)))
-    return tuple(result)
+    return Flowed(tuple(result), chart_area, back_fill)
 
 
 def _binding_marks(box: PageBox, binding: str) -> list:

@@ -40,7 +40,7 @@ def caution(ctx: Context, width: float, page: int, pages: int):
         else:
             d.text(bar + 4, y, line, CAUTION)
     d.rect(0, top, bar, top - y + cs * 0.35, fill=INK)
-    items = [t.registration, weight_text(t), f"profile {ctx.fingerprint}", ctx.made_on]
+    items = [t.registration, weight_text(t), f"fingerprint {ctx.fingerprint}", ctx.made_on]
     side = f"{'front' if page == 1 else 'back'} {page}/{pages}" if pages > 1 else ""
     room = width - (fonts.width(side, fonts.BOLD, ss) + ss if side else 0)
     lines = [""]

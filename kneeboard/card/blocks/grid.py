@@ -74,9 +74,18 @@ def group_headers(d: Draw, top: float, groups, label_size: float, block: str) ->
 
 
 def sub_headers(d: Draw, block: str, top: float, labels) -> float:
-    """Small column labels [(text, x, w)], each wrapped to two lines at most."""
+    """Small column labels [(text, x, w)], each wrapped to two lines, or three breaking after a hyphen."""
     ss = d.ctx.size(SMALL)
-    wrapped = [(fit_lines(block, text, fonts.REGULAR, ss, w - 1, 2), x, w) for text, x, w in labels]
+
+    def fitted(text, w):
+        try:
+            return fit_lines(block, text, fonts.REGULAR, ss, w - 1, 2)
+        except DoesNotFit:
+            if "-" not in text:
+                raise
+            return fit_lines(block, text.replace("-", "- "), fonts.REGULAR, ss, w - 1, 3)
+
+    wrapped = [(fitted(text, w), x, w) for text, x, w in labels]
     n = max(len(lines) for lines, _, _ in wrapped)
     for lines, x, w in wrapped:
         for k, line in enumerate(lines):

@@ -34,15 +34,15 @@ def draw(ctx: Context, width: float, _height=None):
         y -= ts * 1.2
         d.text(0, y, line, TITLE)
     y -= ls * 1.55
-    lead = "Computed for "
+    lead = "card weight "
     d.text(0, y, lead, LABEL)
     x = fonts.width(lead, fonts.REGULAR, ls)
-    d.text(x, y, weight_text(t), LABEL, True, figures=figure(terms.WEIGHT, weight_text(t)))
+    d.text(x, y, weight_text(t), LABEL, True, figures=figure(terms.CARD_WEIGHT, weight_text(t)))
     x += fonts.width(weight_text(t), fonts.BOLD, ls)
-    rest = f"  ·  speeds published at {t.reference_weight.text} {t.weight_unit}"
+    rest = f"  ·  reference weight {t.reference_weight.text} {t.weight_unit}"
     d.text(x, y, rest, LABEL, figures=figure(terms.REFERENCE_WEIGHT, t.reference_weight, t.weight_unit))
     x += fonts.width(rest, fonts.REGULAR, ls)
-    stamp = f"made {ctx.made_on}  ·  profile {ctx.fingerprint}"
+    stamp = f"made {ctx.made_on}  ·  fingerprint {ctx.fingerprint}"
     if x + fonts.width(stamp, fonts.REGULAR, ss) + ls > width:
         y -= ss * 1.35
     d.text(width, y, stamp, SMALL, align="right", color=GREY)

@@ -1,4 +1,10 @@
-"""Structural limits and, per configuration, the banks where the buffer and the margin run out."""
+"""Structural limits and, per configuration, the banks where the buffer and the margin run out.
+
+The limit bank is printed as what it is: the bank at which a level turn loads the structure to its limit, a
+structural figure, not a bank to fly. A normal-category card says that the category's operations end at 60 degrees
+of bank (14 CFR 23.3(a) before amendment 23-64, steep turns of not more than 60 degrees; secondary sources, the
+text itself not retrieved).
+"""
 
 from kneeboard import terms
 from kneeboard.card import fonts
@@ -8,6 +14,7 @@ from kneeboard.card.draw import INK, Context, Draw, figure, fit_lines, weight_te
 from kneeboard.card.ops import HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, SMALL
 
 NAME = "limits"
+NORMAL_CATEGORY_BANK = 60  #: [deg] 14 CFR 23.3(a) before amendment 23-64
 
 
 def draw(ctx: Context, width: float, _height=None):
@@ -16,37 +23,47 @@ def draw(ctx: Context, width: float, _height=None):
     fs = ctx.secondary_figure
     ls = ctx.size(LABEL)
     su = t.speed_unit
-    va = f"; maneuvering speed VA {t.maneuvering_speed.text} {su}" if t.maneuvering_speed else ""
-    y = heading(d, width, 0.0, f"LIMITS AT {weight_text(t)}",
-                f"limit load factor {t.limit_load_factor.text} g, reached in a level turn at "
-                f"{t.limit_bank.text}° bank{va}",
+    detail = (f"Structure: limit load factor {t.limit_load_factor.text} g; a level turn reaches it at "
+              f"{t.limit_bank.text}° (limit bank: a structural figure, not a bank to fly).")
+    if t.category == "normal":
+        detail += f" Normal category: no bank beyond {NORMAL_CATEGORY_BANK}°."
+    if t.maneuvering_speed:
+        detail += f" VA at this weight {t.maneuvering_speed.text} {su} IAS."
+    y = heading(d, width, 0.0, f"LIMITS AT {weight_text(t)}", detail,
                 (figure(terms.LIMIT_LOAD, t.limit_load_factor, "g", LOWER_IS_WORSE),
                  figure(terms.LIMIT_BANK, t.limit_bank, "°", LOWER_IS_WORSE),
                  figure(terms.VA, t.maneuvering_speed, su)))
-    names = ["", "stall", "fly", f"{t.buffer.text} {su} left", f"0 {su} left", "flap limit"]
-    name_w = width * 0.30
-    col_w = (width - name_w) / 5
-    columns = [(0, name_w)] + [(name_w + i * col_w, col_w) for i in range(5)]
+    names = ["", f"stall {su} IAS", f"pattern {su} IAS", "buffer bank", "zero-margin bank", f"VFE {su} IAS",
+             "limit g / bank"]
+    name_w = width * 0.2
+    weights = (1.0, 1.0, 1.0, 1.0, 1.0, 1.45)  # the limit column holds "2.0/60°"
+    unit = (width - name_w) / sum(weights)
+    columns, x = [(0, name_w)], name_w
+    for weight in weights:
+        columns.append((x, unit * weight))
+        x += unit * weight
     y = sub_headers(d, NAME, y, [(n, x, w) for n, (x, w) in zip(names, columns)])
     d.line(0, y, width, y, INK, 0.6)
     y_row = y
     for c in t.configurations:
         name = fit_lines(NAME, c.name, fonts.BOLD, ls, name_w - 4, 2)
         row_h = max(fs * 1.45, len(name) * ls * 1.15 + ls * 0.6)
-        buffer_label = terms.label(c.name, f"{t.buffer.text} {su} {terms.BUFFER_BANK}")
+        limit = f"{c.limit_load_factor.text}/{c.limit_bank.text}°"
         row = [
             Cell(c.stall_speed.text, figure=figure(terms.label(c.name, terms.STALL), c.stall_speed, su,
                                                    HIGHER_IS_WORSE)),
             Cell(c.pattern_speed.text, bold=True, figure=figure(terms.label(c.name, terms.PATTERN), c.pattern_speed,
                                                                 su)),
             Cell(f"{c.buffer_bank.text}°", bold=True,
-                 figure=figure(buffer_label, c.buffer_bank, "°", LOWER_IS_WORSE))
+                 figure=figure(terms.label(c.name, terms.BUFFER_BANK), c.buffer_bank, "°", LOWER_IS_WORSE))
             if c.buffer_bank else Cell(NO_VALUE, role=LABEL),
             Cell(f"{c.zero_margin_bank.text}°", bold=True,
                  figure=figure(terms.label(c.name, terms.ZERO_MARGIN_BANK), c.zero_margin_bank, "°", LOWER_IS_WORSE)),
             Cell(c.flap_limit_speed.text, figure=figure(terms.label(c.name, terms.FLAP_LIMIT), c.flap_limit_speed,
                                                         su))
             if c.flap_limit_speed else Cell(NO_VALUE, role=LABEL),
+            Cell(limit, figure=figure(terms.label(c.name, terms.LIMIT_LOAD), f"{c.limit_load_factor.text} g / "
+                                      f"{c.limit_bank.text}°", worse=None)),
         ]
         grid(d, NAME, y_row, columns[1:], [row], row_h, fs, shade=False)
         first = y_row - (row_h - len(name) * ls * 1.15) / 2 - ls * 0.85

@@ -1,9 +1,19 @@
-"""The margin chart: stall speed against bank for each configuration, its pattern speed as a level
-line, the margin shaded between them, the buffer and zero-margin banks marked.
+"""The margin chart: stall speed against bank for each configuration, its pattern speed as a level line, the margin
+shaded between them, and each configuration's zero-margin and buffer banks marked.
 
-Configurations differ in line pattern as well as colour, so the chart reads in black and white.
-The curves are full-precision data plotted as lines; the only numbers printed beside the marks
-are the table builder's rounded banks.
+Reading it at arm's length in black and white:
+
+- every configuration has its own line pattern *and* its own marker shape (circle, square, triangle, diamond);
+  a filled marker is the zero-margin bank, an open one the buffer bank;
+- no number is printed inside the plot, where it could sit on a curve or another label: each configuration's
+  legend row repeats its line, its marker shapes and their banks, so a figure is tied to its configuration by its
+  shape and its row;
+- the pattern speeds are labelled beyond the right edge, pushed apart so they never touch;
+- the aircraft's limit bank is a dashed line with its label above the plot, or an edge note with an arrow when it
+  lies beyond the axis.
+
+The curves are full-precision data plotted as lines; every number printed is the table builder's rounded text.
+`label_boxes(block)` returns every text box the chart placed, for the overlap test.
 """
 
 import math
@@ -14,13 +24,15 @@ from kneeboard import terms
 from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, figure
-from kneeboard.card.ops import LOWER_IS_WORSE, SMALL
+from kneeboard.card.ops import LOWER_IS_WORSE, SMALL, Circle, Path, Text
 
 NAME = "margin-chart"
 
 DASHES = ((), (6.0, 2.5), (1.6, 1.8), (7.0, 2.0, 1.6, 2.0))
 COLOURS = (None, "#222222", "#8C4A12", "#4A4A4A")  # None: the style's accent
+SHAPES = ("circle", "square", "triangle", "diamond")
 MIN_PLOT = 72.0  #: least height of the plotting area [pt]: one inch
+MAX_AXIS = 80.0  #: the bank axis ends at most here [deg]; a limit bank beyond gets an edge note
 
 
 def _nice_step(span: float, most: int) -> float:
@@ -38,26 +50,64 @@ def minimum_height(ctx: Context, width: float) -> float:
     return MIN_PLOT + _axes_height(ctx) + _legend_height(ctx, width)
 
 
+def sizes(ctx: Context, width: float) -> tuple[float, float]:
+    return minimum_height(ctx, width), preferred_height(ctx, width)
+
+
 def _axes_height(ctx: Context) -> float:
     return ctx.size(SMALL) * 4.4
 
 
 def _legend_height(ctx: Context, width: float) -> float:
     ss = ctx.size(SMALL)
-    return ss * 1.4 * len(_legend_rows(ctx, width)) + ss * 2.1
+    return ss * 1.45 * sum(len(row) for row in _legend_rows(ctx, width)) + ss * 0.9
 
 
-def _legend_rows(ctx: Context, width: float):
+def _legend_items(ctx: Context, i: int) -> list[tuple[str, str | None, str]]:
+    """One configuration's legend row: (kind, marker fill, text) pieces."""
+    c = ctx.table.configurations[i]
+    items = [("line", None, c.name), ("text", None, f"pattern {c.pattern_speed.text}")]
+    items.append(("marker", INK, f"zero-margin bank {c.zero_margin_bank.text}°"))
+    if c.buffer_bank is not None:
+        items.append(("marker", WHITE, f"buffer bank {c.buffer_bank.text}°"))
+    return items
+
+
+def _piece_width(ss: float, kind: str, text: str) -> float:
+    lead = ss * 3.0 if kind == "line" else ss * 1.3 if kind == "marker" else 0.0
+    return lead + fonts.width(text, fonts.BOLD if kind == "line" else fonts.REGULAR, ss) + ss * 1.2
+
+
+def _legend_rows(ctx: Context, width: float) -> list[list[list[tuple]]]:
+    """Per configuration, its pieces in lines: a row wraps where the width runs out, never mid-piece."""
     ss = ctx.size(SMALL)
-    rows, x = [[]], 0.0
-    for i, c in enumerate(ctx.table.configurations):
-        w = ss * 3 + fonts.width(c.name, fonts.REGULAR, ss) + ss * 1.5
-        if x and x + w > width:
-            rows.append([])
-            x = 0.0
-        rows[-1].append(i)
-        x += w
-    return rows
+    out = []
+    for i in range(len(ctx.table.configurations)):
+        lines, x = [[]], 0.0
+        for piece in _legend_items(ctx, i):
+            w = _piece_width(ss, piece[0], piece[2])
+            if x and x + w > width:
+                lines.append([])
+                x = ss * 3.0  # continued lines start under the name
+            lines[-1].append(piece)
+            x += w
+        out.append(lines)
+    return out
+
+
+def marker(d: Draw, shape: str, x: float, y: float, r: float, fill: str | None, stroke: str | None = INK) -> None:
+    """A marker of `shape` centred on (x, y): filled with `fill`, outlined with `stroke`."""
+    if shape == "circle":
+        d.circle(x, y, r, fill=fill, stroke=stroke, width=0.9)
+        return
+    if shape == "square":
+        s = r * 0.9
+        pts = [(x - s, y - s), (x + s, y - s), (x + s, y + s), (x - s, y + s)]
+    elif shape == "triangle":
+        pts = [(x, y + r * 1.15), (x + r * 1.05, y - r * 0.75), (x - r * 1.05, y - r * 0.75)]
+    else:
+        pts = [(x, y + r * 1.2), (x + r * 1.05, y), (x, y - r * 1.2), (x - r * 1.05, y)]
+    d.path(pts, color=stroke, width=0.9, closed=True, fill=fill)
 
 
 def draw(ctx: Context, width: float, height: float | None = None):
@@ -68,10 +118,13 @@ def draw(ctx: Context, width: float, height: float | None = None):
     d = Draw(ctx)
     ss = ctx.size(SMALL)
     accent = ctx.style.accent
+    su = t.speed_unit
     plot_h = height - _legend_height(ctx, width)
 
-    banks_max = max(max(r.bank_deg for r in t.configurations[0].rows), max(c.zero_margin_bank_deg for c in curves))
-    x_max = float(min(85, max(40, math.ceil((banks_max + 5) / 10) * 10)))
+    limit = math.degrees(t.results.limit_bank)
+    banks_max = max(max(r.bank_deg for r in t.configurations[0].rows), max(c.zero_margin_bank_deg for c in curves),
+                    limit if limit <= MAX_AXIS else 0.0)
+    x_max = float(min(MAX_AXIS, max(40, math.ceil((banks_max + 3) / 10) * 10)))
     top_speed = max(c.pattern_speed for c in curves)
     y_lo = min(c.stall_speed[0] for c in curves) * 0.85
     y_hi = top_speed * 1.12
@@ -80,9 +133,9 @@ def draw(ctx: Context, width: float, height: float | None = None):
     y_hi = math.ceil(y_hi / step) * step
 
     label_w = fonts.width(f"{y_hi:.0f}", fonts.REGULAR, ss) + ss * 0.6
-    fly_w = max(fonts.width(f"fly {c.pattern_speed.text}", fonts.BOLD, ss) for c in t.configurations) + ss * 0.6
-    px0, px1 = label_w, width - fly_w
-    py1, py0 = -ss * 1.8, -plot_h + ss * 2.6  # top and bottom of the plot area
+    pattern_w = max(fonts.width(f"pattern {c.pattern_speed.text}", fonts.BOLD, ss) for c in t.configurations)
+    px0, px1 = label_w, width - pattern_w - ss * 0.6
+    py1, py0 = -ss * 3.2, -plot_h + ss * 2.6  # top and bottom of the plot area
     if px1 - px0 < 80 or py1 - py0 < MIN_PLOT - 0.01:
         raise DoesNotFit(NAME, "too little room for a readable chart")
 
@@ -100,20 +153,23 @@ def draw(ctx: Context, width: float, height: float | None = None):
         v += step
     for b in range(0, int(x_max) + 1, 10):
         d.line(X(b), py0, X(b), py1, RULE, 0.3)
-        d.text(X(b), py0 - ss * 1.2, f"{b}°", SMALL, align="centre", color=GREY)
+        # the 0 tick starts at the axis, clear of the speed scale's lowest figure beside it
+        d.text(X(b), py0 - ss * 1.2, f"{b}°", SMALL, align="left" if b == 0 else "centre", color=GREY)
     d.line(px0, py0, px1, py0, INK, 0.8)
     d.line(px0, py0, px0, py1, INK, 0.8)
-    d.text(0, py1 + ss * 0.6, f"stall speed, {t.speed_unit} IAS", SMALL, True)
+    d.text(0, py1 + ss * 1.85, f"stall speed, {su} IAS", SMALL, True)
     d.text(px1, py0 - ss * 2.3, "bank angle", SMALL, True, "right")
 
-    limit = math.degrees(t.results.limit_bank)
+    limit_text = f"limit bank {t.limit_bank.text}° ({t.limit_load_factor.text} g)"
+    limit_tag = figure(terms.LIMIT_BANK, t.limit_bank, "°", LOWER_IS_WORSE)
     if limit <= x_max:
         d.line(X(limit), py0, X(limit), py1, INK, 0.8, (3, 2))
-        d.text(X(limit) - ss * 0.3, py1 - ss, f"limit {t.limit_load_factor.text} g", SMALL, True, "right")
+        d.text(min(X(limit) + ss * 0.3, width), py1 + ss * 0.6, limit_text, SMALL, True, "right", figures=limit_tag)
+    else:  # beyond the axis: an edge note with an arrow, so the limit is never silently off the chart
+        d.text(px1, py1 + ss * 0.6, limit_text + " \u2192", SMALL, True, "right", figures=limit_tag)
 
-    labels = _Labels(px0, px1, py0, py1)
-    marks = []  # (x, y, fill, stroke, label): drawn after every curve, so they sit on top
-    fly_ys = _spread([Y(c.pattern_speed) for c in curves], ss * 1.15, py0 + ss, py1)
+    markers = []  # drawn after every curve, so they sit on top
+    pattern_ys = _spread([Y(c.pattern_speed) - ss * 0.35 for c in curves], ss * 1.2, py0, py1 - ss * 0.8)
     for i, c in enumerate(curves):
         colour = COLOURS[i % len(COLOURS)] or accent
         dash = DASHES[i % len(DASHES)]
@@ -127,43 +183,60 @@ def draw(ctx: Context, width: float, height: float | None = None):
         d.line(X(0), Y(c.pattern_speed), px1, Y(c.pattern_speed), colour, 0.9, dash)
         d.path([(X(b), Y(s)) for b, s in stall], colour, 2.0, dash)
         printed = t.configurations[i]
-        d.line(px1, Y(c.pattern_speed), px1 + ss * 0.3, fly_ys[i] + ss * 0.35, colour, 0.6)
-        d.text(px1 + ss * 0.4, fly_ys[i], f"fly {printed.pattern_speed.text}", SMALL, True, color=colour,
-               figures=figure(terms.label(c.name, terms.PATTERN), printed.pattern_speed, t.speed_unit))
+        d.line(px1, Y(c.pattern_speed), px1 + ss * 0.25, pattern_ys[i] + ss * 0.35, colour, 0.6)
+        d.text(px1 + ss * 0.3, pattern_ys[i], f"pattern {printed.pattern_speed.text}", SMALL, True, color=colour,
+               figures=figure(terms.label(c.name, terms.PATTERN), printed.pattern_speed, su))
+        shape = SHAPES[i % len(SHAPES)]
         if zero <= x_max:
-            marks.append((X(zero), Y(c.pattern_speed), INK, None, f"{printed.zero_margin_bank.text}°",
-                          figure(terms.label(c.name, terms.ZERO_MARGIN_BANK), printed.zero_margin_bank, "°",
-                                 LOWER_IS_WORSE)))
+            markers.append((shape, X(zero), Y(c.pattern_speed), INK))
         if c.buffer_bank_deg is not None and c.buffer_bank_deg <= x_max and printed.buffer_bank is not None:
             yb = Y(float(np.interp(c.buffer_bank_deg, c.bank_deg, c.stall_speed)))
-            marks.append((X(c.buffer_bank_deg), yb, WHITE, INK, f"{printed.buffer_bank.text}°",
-                          figure(terms.label(c.name, f"{t.buffer.text} {t.speed_unit} {terms.BUFFER_BANK}"),
-                                 printed.buffer_bank, "°", LOWER_IS_WORSE)))
-    r = ss * 0.42
-    for x, y, fill, stroke, _, _ in marks:
-        d.circle(x, y, r, fill=fill, stroke=stroke, width=0.9)
-        labels.boxes.append((x - r, y - r, x + r, y + r))
-    for x, y, _, _, text, tag in marks:
-        labels.place(d, x, y, text, ss, tag)
+            markers.append((shape, X(c.buffer_bank_deg), yb, WHITE))
+    r = ss * 0.45
+    for shape, x, y, fill in markers:
+        marker(d, shape, x, y, r, fill)
 
     y = -plot_h
-    for row in _legend_rows(ctx, width):
-        x = 0.0
-        y -= ss * 1.4
-        for i in row:
-            colour = COLOURS[i % len(COLOURS)] or accent
-            d.line(x, y + ss * 0.3, x + ss * 2.4, y + ss * 0.3, colour, 2.0, DASHES[i % len(DASHES)])
-            name = t.configurations[i].name
-            d.text(x + ss * 3, y, name, SMALL)
-            x += ss * 3 + fonts.width(name, fonts.REGULAR, ss) + ss * 1.5
-    y -= ss * 1.5
-    key = [(INK, None, "no margin left"), (WHITE, INK, f"{t.buffer.text} {t.speed_unit} buffer left")]
-    x = 0.0
-    for fill, stroke, text in key:
-        d.circle(x + ss * 0.45, y + ss * 0.35, ss * 0.4, fill=fill, stroke=stroke, width=0.9)
-        d.text(x + ss * 1.2, y, text, SMALL, color=GREY)
-        x += ss * 2.2 + fonts.width(text, fonts.REGULAR, ss)
+    for i, lines in enumerate(_legend_rows(ctx, width)):
+        printed = t.configurations[i]
+        colour = COLOURS[i % len(COLOURS)] or accent
+        shape = SHAPES[i % len(SHAPES)]
+        for k, line in enumerate(lines):
+            y -= ss * 1.45
+            x = 0.0 if k == 0 else ss * 3.0
+            for kind, fill, text in line:
+                tag = None
+                if kind == "line":
+                    d.line(x, y + ss * 0.3, x + ss * 2.4, y + ss * 0.3, colour, 2.0, DASHES[i % len(DASHES)])
+                    x += ss * 3.0
+                elif kind == "marker":
+                    marker(d, shape, x + ss * 0.45, y + ss * 0.33, ss * 0.42, fill)
+                    x += ss * 1.3
+                    tag = (figure(terms.label(printed.name, terms.ZERO_MARGIN_BANK), printed.zero_margin_bank, "°",
+                                  LOWER_IS_WORSE) if fill == INK else
+                           figure(terms.label(printed.name, terms.BUFFER_BANK), printed.buffer_bank, "°",
+                                  LOWER_IS_WORSE))
+                bold = kind == "line"
+                d.text(x, y, text, SMALL, bold, color=INK if kind != "text" else GREY, figures=tag)
+                x += fonts.width(text, fonts.BOLD if bold else fonts.REGULAR, ss) + ss * 1.2
     return d.block(NAME, -(y - ss * 0.6))
+
+
+def label_boxes(block) -> list[tuple[float, float, float, float]]:
+    """Every text the chart placed, as (x0, y0, x1, y1) in the block's coordinates [pt]."""
+    boxes = []
+    for op in block.ops:
+        if type(op) is Text:
+            w = fonts.width(op.text, op.font, op.size)
+            x0 = op.x - (w if op.align == "right" else w / 2 if op.align == "centre" else 0.0)
+            boxes.append((x0, op.y - op.size * 0.22, x0 + w, op.y + fonts.ascent(op.size)))
+    return boxes
+
+
+def ink_outside_text(block) -> list:
+    """Curves and markers: what a label must not touch (grid lines and the margin shading may pass under text)."""
+    return [op for op in block.ops if (type(op) is Path and op.color is not None and op.width >= 0.9)
+            or type(op) is Circle]
 
 
 def _spread(ys, spacing, low, high):
@@ -172,7 +245,7 @@ def _spread(ys, spacing, low, high):
     placed = {}
     last = -1e9
     for i in order:
-        y = max(ys[i] - spacing * 0.35, last + spacing, low)
+        y = max(ys[i], last + spacing, low)
         placed[i] = y
         last = y
     overshoot = last - high
@@ -180,33 +253,6 @@ def _spread(ys, spacing, low, high):
         for i in placed:
             placed[i] -= overshoot
     return [placed[i] for i in range(len(ys))]
-
-
-class _Labels:
-    """Places small labels next to chart marks without overlapping each other."""
-
-    def __init__(self, x0, x1, y0, y1):
-        self.bounds = (x0, x1, y0, y1)
-        self.boxes = []
-
-    def place(self, d, x, y, text, size, tag=None):
-        w = fonts.width(text, fonts.BOLD, size)
-        h = size * 0.8
-        r = size * 0.6
-        candidates = [(x + r, y - r - h), (x - r - w, y + r), (x + r, y + r), (x - r - w, y - r - h),
-                      (x - w / 2, y + r * 1.8), (x - w / 2, y - r * 1.8 - h)]
-        x0, x1, y0, y1 = self.bounds
-        inside = [(cx, cy) for cx, cy in candidates if x0 <= cx and cx + w <= x1 and y0 <= cy and cy + h <= y1]
-        for cx, cy in inside + candidates:
-            box = (cx - 1, cy - 1, cx + w + 1, cy + h + 1)
-            if not any(_overlap(box, other) for other in self.boxes):
-                break
-        self.boxes.append(box)
-        d.text(cx, cy, text, SMALL, True, figures=tag)
-
-
-def _overlap(a, b):
-    return a[0] < b[2] and b[0] < a[2] and a[1] < b[3] and b[1] < a[3]
 
 
 def _clip(banks, speeds, x_max, y_hi):
@@ -222,10 +268,6 @@ def _clip(banks, speeds, x_max, y_hi):
             break
         points.append((float(b), float(s)))
     return points
-
-
-def sizes(ctx: Context, width: float) -> tuple[float, float]:
-    return minimum_height(ctx, width), preferred_height(ctx, width)
 
 
 SPEC = BlockSpec(NAME, "Margin chart", draw, sizes=sizes)

@@ -31,7 +31,7 @@ def draw(ctx: Context, width: float, _height=None):
     y = group_headers(d, 0.0, groups, ls, NAME)
     d.text(0, y + ls * 0.2, f"{su} IAS", LABEL, True, color=GREY)
     for c, (_, x, w) in zip(configs, groups):
-        d.text(x + w / 2, y - ls * 1.05, f"fly {c.pattern_speed.text}", LABEL, True, "centre",
+        d.text(x + w / 2, y - ls * 1.05, f"pattern {c.pattern_speed.text}", LABEL, True, "centre",
                figures=figure(terms.label(c.name, terms.PATTERN), c.pattern_speed, su))
     y -= ls * 1.4
     labels = [("bank", 0, bank_w), ("load", bank_w, n_w)]
@@ -82,7 +82,7 @@ def _legend(d: Draw, width: float, top: float, t, rows) -> float:
     ss = d.ctx.size(SMALL)
     entries = [(HATCHED, f"margin under the {t.buffer.text} {t.speed_unit} buffer",
                 figure(terms.BUFFER, t.buffer, t.speed_unit)),
-               (BLACK, "no margin: stalls at this bank", None)]
+               (BLACK, "margin 0 or less: stalls at this bank", None)]
     if any(cell.framed for r in rows for cell in r):
         entries.append(("frame", "load factor at or above that configuration's limit load", None))
     entries.append(("text", f"stall IAS at {weight_text(t)}, wings level and in the bank", None))
