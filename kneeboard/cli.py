@@ -23,7 +23,8 @@ DISTANCE_UNITS = ("ft", "m")
 
 EXIT_OK, EXIT_PROBLEMS, EXIT_BUG, EXIT_OUTPUT = 0, 2, 70, 74  #: 74: the output device failed (EX_IOERR)
 EXIT_PIPE = 141  #: the reader of the output went away (128 + SIGPIPE), as a shell tool's exit
-COMMANDS = ("check", "table", "card")
+COMMANDS = ("check", "table", "card", "compare")
+EXIT_CHANGED = 1  #: compare: the printed card is out of date
 PROGRESS_ABOVE = 5  #: more aircraft than this get a progress line on stderr
 
 
@@ -74,6 +75,10 @@ def _parser() -> argparse.ArgumentParser:
     card.add_argument("--weight", metavar="QTY", help='weight for every card, e.g. "690 kg"')
     card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help="impose several cards on Letter or A4 sheets")
     card.add_argument("--png", metavar="DPI", type=int, help="also write each card page as PNG at DPI")
+    compare = command("compare", "compare a printed card with what its profile prints now (exit 1 when it changed)")
+    compare.add_argument("card", metavar="CARD.pdf_OR_FOLDER", help="a card PDF, or a folder of them")
+    compare.add_argument("profile", metavar="PROFILE_OR_FOLDER", help="its profile, or the fleet folder")
+    compare.add_argument("--style", metavar="STYLE.toml", help=style_help)
     return p
 
 
@@ -220,7 +225,66 @@ def _safely(prepare, path, styles):
         return Prepared(path, "", None, None, None, None, (problem,))
 
 
-HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card}
+def cmd_compare(args) -> int:
+    """A printed card against its profile: every printed figure that reads differently, old and new."""
+    from kneeboard.card.data import figures_of, read_card_data
+    from kneeboard.compare import compare_figures
+    from kneeboard.fileio import read_bytes
+    from kneeboard.pipeline import make_card, prepare_file
+    from kneeboard.profile_io import expand_paths
+
+    card_path, profile_path = Path(args.card), Path(args.profile)
+    pdfs = sorted(card_path.glob("*.pdf")) if card_path.is_dir() else [card_path]
+    cards = []
+    for pdf in pdfs:
+        try:
+            found = read_card_data(read_bytes(pdf, 200 * 1024 * 1024))
+        except FileProblem as exc:
+            print(f"kneeboard compare: {printable(exc)}", file=sys.stderr)
+            return EXIT_PROBLEMS
+        if not found and not card_path.is_dir():
+            print(printable(f"kneeboard compare: {pdf}: not a kneeboard card (it carries no printed figures)"),
+                  file=sys.stderr)
+            return EXIT_PROBLEMS
+        cards += [(pdf, data) for data in found]
+    styles = _styles(args)
+    profiles = {}
+    for path in expand_paths([profile_path]):
+        prepared = _safely(prepare_file, path, styles)
+        if prepared.table is not None:
+            profiles.setdefault(prepared.table.registration.casefold(), prepared)
+        elif not profile_path.is_dir():
+            _print_problems(list(prepared.errors), sys.stderr)
+            print(f"{printable(path)}: {len(prepared.errors)} error(s); nothing to compare with", file=sys.stderr)
+            return EXIT_PROBLEMS
+    changed = problems = 0
+    for pdf, data in cards:
+        registration = str(data.get("registration", ""))
+        prepared = profiles.get(registration.casefold())
+        where = printable(f"{pdf} ({registration}, printed {data.get('made_on', '?')})")
+        if prepared is None:
+            print(f"{where}: no profile of {printable(registration)} to compare with")
+            problems += 1
+            continue
+        changes = compare_figures(figures_of(data), make_card(prepared).figures())
+        if not changes:
+            print(f"{where}: current: every printed figure reads the same (fingerprint {prepared.fingerprint})")
+            continue
+        changed += 1
+        worse = sum(c.worse for c in changes)
+        print(f"{where}: OUT OF DATE: {len(changes)} printed figure(s) read differently"
+              + (f", {worse} leaving less room" if worse else "") + "; print a new card")
+        for c in changes:
+            mark = "! less room: " if c.worse else ""
+            print(printable(f"  {mark}{c.label}: {c.old or 'not printed'} -> {c.new or 'not printed'}"))
+    if not cards:
+        print(printable(f"kneeboard compare: {card_path}: no kneeboard card found"), file=sys.stderr)
+        return EXIT_PROBLEMS
+    print(CAUTION)
+    return EXIT_PROBLEMS if problems else EXIT_CHANGED if changed else EXIT_OK
+
+
+HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare": cmd_compare}
 
 
 def main(argv: list[str] | None = None) -> int:

@@ -11,7 +11,7 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 from pathlib import Path
 
-from kneeboard.card import Card, LayoutError
+from kneeboard.card import Card, LayoutError, attachment
 from kneeboard.card.sheets import SheetError
 from kneeboard.fileio import FileProblem, refuse_overwrite_of_inputs, write_atomic
 from kneeboard.pipeline import Styles, card_pdf, fleet_pdf, make_card, prepare_file
@@ -212,6 +212,7 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
     if each is not None:
         _make_folder(each)
     used: set[str] = set()
+    fingerprints: list[str] = []
     group: list = []  # cards waiting to fill a sheet
     grid = None
 
@@ -228,7 +229,9 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
         if card is None:
             continue
         stem = _unique(safe_name(card.registration), used)
+        fingerprints.append(card.fingerprint)
         if writer is not None:
+            writer.attach(*attachment(card))
             if sheet is None:
                 writer.add(card.pages)
             else:
@@ -257,6 +260,8 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
     if writer is not None and result.cards:
         if sheet is not None:
             flush()
+        if len(fingerprints) <= 20:  # the fingerprints in the metadata, where a file browser shows them
+            writer.set_keywords("kneeboard cards, fingerprints " + ", ".join(fingerprints))
         result.pages = writer.pages
         write_atomic(out, writer.finish())
         result.written.insert(0, out)

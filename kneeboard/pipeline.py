@@ -172,7 +172,7 @@ def make_card(prepared: Prepared, made_on: str | None = None):
     # the logo was decoded and checked when the style was read: drawing never meets a broken one
     layout = layout_card(prepared.table, prepared.style, prepared.fingerprint, made_on or today(),
                          prepared.style.logo_png)
-    return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint)
+    return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint, made_on or today())
 
 
 def today() -> str:

@@ -21,6 +21,7 @@ class Card:
     table: CardTable
     layout: CardLayout
     fingerprint: str
+    made_on: str = ""
 
     @property
     def pages(self) -> tuple[Page, ...]:
@@ -36,16 +37,27 @@ class Card:
 
 
 def card_pdf(card: Card) -> bytes:
+    """The card's PDF, carrying its printed figures (`card.data`) and its fingerprint in the metadata."""
     return pdf_bytes(card.pages, title=f"kneeboard card {card.registration}",
-                     subject=f"{card.registration}, profile {card.fingerprint}")
+                     subject=f"{card.registration}, fingerprint {card.fingerprint}", attachments=[attachment(card)],
+                     keywords=f"kneeboard card, fingerprint {card.fingerprint}")
+
+
+def attachment(card: Card) -> tuple[str, bytes, str]:
+    """The embedded file that carries a card's printed figures."""
+    from kneeboard.card.data import card_json
+
+    return (f"{card.registration}.kneeboard.json", card_json(card),
+            f"the figures printed on the card of {card.registration}")
 
 
 def fleet_pdf(cards: list[Card], sheet: str | None = None) -> bytes:
     """All cards in one PDF: one card page per PDF page, or imposed on `sheet` ("letter" | "a4")."""
+    attachments = [attachment(card) for card in cards]
     if sheet is None:
         pages = [page for card in cards for page in card.pages]
-        return pdf_bytes(pages, title=f"kneeboard cards ({len(cards)} aircraft)")
+        return pdf_bytes(pages, title=f"kneeboard cards ({len(cards)} aircraft)", attachments=attachments)
     from kneeboard.card.sheets import impose
 
     return pdf_bytes(impose([card.pages for card in cards], sheet),
-                     title=f"kneeboard cards ({len(cards)} aircraft) on {sheet} sheets")
+                     title=f"kneeboard cards ({len(cards)} aircraft) on {sheet} sheets", attachments=attachments)

@@ -42,6 +42,8 @@ class PdfWriter:
         self._buf = io.BytesIO()
         self._canvas: Canvas | None = None
         self._title, self._subject = title, subject
+        self._attachments: list[tuple[str, bytes, str]] = []
+        self._keywords = ""
         self.pages = 0
 
     def add(self, pages) -> None:
@@ -60,19 +62,51 @@ class PdfWriter:
             c.showPage()
             self.pages += 1
 
+    def attach(self, name: str, data: bytes, description: str = "") -> None:
+        """Embed a file (`name`, `data`) in the PDF: an embedded file (ISO 32000-1, 7.11.4), stored uncompressed
+        so that a reader without a PDF library can find it again (`kneeboard.card.data.read_card_data`)."""
+        self._attachments.append((name, data, description))
+
+    def set_keywords(self, keywords: str) -> None:
+        """The document information's keywords (a card's fingerprint, so file browsers show it)."""
+        self._keywords = keywords
+
     def finish(self) -> bytes:
         """The PDF's bytes; a writer that got no page makes none (ValueError)."""
         if self._canvas is None:
             raise ValueError("a PDF needs at least one page")
+        if self._keywords:
+            self._canvas.setKeywords(self._keywords)
+        if self._attachments:
+            _embed(self._canvas, self._attachments)
         self._canvas.save()
         return self._buf.getvalue()
 
 
-def pdf_bytes(pages, title: str = "kneeboard card", subject: str = "") -> bytes:
-    """One PDF page per layout page, each page box exactly the page's size."""
+def pdf_bytes(pages, title: str = "kneeboard card", subject: str = "", attachments=(), keywords: str = "") -> bytes:
+    """One PDF page per layout page, each page box exactly the page's size; `attachments` are (name, bytes,
+    description) embedded files."""
     writer = PdfWriter(title, subject)
     writer.add(pages)
+    for name, data, description in attachments:
+        writer.attach(name, data, description)
+    writer.set_keywords(keywords)
     return writer.finish()
+
+
+def _embed(canvas: Canvas, files) -> None:
+    """The document's embedded files name tree (ISO 32000-1, 7.7.4 and 7.11)."""
+    from reportlab.pdfbase.pdfdoc import PDFArray, PDFDictionary, PDFName, PDFStream, PDFString
+
+    doc = canvas._doc
+    names = []
+    for name, data, description in files:
+        stream = PDFStream(PDFDictionary({"Type": PDFName("EmbeddedFile"), "Subtype": PDFName("application#2Fjson"),
+                                          "Params": PDFDictionary({"Size": len(data)})}), data, filters=[])
+        spec = PDFDictionary({"Type": PDFName("Filespec"), "F": PDFString(name), "UF": PDFString(name),
+                              "Desc": PDFString(description), "EF": PDFDictionary({"F": doc.Reference(stream)})})
+        names += [PDFString(name), doc.Reference(spec)]
+    doc.Catalog.Names = PDFDictionary({"EmbeddedFiles": PDFDictionary({"Names": PDFArray(names)})})
 
 
 def draw_ops(c: Canvas, ops, dx: float = 0.0, dy: float = 0.0) -> None:

@@ -1,0 +1,62 @@
+"""A card that knows what it printed: its printed figures, as machine-readable data inside its own PDF.
+
+Every card PDF embeds one JSON file per card (ISO 32000-1 embedded files) holding the registration, the
+fingerprint, the date, the card weight and every figure the laid-out card prints (the blocks' `ops.Figure` tags),
+and carries the fingerprint in the document's keywords. `kneeboard compare CARD.pdf PROFILE` reads it back and
+compares it with what the profile prints now. The data is stored uncompressed, so it is read back without a PDF
+library: a PDF that does not hold it (a card re-saved by another program, or any other PDF) is not a card.
+"""
+
+import json
+
+from kneeboard.card.ops import Figure
+
+DATA_VERSION = 1
+MARKER = b'{"kneeboard_card": '  #: how every card's data begins in the PDF
+
+
+def card_data(card) -> dict:
+    """The printed figures of `card` as plain data."""
+    return {
+        "kneeboard_card": DATA_VERSION,
+        "registration": card.registration,
+        "model": card.table.model,
+        "fingerprint": card.fingerprint,
+        "made_on": card.made_on,
+        "card_weight": f"{card.table.weight.text} {card.table.weight_unit}",
+        "figures": [{"key": f.identity, "label": f.label, "text": f.text, "worse": f.worse}
+                    for f in card.figures().values()],
+    }
+
+
+def card_json(card) -> bytes:
+    # ASCII: escapes keep every byte of the data printable, so nothing in it can look like PDF syntax
+    return json.dumps(card_data(card), ensure_ascii=True, separators=(",", ":")).replace(
+        '{"kneeboard_card":', '{"kneeboard_card": ', 1).encode("ascii")
+
+
+def read_card_data(pdf: bytes) -> list[dict]:
+    """Every card's data found in the bytes of a PDF, in the order they are stored (may be empty)."""
+    decoder = json.JSONDecoder()
+    found, start = [], 0
+    while (at := pdf.find(MARKER, start)) >= 0:
+        end = pdf.find(b"endstream", at)
+        chunk = pdf[at:end if end > 0 else len(pdf)].decode("ascii", errors="replace")
+        try:
+            data, _ = decoder.raw_decode(chunk)
+        except ValueError:
+            data = None
+        if isinstance(data, dict) and data.get("kneeboard_card") == DATA_VERSION and isinstance(
+                data.get("figures"), list):
+            found.append(data)
+        start = at + len(MARKER)
+    return found
+
+
+def figures_of(data: dict) -> dict[str, Figure]:
+    """A card's stored figures, as `Card.figures()` gives them (identity -> Figure)."""
+    out = {}
+    for f in data["figures"]:
+        if isinstance(f, dict) and all(isinstance(f.get(k), str) for k in ("key", "label", "text")):
+            out[f["key"]] = Figure(f["label"], f["text"], f.get("worse"), f["key"] if f["key"] != f["label"] else "")
+    return out
