@@ -210,3 +210,9 @@ def test_glider_circling_figures_from_the_published_relations():
             sink = (a * v_min**2 + b * v_min + c) * k * n**1.5 * math.sqrt(1.225 / density)
             assert g.sink_rate[i] == pytest.approx(sink, rel=2e-3)
             assert g.height_loss_180[i] == pytest.approx(sink * g.circle_time[i] / 2, rel=4e-3)
+
+
+def test_the_retractable_samples_note_quotes_the_speeds_its_card_prints():
+    t = prepared("demo_retractable").table
+    printed = [c.pattern_speed.text for c in t.configurations]
+    assert f"{printed[0]} downwind, {printed[1]} base, {printed[2]} final (KIAS" in t.notes
