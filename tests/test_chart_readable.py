@@ -76,3 +76,33 @@ def test_the_limit_bank_is_on_the_chart_even_beyond_its_axis(name):
     (part,) = chart_blocks(c)
     labels = [op.text for op in part.ops if hasattr(op, "text")]
     assert any(text.startswith(f"limit bank {c.table.limit_bank.text}°") for text in labels)
+
+
+def test_hatched_cells_keep_a_clear_area_behind_their_digits():
+    # the demo tourer's 60 degree rows are under the buffer: hatched, with the figure on a clear patch
+    import pypdfium2 as pdfium
+
+    from kneeboard.card import fonts
+    from kneeboard.card.draw import HATCH, WHITE
+    from kneeboard.card.ops import Rect, Text
+
+    c = card("demo_tourer")
+    page = c.pages[0]
+    ops = page.ops
+    # the cells (wider than high), not the legend's square swatch
+    hatched = [i for i, op in enumerate(ops) if type(op) is Rect and op.hatch == HATCH and op.w > op.h * 1.5]
+    assert hatched
+    dpi = 200
+    image = pdfium.PdfDocument(card_pdf(c))[0].render(scale=dpi / 72).to_pil().convert("L")
+    for i in hatched:
+        clear = ops[i + 1]
+        text = next(op for op in ops[i + 2:] if type(op) is Text)  # after the patch (and a frame, if any)
+        assert type(clear) is Rect and clear.fill == WHITE
+        w = fonts.width(text.text, text.font, text.size)
+        # the digits' box lies inside the clear patch
+        assert clear.x <= text.x - w and text.x <= clear.x + clear.w
+        assert clear.y <= text.y and text.y + fonts.ascent(text.size) <= clear.y + clear.h
+        # and on paper: the ring between the digits and the patch's edge is white, no hatch line crosses it
+        k = dpi / 72
+        for x, y in ((clear.x + 0.6, clear.y + clear.h / 2), (clear.x + clear.w - 0.6, clear.y + clear.h / 2)):
+            assert image.getpixel((round(x * k), round((page.height - y) * k))) > 240
