@@ -22,7 +22,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from kneeboard.aero import airspeed, atmosphere, glider, limits, turns
+from kneeboard.aero import airspeed, atmosphere, glide, glider, limits, turns
 from kneeboard.profile import AIR_BRAKES, FLAPS, Calibration, Configuration, Profile
 
 #: Banks of the chart's curves [deg]: 1 degree steps, a smooth curve at card size. They are evaluated in the same
@@ -93,6 +93,7 @@ class ConfigurationResult:
     over_limit: np.ndarray  #: True where the bank's load factor reaches or exceeds this configuration's limit
     calibration_extrapolated: bool  #: a 1-g conversion of this configuration went beyond the calibration table
     curve_stall_speed: np.ndarray  #: IAS at each of CURVE_BANKS_DEG [m/s], for the chart
+    available_load_factor: float  #: (Vp / Vs)^2: the pull that stalls the wing at the pattern speed, IAS [-]
 
 
 @dataclass(frozen=True)
@@ -113,6 +114,23 @@ class GliderResult:
 
 
 @dataclass(frozen=True)
+class TurnBackResult:
+    """The gliding turn back at best-glide angle of attack (`aero.glide`) at the card weight and density."""
+
+    best_glide_speed: float  #: IAS at 1 g at the card weight [m/s]
+    best_glide_tas: float  #: [m/s]
+    glide_ratio: float  #: [-]
+    headings: np.ndarray  #: heading changes [rad]
+    reaction_time: float  #: [s]
+    reaction_height_loss: float  #: straight glide during the reaction time [m]
+    bank: np.ndarray  #: the card's banks above 0 [rad]
+    speed: np.ndarray  #: IAS flown in the turn at each bank [m/s]
+    margin: np.ndarray  #: that speed minus the first configuration's stall speed at the bank, IAS [m/s]
+    height_loss: np.ndarray  #: [bank, heading] height lost in the turn alone [m]
+    extrapolated: bool  #: the best-glide speed's conversion went beyond the calibration table
+
+
+@dataclass(frozen=True)
 class Results:
     weight: float  #: the card weight [kg]
     reference_weight: float  #: [kg]
@@ -129,6 +147,7 @@ class Results:
     configurations: tuple[ConfigurationResult, ...]
     glider: GliderResult | None
     curve_bank_deg: np.ndarray  #: banks of each configuration's curve_stall_speed [deg]
+    turn_back: TurnBackResult | None = None  #: when the profile gives the best glide
 
     @property
     def over_max_weight(self) -> bool:
@@ -177,6 +196,7 @@ def compute(profile: Profile, weight: float | None = None, banks_deg=None) -> Re
         configurations=configs,
         glider=None if profile.glider is None else _glider(profile, bank, tas),
         curve_bank_deg=CURVE_BANKS_DEG,
+        turn_back=_turn_back(profile, bank, k, tas, configs[0]) if a.best_glide_speed is not None else None,
     )
 
 
@@ -259,6 +279,34 @@ def _configuration(profile: Profile, c: Configuration, bank, curve, k: float, ta
         over_limit=load >= n_limit * (1 - 1e-9),  # at the limit is the structure's edge: marked too
         calibration_extrapolated=extrapolated,
         curve_stall_speed=curve_ias,
+        available_load_factor=float(limits.available_load_factor(vp_ias, vs0_ias)),
+    )
+
+
+def _turn_back(profile: Profile, bank, k: float, tas, clean: ConfigurationResult) -> TurnBackResult:
+    a, card = profile.aircraft, profile.card
+    speeds = Airspeeds(a.calibration, a.speed_basis)
+    v_cas, e1 = speeds.to_cas(a.best_glide_speed)
+    v_ias, e2 = speeds.to_ias(a.best_glide_speed)
+    v_cas, v_ias = float(v_cas) * k, float(v_ias) * k  # one angle of attack: best glide scales with sqrt(W / Wr)
+    ratio = a.glide_ratio if a.glide_ratio is not None else float(glide.glide_ratio_from_sink(v_cas / k,
+                                                                                             a.best_glide_sink))
+    v_tas = float(tas(v_cas))
+    turning = bank[bank > 0]
+    headings = np.radians(np.asarray(card.turn_back_deg, dtype=float))
+    speed = glide.turn_speed(v_ias, turning)
+    return TurnBackResult(
+        best_glide_speed=v_ias,
+        best_glide_tas=v_tas,
+        glide_ratio=float(ratio),
+        headings=headings,
+        reaction_time=card.reaction_time,
+        reaction_height_loss=float(glide.straight_height_loss(v_tas, ratio, card.reaction_time)),
+        bank=turning,
+        speed=speed,
+        margin=speed - turns.stall_speed_in_bank(clean.level_stall_speed, turning),
+        height_loss=glide.turn_height_loss(v_tas, ratio, turning[:, None], headings[None, :]),
+        extrapolated=bool(e1 | e2),
     )
 
 

@@ -77,6 +77,15 @@ FIELDS: tuple[Field, ...] = (
           help="Whether the file's speeds are indicated (IAS) or calibrated (CAS) airspeeds."),
     Field("aircraft", "calibration", PAIRS, "Calibration, flaps up", columns=("IAS", "CAS"),
           help="The flight manual's airspeed calibration table: indicated against calibrated airspeed."),
+    Field("aircraft", "best_glide_speed", QUANTITY, "Best glide speed", "optional, at the reference weight",
+          quantity=units.SPEED, bounds=SPEED_RANGE,
+          help="The flight manual's best-glide speed, engine off, clean; with the glide ratio it gives the "
+               "turn-back figures."),
+    Field("aircraft", "glide_ratio", NUMBER, "Glide ratio", "e.g. 9 (or give the best-glide sink rate)",
+          bounds=(2.0, 80.0, "a number above 2 and at most 80 (distance gained per height lost), e.g. 9")),
+    Field("aircraft", "best_glide_sink", QUANTITY, "Best-glide sink rate", 'instead of the ratio, e.g. "750 fpm"',
+          quantity=units.SPEED, bounds=SINK_RANGE,
+          help="The sink rate at the best-glide speed; converted to a glide ratio at that speed."),
     # --- the weight the card is for ---
     Field("weight", "total", QUANTITY, "Total", 'e.g. "690 kg"', quantity=units.MASS, bounds=MASS_RANGE),
     Field("weight", "empty", QUANTITY, "Empty weight", 'e.g. "480 kg"', quantity=units.MASS, bounds=MASS_RANGE),
@@ -120,6 +129,11 @@ FIELDS: tuple[Field, ...] = (
     Field("card", "temperature", QUANTITY, "Temperature", "default: standard atmosphere",
           quantity=units.TEMPERATURE),
     Field("card", "notes", NOTES, "Notes", limit=600),
+    Field("card", "turn_back_degrees", BANKS, "Turn-back headings", "degrees, default 180, 270",
+          help="Heading changes of a turn back to the runway after an engine failure: more than 180 are needed."),
+    Field("card", "reaction_time", QUANTITY, "Reaction time", 'default "4 s"', quantity=units.TIME,
+          bounds=(-1e-12, 60.0, "from 0 to 60 s"),
+          help="Seconds of straight glide before the turn back begins."),
 )
 
 #: The sections of a profile file (tables, or arrays of tables) and the top-level keys.

@@ -12,6 +12,13 @@ CATEGORIES = ("normal", "utility", "acrobatic", "glider")
 SPEED_BASES = ("IAS", "CAS")
 DEFAULT_BANKS_DEG = (0.0, 15.0, 30.0, 45.0, 60.0)
 DEFAULT_PATTERN_FACTOR = 1.4
+#: Heading changes of a turn back after an engine failure [deg]: regaining the runway needs more than 180
+#: (FAA-H-8083-3, engine failure after take-off); 270 is the usual figure for a turn back to the runway's line
+#: (common practice).
+DEFAULT_TURN_BACK_DEG = (180.0, 270.0)
+#: Seconds of straight glide before the turn: the time to recognise the failure and lower the nose. The published
+#: turn-back analyses assume a few seconds; 4 s is chosen (common practice).
+DEFAULT_REACTION_TIME = 4.0
 #: What a configuration has extended, for its limit load factor (14 CFR 23.345; CS 22.345).
 NOTHING, FLAPS, AIR_BRAKES = "nothing", "flaps", "air brakes"
 EXTENDED = (NOTHING, FLAPS, AIR_BRAKES)
@@ -81,6 +88,9 @@ class Aircraft:
     maneuvering_speed_weight: float | None = None  #: weight VA is published at [kg]; None: the reference weight
     speed_basis: str = "IAS"  #: how the file's speeds are given, one of SPEED_BASES
     calibration: Calibration | None = None  #: flaps-up table, used by VA and configurations without one
+    best_glide_speed: float | None = None  #: at the reference weight, in the speed basis [m/s]
+    glide_ratio: float | None = None  #: best glide ratio L/D [-]
+    best_glide_sink: float | None = None  #: sink rate at the best-glide speed, instead of the ratio [m/s]
 
 
 @dataclass(frozen=True)
@@ -102,6 +112,8 @@ class CardSettings:
     pressure_altitude: float = 0.0  #: where the turn figures apply [m]
     temperature: float | None = None  #: outside air temperature [K]; None = standard
     notes: str = ""
+    turn_back_deg: tuple[float, ...] = DEFAULT_TURN_BACK_DEG  #: heading changes of a turn back [deg]
+    reaction_time: float = DEFAULT_REACTION_TIME  #: straight glide before the turn [s]
 
 
 @dataclass(frozen=True)

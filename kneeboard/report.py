@@ -18,6 +18,11 @@ from kneeboard.texts import CAUTION
 JSON_SCHEMA = 1
 
 
+def _bank(bank_rad) -> float:
+    """A bank as the profile gave it [deg]: the radians' round trip leaves binary noise (29.999999999999996)."""
+    return round(float(np.degrees(bank_rad)), 9)
+
+
 def _opt(x):
     return None if x is None or not math.isfinite(x) else float(x)
 
@@ -37,7 +42,7 @@ def to_json_data(table: CardTable) -> dict:
     for c in r.configurations:
         rows = [
             {
-                "bank_deg": float(np.degrees(b)),
+                "bank_deg": _bank(b),
                 "load_factor": float(n),
                 "stall_speed": spd(vs),
                 "margin": spd(m),
@@ -55,6 +60,7 @@ def to_json_data(table: CardTable) -> dict:
             "buffer_bank_deg": None if c.buffer_bank is None else float(np.degrees(c.buffer_bank)),
             "limit_load_factor": float(c.limit_load_factor),
             "limit_bank_deg": float(np.degrees(c.limit_bank)),
+            "available_load_factor": float(c.available_load_factor),
             "rows": rows,
         })
     glider = None
@@ -65,7 +71,7 @@ def to_json_data(table: CardTable) -> dict:
             "min_sink_rate_m_s": float(g.min_sink_rate),
             "rows": [
                 {
-                    "bank_deg": float(np.degrees(b)),
+                    "bank_deg": _bank(b),
                     "speed": spd(v),
                     "sink_rate_m_s": float(s),
                     "turn_radius": dist(rad),
@@ -89,8 +95,24 @@ def to_json_data(table: CardTable) -> dict:
         "maneuvering_speed": spd(r.maneuvering_speed),
         "configurations": configurations,
         "glider": glider,
+        "turn_back": _turn_back_json(r.turn_back, spd, dist),
         "warnings": list(table.warnings),
         "caution": CAUTION,
+    }
+
+
+def _turn_back_json(tb, spd, dist):
+    if tb is None:
+        return None
+    return {
+        "best_glide_speed": spd(tb.best_glide_speed),
+        "glide_ratio": float(tb.glide_ratio),
+        "headings_deg": [float(np.degrees(h)) for h in tb.headings],
+        "reaction_time_s": float(tb.reaction_time),
+        "reaction_height_loss": dist(tb.reaction_height_loss),
+        "rows": [{"bank_deg": _bank(b), "speed": spd(v), "margin": spd(m),
+                  "height_loss": [dist(h) for h in losses]}
+                 for b, v, m, losses in zip(tb.bank, tb.speed, tb.margin, tb.height_loss)],
     }
 
 

@@ -5,10 +5,6 @@ its path, what is wrong and what would be accepted, and reading goes on so that 
 everything. Errors make the profile unusable; warnings are shown but do not stop a card.
 """
 
-import difflib
-import json
-import math
-import re
 import unicodedata
 
 from kneeboard import fields, units
@@ -18,15 +14,16 @@ from kneeboard.fields import (
     SINK_RANGE,
     SPEED_RANGE,
 )
-from kneeboard.problems import ERROR, WARNING, Problem
+from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import (
     AVGAS_DENSITY,
     DEFAULT_BANKS_DEG,
     DEFAULT_PATTERN_FACTOR,
+    DEFAULT_REACTION_TIME,
+    DEFAULT_TURN_BACK_DEG,
     FLAPS,
     NOTHING,
     Aircraft,
-    Calibration,
     CardSettings,
     Configuration,
     Loading,
@@ -34,172 +31,20 @@ from kneeboard.profile import (
     Profile,
     WeightItem,
 )
+from kneeboard.values import MAX_POLAR_POINTS, Reader, finite
 
 SCHEMA_VERSION = 1
 MAX_CONFIGURATIONS = 12
 MAX_BANKS = 24
 MAX_ITEMS = 40
-MAX_POLAR_POINTS = 40
 
 #: Section -> the keys a file may have there, derived from the field declarations.
 KNOWN_KEYS = fields.known_keys()
 
 
-class _Reader:
-    """Reads fields one by one and keeps every problem it finds."""
-
-    def __init__(self):
-        self.problems: list[Problem] = []
-
-    def problem(self, path, message, expected="", value=None, severity=ERROR):
-        self.problems.append(Problem(path, message, expected, value, severity))
-
-    def table(self, data, key, path, required=False):
-        value = data.get(key)
-        if value is None:
-            if required:
-                self.problem(path, "the section is missing", f"a [{path}] section")
-            return None
-        if not isinstance(value, dict):
-            self.problem(path, "must be a section (a [table])", f"a [{path}] section", value)
-            return None
-        return value
-
-    def unknown(self, data, known_set, prefix):
-        """Keys not declared here: kept in the file, not used; one that looks like a misspelt known key says so.
-
-        A misspelt *section* at the top level (`[weigth]`) is an error: the card would silently go without it.
-        """
-        for key in data:
-            if key in known_set:
-                continue
-            path = f"{prefix}.{_key_text(key)}" if prefix else _key_text(key)
-            close = difflib.get_close_matches(key, sorted(known_set), n=1, cutoff=0.75) if isinstance(key, str) \
-                else []
-            if close and not prefix and close[0] in fields.SECTIONS and isinstance(data[key], (dict, list)):
-                # named at the section it looks like: that is the field the person will look for
-                self.problem(close[0], f"[{_key_text(key)}] is not a section of a profile; did you mean "
-                             f"[{close[0]}]?", f"[{close[0]}]")
-            elif close:
-                self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",
-                             value=data[key], severity=WARNING)
-            else:
-                self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING)
-
-    def read(self, name: str, data: dict, path: str | None = None, default=None):
-        """The value of the declared field `name` ("aircraft.max_weight") from its table `data`, checked by its
-        declaration; `path` is where it is in the file when the section repeats ("configuration[2].name")."""
-        f = fields.BY_PATH[name]
-        path = path or f.path
-        if f.kind == fields.QUANTITY:
-            return self.quantity(data, f.key, path, f.quantity, f.bounds, f.required)
-        if f.kind == fields.NUMBER:
-            return self.number(data, f.key, path, *f.bounds, required=f.required)
-        if f.kind in (fields.TEXT, fields.NOTES):
-            return self.text(data, f.key, path, f.limit, f.required, multiline=f.kind == fields.NOTES,
-                             default="" if default is None else default)
-        if f.kind == fields.CHOICE:
-            return self.choice(data, f.key, path, f.options, default)
-        raise ValueError(f"{name} is read by its own code")
-
-    def quantity(self, data, key, path, kind, bounds=None, required=False):
-        if key not in data:
-            if required:
-                self.problem(path, "is required", f"a {kind.name} such as {kind.examples}")
-            return None
-        return self.quantity_value(data[key], path, kind, bounds)
-
-    def quantity_value(self, raw, path, kind, bounds=None):
-        try:
-            value = units.parse(raw, kind)
-        except units.QuantityError as exc:
-            self.problem(path, str(exc), exc.expected, raw)
-            return None
-        if bounds is not None:
-            low, high, wording = bounds
-            if not low < value <= high:
-                self.problem(path, "is out of range", f"a {kind.name} {wording}", raw)
-                return None
-        return value
-
-    def number(self, data, key, path, low, high, wording, required=False):
-        if key not in data:
-            if required:
-                self.problem(path, "is required", wording)
-            return None
-        raw = data[key]
-        if isinstance(raw, bool) or not isinstance(raw, (int, float)):
-            self.problem(path, "must be a plain number", wording, raw)
-            return None
-        if not (_finite(raw) and low < raw <= high):
-            self.problem(path, "is out of range", wording, raw)
-            return None
-        return float(raw)
-
-    def text(self, data, key, path, limit, required=False, default="", multiline=False):
-        if key not in data:
-            if required:
-                self.problem(path, "is required", f"text of 1 to {limit} characters")
-            return default
-        raw = data[key]
-        if not isinstance(raw, str):
-            self.problem(path, "must be text in quotes", f"text of up to {limit} characters", raw)
-            return default
-        if len(raw) > limit:
-            self.problem(path, f"is {len(raw)} characters long", f"text of up to {limit} characters", raw)
-            return raw[:limit]
-        bad = _not_text(raw, "\n" if multiline else "")
-        if bad is not None:
-            self.problem(path, f"contains the control character U+{ord(bad):04X}",
-                         "printable text" + (" (line breaks are fine)" if multiline else " on one line"), raw)
-            return default
-        if required and not raw.strip():
-            self.problem(path, "must not be empty", f"text of 1 to {limit} characters", raw)
-        return raw.strip() if required else raw
-
-    def choice(self, data, key, path, options, default):
-        raw = data.get(key, default)
-        if raw not in options:
-            self.problem(path, "is not one of the accepted values", " | ".join(options), raw)
-            return default
-        return raw
-
-    def calibration(self, data, path):
-        raw = data.get("calibration")
-        if raw is None:
-            return None
-        wanted = 'at least two [IAS, CAS] pairs, ascending, e.g. [["40 kt", "44 kt"], ["60 kt", "61 kt"]]'
-        if not isinstance(raw, list) or len(raw) < 2 or len(raw) > MAX_POLAR_POINTS:
-            self.problem(path, "must be a list of [IAS, CAS] pairs", wanted, raw)
-            return None
-        pairs = self.pairs(raw, path, (units.SPEED, SPEED_RANGE), (units.SPEED, SPEED_RANGE), wanted)
-        if pairs is None:
-            return None
-        ias, cas = zip(*pairs)
-        if any(b <= a for a, b in zip(ias, ias[1:])) or any(b <= a for a, b in zip(cas, cas[1:])):
-            self.problem(path, "the pairs are not in strictly ascending order", wanted, raw)
-            return None
-        return Calibration(tuple(ias), tuple(cas))
-
-    def pairs(self, raw, path, first, second, wanted):
-        """[a, b] pairs; `first` and `second` are (kind, bounds) of a and b."""
-        result = []
-        for i, pair in enumerate(raw, start=1):
-            here = f"{path}[{i}]"
-            if not isinstance(pair, list) or len(pair) != 2:
-                self.problem(here, "must be a pair of two quantities", wanted, pair)
-                return None
-            a = self.quantity_value(pair[0], f"{here}[1]", *first)
-            b = self.quantity_value(pair[1], f"{here}[2]", *second)
-            if a is None or b is None:
-                return None
-            result.append((a, b))
-        return result
-
-
 def profile_from_data(data: dict) -> tuple[Profile | None, list[Problem]]:
     """Build a Profile from the plain data of a profile file; None when any error was found."""
-    r = _Reader()
+    r = Reader()
     if not isinstance(data, dict):
         r.problem("(file)", "is not a TOML table", "a profile file")
         return None, r.problems
@@ -251,6 +96,16 @@ def _read_aircraft(r, data):
     va = r.read("aircraft.maneuvering_speed", a)
     va_weight = r.read("aircraft.maneuvering_speed_weight", a)
     basis = r.read("aircraft.speed_basis", a, default="IAS")
+    best_glide = r.read("aircraft.best_glide_speed", a)
+    glide_ratio = r.read("aircraft.glide_ratio", a)
+    best_glide_sink = r.read("aircraft.best_glide_sink", a)
+    if "glide_ratio" in a and "best_glide_sink" in a:
+        r.problem("aircraft", "gives both glide_ratio and best_glide_sink", "one of them, never both")
+    elif ("glide_ratio" in a or "best_glide_sink" in a) != ("best_glide_speed" in a):
+        r.problem("aircraft.best_glide_speed" if "best_glide_speed" not in a else "aircraft.glide_ratio",
+                  "the turn-back figures need both the best-glide speed and the glide ratio (or sink rate)",
+                  "best_glide_speed with glide_ratio or best_glide_sink", severity=WARNING)
+        best_glide = glide_ratio = best_glide_sink = None
     calibration = r.calibration(a, "aircraft.calibration")
     if max_weight is None:
         return None
@@ -263,6 +118,9 @@ def _read_aircraft(r, data):
         limit_load_factor=n_limit,
         maneuvering_speed=va,
         maneuvering_speed_weight=va_weight,
+        best_glide_speed=best_glide,
+        glide_ratio=glide_ratio,
+        best_glide_sink=best_glide_sink,
         speed_basis=basis,
         calibration=calibration,
     )
@@ -399,6 +257,8 @@ def _read_card(r, data):
         r.problem("card.temperature", "is outside -70 to +60 degC; check it", "an outside air temperature",
                   c["temperature"], WARNING)
     notes = r.read("card.notes", c)
+    headings = _read_headings(r, c)
+    reaction = r.read("card.reaction_time", c)
     return CardSettings(
         bank_angles_deg=banks,
         speed_unit=speed_unit,
@@ -408,7 +268,27 @@ def _read_card(r, data):
         pressure_altitude=altitude or 0.0,
         temperature=temperature,
         notes=notes,
+        turn_back_deg=headings,
+        reaction_time=DEFAULT_REACTION_TIME if reaction is None else reaction,
     )
+
+
+def _read_headings(r, c):
+    """The heading changes of a turn back [deg]: 1 to 6 numbers, each above 0 and at most 360."""
+    if "turn_back_degrees" not in c:
+        return DEFAULT_TURN_BACK_DEG
+    raw = c["turn_back_degrees"]
+    wanted = "a list of 1 to 6 heading changes in degrees, each above 0 and at most 360, e.g. [180, 270]"
+    if not isinstance(raw, list) or not 1 <= len(raw) <= 6:
+        r.problem("card.turn_back_degrees", "must be a list of numbers", wanted, raw)
+        return DEFAULT_TURN_BACK_DEG
+    headings = []
+    for i, h in enumerate(raw, start=1):
+        if isinstance(h, bool) or not isinstance(h, (int, float)) or not (finite(h) and 0 < h <= 360):
+            r.problem(f"card.turn_back_degrees[{i}]", "is not a heading change", wanted, h)
+            continue
+        headings.append(float(h))
+    return tuple(sorted(set(headings))) or DEFAULT_TURN_BACK_DEG
 
 
 def _first_stall_speed(data):
@@ -429,37 +309,13 @@ def _read_banks(r, c):
         return DEFAULT_BANKS_DEG
     banks = []
     for i, b in enumerate(raw, start=1):
-        if isinstance(b, bool) or not isinstance(b, (int, float)) or not (_finite(b) and 0 <= b <= MAX_BANK_DEG):
+        if isinstance(b, bool) or not isinstance(b, (int, float)) or not (finite(b) and 0 <= b <= MAX_BANK_DEG):
             r.problem(f"card.bank_angles[{i}]", "is not a bank angle a level turn can hold", wanted, b)
             continue
         banks.append(float(b))
     if len(set(banks)) != len(banks):
         r.problem("card.bank_angles", "lists a bank twice; it is printed once", "each bank once", raw, WARNING)
     return tuple(sorted(set(banks))) or DEFAULT_BANKS_DEG
-
-
-def _finite(x) -> bool:
-    """math.isfinite that also answers for integers too large for a float (TOML has no limit on them)."""
-    try:
-        return math.isfinite(x)
-    except OverflowError:
-        return False
-
-
-_NOT_TEXT = {"Cc", "Cf", "Cs", "Co", "Cn", "Zl", "Zp"}  #: controls, bidi and zero-width marks, line separators
-
-
-def _not_text(text: str, allowed: str = "") -> str | None:
-    """The first character of `text` that is not printable text (it would reach a terminal or card raw), or None."""
-    return next((ch for ch in text if ch not in allowed and unicodedata.category(ch) in _NOT_TEXT), None)
-
-
-def _key_text(key: str) -> str:
-    """A key as a field path shows it: a plain name as is, anything else quoted with its controls escaped."""
-    if re.fullmatch(r"[A-Za-z0-9_-]{1,40}", key):
-        return key
-    shown = key if len(key) <= 40 else key[:37] + "..."
-    return json.dumps(shown, ensure_ascii=not shown.isprintable())
 
 
 def _name_key(name: str) -> str:

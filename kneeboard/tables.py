@@ -20,6 +20,7 @@ SINK_UNIT = {"m": "m/s", "ft": "kt"}  #: sink rates as a variometer in that coun
 SPEED_STEP = 1.0  #: printed speed resolution, in the speed unit
 LOAD_STEP = 0.01
 SINK_STEP = 0.1
+LOAD_FACTORS = (1.5, 2.0, 2.5, 3.0)  #: load factors whose stall speeds the limits block prints [-]
 
 
 @dataclass(frozen=True)
@@ -68,7 +69,14 @@ class ConfigurationTable:
     flap_limit_speed: Printed | None  #: rounded down
     limit_load_factor: Printed  #: this configuration's, at the card weight, rounded down
     limit_bank: Printed  #: its level-turn bank, rounded down
+    available_load_factor: Printed  #: (Vp / Vs)^2 at the pattern speed, rounded down
+    stall_at_load: tuple[tuple[str, Printed], ...]  #: (load factor text, stall speed rounded up) at LOAD_FACTORS
     rows: tuple[BankRow, ...]
+
+    @property
+    def stalls_before_limit(self) -> bool:
+        """At the pattern speed a pull stalls the wing before the structure reaches its limit (as intended)."""
+        return self.available_load_factor.value < self.limit_load_factor.value
 
 
 @dataclass(frozen=True)
@@ -87,6 +95,27 @@ class GliderTable:
     min_sink_speed: Printed
     min_sink_rate: Printed
     rows: tuple[GliderRow, ...]
+
+
+@dataclass(frozen=True)
+class TurnBackRow:
+    bank_deg: float
+    bank_text: str
+    speed: Printed  #: IAS to fly in the turn, rounded up
+    margin: Printed  #: printed speed - the first configuration's printed stall speed at this bank
+    height_loss: tuple[Printed, ...]  #: per heading change, the turn alone, rounded up
+    least: bool  #: the bank of least height loss among the card's banks
+
+
+@dataclass(frozen=True)
+class TurnBackTable:
+    best_glide_speed: Printed  #: IAS at 1 g at the card weight, rounded up
+    glide_ratio: Printed  #: rounded down
+    headings: tuple[str, ...]  #: heading changes as printed, degrees
+    reaction_time: Printed  #: [s]
+    reaction_height_loss: Printed  #: rounded up
+    clean: str  #: the configuration whose stall speed the margins are taken from
+    rows: tuple[TurnBackRow, ...]
 
 
 @dataclass(frozen=True)
@@ -129,6 +158,7 @@ class CardTable:
     results: Results  #: full precision, for machine output
     curves: tuple[Curve, ...]  #: for the chart
     warnings: tuple[str, ...] = ()  #: every warning about this card, one line each, printed on every page
+    turn_back: TurnBackTable | None = None
 
 
 def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_unit=None,
@@ -208,6 +238,37 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
         results=results,
         curves=_curves(results, su),
         warnings=tuple(warnings),
+        turn_back=None if results.turn_back is None else _turn_back(results.turn_back, configurations[0], spd, dist,
+                                                                    du),
+    )
+
+
+HEIGHT_STEP = {"ft": 10.0, "m": 5.0}  #: printed height resolution, in the distance unit
+
+
+def _turn_back(tb, clean: ConfigurationTable, spd, dist, du: str) -> TurnBackTable:
+    """The turn back's printed figures: speeds and heights up, the margin over the printed stall speed down."""
+    step = HEIGHT_STEP[du]
+    stalls = {row.bank_text: row.stall_speed for row in clean.rows}
+    rows, exact = [], []
+    for i, b in enumerate(tb.bank):
+        bank_text = _bank_text(b)
+        speed = _up(spd(tb.speed[i]))
+        stall = stalls.get(bank_text) or _up(spd(tb.speed[i] - tb.margin[i]))
+        margin = speed.value - stall.value
+        rows.append((bank_text, b, speed, Printed(margin, rounding.text(margin, SPEED_STEP)),
+                     tuple(_up(dist(h), step) for h in tb.height_loss[i])))
+        exact.append(float(tb.height_loss[i][0]))
+    least = int(np.argmin(exact)) if exact else -1
+    return TurnBackTable(
+        best_glide_speed=_up(spd(tb.best_glide_speed)),
+        glide_ratio=_down(tb.glide_ratio, 0.1),
+        headings=tuple(f"{rounding.nearest(math.degrees(h)):.0f}" for h in tb.headings),
+        reaction_time=Printed(tb.reaction_time, rounding.text(rounding.up(tb.reaction_time, 1.0), 1.0)),
+        reaction_height_loss=_up(dist(tb.reaction_height_loss), step),
+        clean=clean.name,
+        rows=tuple(TurnBackRow(float(np.degrees(b)), text, speed, margin, heights, i == least)
+                   for i, (text, b, speed, margin, heights) in enumerate(rows)),
     )
 
 
@@ -275,5 +336,7 @@ def _configuration(r, buffer: Printed, spd, dist, speed_unit: str) -> Configurat
         flap_limit_speed=None if r.flap_limit_speed is None else _down(spd(r.flap_limit_speed)),
         limit_load_factor=_down(r.limit_load_factor, 0.1),
         limit_bank=_down(math.degrees(r.limit_bank)),
+        available_load_factor=_down(r.available_load_factor, 0.1),
+        stall_at_load=tuple((f"{n:g}", _up(spd(r.level_stall_speed * math.sqrt(n)))) for n in LOAD_FACTORS),
         rows=tuple(rows),
     )

@@ -49,6 +49,7 @@ LENGTH = Kind("length", "[length]", "m", '"1000 ft" or "300 m"')
 VOLUME = Kind("volume", "[length] ** 3", "m**3", '"100 L" or "26 gal"')
 DENSITY = Kind("density", "[mass] / [length] ** 3", "kg/m**3", '"0.72 kg/L"')
 TEMPERATURE = Kind("temperature", "[temperature]", "K", '"15 degC", "59 degF" or "288 K"')
+TIME = Kind("time", "[time]", "s", '"4 s"')
 
 #: Display units a card may use, as written in profiles and styles.
 SPEED_UNITS = ("kt", "mph", "km/h")
@@ -248,7 +249,7 @@ def _parse(value: object, kind: Kind) -> float:
 
 def _describe(unit) -> str:
     dims = unit.dimensionality
-    for kind in (SPEED, MASS, LENGTH, VOLUME, DENSITY, TEMPERATURE):
+    for kind in (SPEED, MASS, LENGTH, VOLUME, DENSITY, TEMPERATURE, TIME):
         if dims == ureg.get_dimensionality(kind.dimensionality):
             return kind.name
     return str(dims) if dims else "a pure number"

@@ -11,6 +11,8 @@ from kneeboard.pipeline import Overrides, make_card, prepare
 from kneeboard.profile_io import load_profile, read_source, source_from_text
 
 MADE_ON = "2026-12-01"
+#: The blocks a 4x6 card holds for the powered samples (every block would not fit: the layout says so by name).
+SMALL_CARD = ("header", "margin-table", "margin-chart", "limits", "turns", "notes")
 
 
 @cache
@@ -44,8 +46,8 @@ def card_from_text(text: str, style: CardStyle | None = None, **overrides):
 
 
 @cache
-def card(name: str, size: str = "a5", landscape: bool = False, binding: str = "none"):
-    return card_of(name, default_style().with_changes(size=size, landscape=landscape, binding=binding))
+def card(name: str, size: str = "a5", landscape: bool = False, binding: str = "none", front=None):
+    return card_of(name, default_style().with_changes(size=size, landscape=landscape, binding=binding, front=front))
 
 
 @cache

@@ -3,7 +3,7 @@
 import io
 
 import pytest
-from card_helpers import SAMPLE_NAMES, card
+from card_helpers import SAMPLE_NAMES, SMALL_CARD, card
 from pypdf import PdfReader
 
 from kneeboard.card import fleet_pdf
@@ -22,7 +22,7 @@ def test_grid_counts(size, sheet, per_sheet):
 
 
 def test_sheets_pages_and_crop_marks():
-    cards = [card(n, "4x6").pages for n in POWERED]  # 4 cards, each with a back
+    cards = [card(n, "4x6", front=SMALL_CARD).pages for n in POWERED]  # 4 cards, each with a back
     sheets = impose(cards, "letter")
     assert len(sheets) == 4  # 2 cards per sheet: 2 front sheets, each followed by its back sheet
     w, h = SHEET_SIZES["letter"]
@@ -30,12 +30,12 @@ def test_sheets_pages_and_crop_marks():
     for s in sheets:
         marks = [op for op in s.ops if isinstance(op, Line) and op.width == MARK_WIDTH]
         assert len(marks) == 8 * 2  # 8 hairlines around each of the 2 slots
-    data = fleet_pdf([card(n, "4x6") for n in POWERED], "letter")
+    data = fleet_pdf([card(n, "4x6", front=SMALL_CARD) for n in POWERED], "letter")
     assert len(PdfReader(io.BytesIO(data)).pages) == 4
 
 
 def test_backs_mirror_their_fronts_for_duplex():
-    cards = [card(n, "4x6").pages for n in POWERED[:2]]
+    cards = [card(n, "4x6", front=SMALL_CARD).pages for n in POWERED[:2]]
     front, back = impose(cards, "letter")[:2]
 
     def x_of(sheet, registration):
@@ -43,8 +43,8 @@ def test_backs_mirror_their_fronts_for_duplex():
 
         return min(op.x for op in sheet.ops if isinstance(op, Text) and op.text.startswith(registration))
 
-    reg_a = card(POWERED[0], "4x6").registration
-    reg_b = card(POWERED[1], "4x6").registration
+    reg_a = card(POWERED[0], "4x6", front=SMALL_CARD).registration
+    reg_b = card(POWERED[1], "4x6", front=SMALL_CARD).registration
     assert x_of(front, reg_a) < x_of(front, reg_b)
     assert x_of(back, reg_a) > x_of(back, reg_b)  # flipped on the long edge, the back lands behind its front
     # the back of A sits where the front of B sits: exactly behind A once the sheet is turned over

@@ -65,9 +65,12 @@ def test_each_configuration_has_its_own_marker_shape_and_its_legend_row(name):
     assert circles  # the first configuration's markers
     if n > 1:
         assert len({len(op.points) for op in closed}) == min(n - 1, 3)  # square 4, triangle 3, diamond 4 points
-    text = PdfReader(__import__("io").BytesIO(card_pdf(c))).pages[0].extract_text()
-    for cfg in c.table.configurations:
-        assert f"zero-margin bank {cfg.zero_margin_bank.text}°" in text
+    text = " ".join(p.extract_text() for p in PdfReader(__import__("io").BytesIO(card_pdf(c))).pages)
+    assert "filled marker: zero-margin bank; open: buffer bank" in " ".join(text.split())
+    tagged = {f.label: f.text for f in part.ops and [f for op in part.ops if hasattr(op, "figures")
+                                                     for f in op.figures]}
+    for cfg in c.table.configurations:  # each bank in its configuration's legend row, tagged as that figure
+        assert tagged[f"{cfg.name} · zero-margin bank"] == f"{cfg.zero_margin_bank.text}°"
 
 
 @pytest.mark.parametrize("name", SAMPLE_NAMES)

@@ -10,10 +10,10 @@ from conftest import MINIMAL, SAMPLES
 from kneeboard.cli import main
 
 JSON_KEYS = {"schema", "registration", "model", "weight_kg", "speed_unit", "distance_unit", "over_max_weight",
-             "limit_load_factor", "limit_bank_deg", "maneuvering_speed", "configurations", "glider", "warnings",
-             "caution"}
+             "limit_load_factor", "limit_bank_deg", "maneuvering_speed", "configurations", "glider", "turn_back",
+             "warnings", "caution"}
 CONFIG_KEYS = {"name", "stall_speed", "pattern_speed", "zero_margin_bank_deg", "buffer_bank_deg",
-               "limit_load_factor", "limit_bank_deg", "rows"}
+               "limit_load_factor", "limit_bank_deg", "available_load_factor", "rows"}
 ROW_KEYS = {"bank_deg", "load_factor", "stall_speed", "margin", "turn_radius", "turn_rate_deg_s"}
 GLIDER_KEYS = {"min_sink_speed", "min_sink_rate_m_s", "rows"}
 GLIDER_ROW_KEYS = {"bank_deg", "speed", "sink_rate_m_s", "turn_radius", "circle_time_s", "height_loss_180"}

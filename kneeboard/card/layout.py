@@ -68,11 +68,18 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
         nonlocal last
         ctx = Context(table, style, scale, fingerprint, made_on, logo_png)
         found = []
+        # the style's order, and the same with the blocks that grow (the chart) last: fixed blocks then fill the
+        # front, and the chart takes what room the back has left
+        growing = [b for b in front if blocks.get(b).sizes is not None]
+        orders = [front] + ([[b for b in front if b not in growing] + growing] if growing else [])
+        first_error = None
         for two in ((True, False) if style.landscape else (False,)):
-            try:
-                found.append(_flow(ctx, box, front, back, two_columns=two))
-            except DoesNotFit as exc:
-                last = exc
+            for order in orders:
+                try:
+                    found.append(_flow(ctx, box, order, back, two_columns=two))
+                except DoesNotFit as exc:
+                    first_error = first_error or exc  # the style's own order names the block that does not fit
+        last = first_error or last
         return max(found, key=lambda f: (f.chart_area, -len(f.pages))) if found else None
 
     def legible(scale: float) -> bool:

@@ -16,11 +16,10 @@ from kneeboard.fields import MAX_BANK_DEG
 from kneeboard.fileio import FileProblem, read_text
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile_io import parse_text
+from kneeboard.shipped import default_style_path
 
 # the profile's own text rules, so a style's text is held to the same (controls, bidi and zero-width marks)
-from kneeboard.schema import _key_text as key_text
-from kneeboard.schema import _not_text as first_non_text
-from kneeboard.shipped import default_style_path
+from kneeboard.values import first_non_text, key_text
 
 STYLE_VERSION = 1
 BINDINGS = ("none", "left", "top")

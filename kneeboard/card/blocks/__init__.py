@@ -1,10 +1,20 @@
 """The card's blocks, one module each. The tuple below is the default order of a card; `registry` holds them."""
 
-from kneeboard.card.blocks import circling, header, limits, margin_chart, margin_table, notes, turns
+from kneeboard.card.blocks import (
+    circling,
+    header,
+    limits,
+    margin_chart,
+    margin_table,
+    notes,
+    pull,
+    turn_back,
+    turns,
+)
 from kneeboard.card.blocks.registry import BlockSpec, get, labels, names, register, unregister
 
 #: The built-in blocks in the order a card shows them when a style lists none.
-BUILT_IN = (header, margin_table, margin_chart, limits, turns, circling, notes)
+BUILT_IN = (header, margin_table, margin_chart, limits, pull, turns, circling, turn_back, notes)
 
 for _module in BUILT_IN:
     register(_module.SPEC)

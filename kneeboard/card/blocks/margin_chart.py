@@ -33,6 +33,7 @@ COLOURS = (None, "#222222", "#8C4A12", "#4A4A4A")  # None: the style's accent
 SHAPES = ("circle", "square", "triangle", "diamond")
 MIN_PLOT = 72.0  #: least height of the plotting area [pt]: one inch
 MAX_AXIS = 80.0  #: the bank axis ends at most here [deg]; a limit bank beyond gets an edge note
+PLOT_TOP, PLOT_BOTTOM = 3.2, 2.6  #: room above the plot (title, limit bank) and below it (ticks, axis title) [small]
 
 
 def _nice_step(span: float, most: int) -> float:
@@ -55,22 +56,28 @@ def sizes(ctx: Context, width: float) -> tuple[float, float]:
 
 
 def _axes_height(ctx: Context) -> float:
-    return ctx.size(SMALL) * 4.4
+    return ctx.size(SMALL) * (PLOT_TOP + PLOT_BOTTOM)
 
 
 def _legend_height(ctx: Context, width: float) -> float:
     ss = ctx.size(SMALL)
-    return ss * 1.45 * sum(len(row) for row in _legend_rows(ctx, width)) + ss * 0.9
+    key_lines = len(fonts.wrap(_key_text(ctx), fonts.REGULAR, ss, width))
+    return ss * 1.45 * (sum(len(row) for row in _legend_rows(ctx, width)) + key_lines) + ss * 0.9
 
 
 def _legend_items(ctx: Context, i: int) -> list[tuple[str, str | None, str]]:
     """One configuration's legend row: (kind, marker fill, text) pieces."""
     c = ctx.table.configurations[i]
     items = [("line", None, c.name), ("text", None, f"pattern {c.pattern_speed.text}")]
-    items.append(("marker", INK, f"zero-margin bank {c.zero_margin_bank.text}°"))
+    items.append(("marker", INK, f"{c.zero_margin_bank.text}°"))
     if c.buffer_bank is not None:
-        items.append(("marker", WHITE, f"buffer bank {c.buffer_bank.text}°"))
+        items.append(("marker", WHITE, f"{c.buffer_bank.text}°"))
     return items
+
+
+def _key_text(ctx: Context) -> str:
+    t = ctx.table
+    return f"filled marker: zero-margin bank; open: buffer bank ({t.buffer.text} {t.speed_unit})"
 
 
 def _piece_width(ss: float, kind: str, text: str) -> float:
@@ -135,7 +142,7 @@ def draw(ctx: Context, width: float, height: float | None = None):
     label_w = fonts.width(f"{y_hi:.0f}", fonts.REGULAR, ss) + ss * 0.6
     pattern_w = max(fonts.width(f"pattern {c.pattern_speed.text}", fonts.BOLD, ss) for c in t.configurations)
     px0, px1 = label_w, width - pattern_w - ss * 0.6
-    py1, py0 = -ss * 3.2, -plot_h + ss * 2.6  # top and bottom of the plot area
+    py1, py0 = -ss * PLOT_TOP, -plot_h + ss * PLOT_BOTTOM  # top and bottom of the plot area
     if px1 - px0 < 80 or py1 - py0 < MIN_PLOT - 0.01:
         raise DoesNotFit(NAME, "too little room for a readable chart")
 
@@ -219,6 +226,9 @@ def draw(ctx: Context, width: float, height: float | None = None):
                 bold = kind == "line"
                 d.text(x, y, text, SMALL, bold, color=INK if kind != "text" else GREY, figures=tag)
                 x += fonts.width(text, fonts.BOLD if bold else fonts.REGULAR, ss) + ss * 1.2
+    for line in fonts.wrap(_key_text(ctx), fonts.REGULAR, ss, width):
+        y -= ss * 1.45
+        d.text(0, y, line, SMALL, color=GREY)
     return d.block(NAME, -(y - ss * 0.6))
 
 
