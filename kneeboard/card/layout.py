@@ -62,6 +62,8 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
     scale = style.font_scale * SIZE_SCALE[style.size]
     last: DoesNotFit | None = None
 
+    memo: dict = {}  # blocks drawn once per type scale and width, whichever arrangements try them
+
     def attempt(scale: float) -> Flowed | None:
         """The best arrangement at this type scale: of one and two columns (landscape), the one that gives the
         chart the most room; None when none fits."""
@@ -76,7 +78,7 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
         for two in ((True, False) if style.landscape else (False,)):
             for order in orders:
                 try:
-                    found.append(_flow(ctx, box, order, back, two_columns=two))
+                    found.append(_flow(ctx, box, order, back, two_columns=two, memo=memo))
                 except DoesNotFit as exc:
                     first_error = first_error or exc  # the style's own order names the block that does not fit
         last = first_error or last
@@ -114,7 +116,8 @@ class Flowed:
     back_fill: float  #: the share of the back page's columns its blocks take; 1 without a back page
 
 
-def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_columns: bool) -> Flowed:
+def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_columns: bool,
+          memo: dict | None = None) -> Flowed:
     """Assign blocks to the columns of the front and back pages, then place them.
 
     Fixed blocks are measured once; the chart is assigned at its least readable height and then
@@ -128,7 +131,15 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
     bottom = box.bottom + caution_h + gap * 0.6
     specs = {name: blocks.get(name) for name in dict.fromkeys(front + back)}
     # blocks of natural height are drawn once here; blocks that grow are drawn once their room is known
-    built = {name: spec.draw(ctx, box.content_width if spec.full_width else col_w, None)
+    memo = {} if memo is None else memo
+
+    def drawn(name, width, height=None):
+        key = (name, ctx.scale, width, height)
+        if key not in memo:
+            memo[key] = specs[name].draw(ctx, width, height)
+        return memo[key]
+
+    built = {name: drawn(name, box.content_width if spec.full_width else col_w)
              for name, spec in specs.items() if spec.sizes is None}
     wide = [name for name, spec in specs.items() if spec.full_width]
 
@@ -183,7 +194,7 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
                 spec = specs[name]
                 if spec.sizes is not None:  # a block that grows takes the room its column has left
                     least, preferred = spec.sizes(ctx, col_w)
-                    b = spec.draw(ctx, col_w, min(preferred, least + spare))
+                    b = drawn(name, col_w, min(preferred, least + spare))
                     chart_area += col_w * b.height
                 else:
                     b = built[name]
