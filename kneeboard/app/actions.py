@@ -1,103 +1,157 @@
-"""What the window does with a finished card: export, print, compare with the saved profile, style it.
+"""What the window does with a finished card: export, print, compare, style it.
 
-A mixin of MainWindow (which supplies doc, style, fleet, preview and the question hooks); kept
-apart so the window module holds the editing and the files, this one the card's ways out.
+A mixin of MainWindow (which supplies doc, session, fleet, preview and the question hooks); kept apart so the
+window module holds the editing and the files, this one the card's ways out. Every card here is the pipeline's
+(`kneeboard.pipeline`), the one the command line makes, and what is exported is what the preview shows.
 """
 
 from pathlib import Path
 
-from PySide6.QtWidgets import QFileDialog
-
 from kneeboard import report
-from kneeboard.app.paths import ROOT, SAMPLES
-from kneeboard.card import styled_profile
-from kneeboard.card.style import FLEET_STYLE, load_style
+from kneeboard.card import LayoutError
+from kneeboard.card.style import load_style
 from kneeboard.fileio import FileProblem, write_atomic
-from kneeboard.tables import build
+from kneeboard.pipeline import card_pdf
+from kneeboard.problems import printable
 
 
 class CardActions:
-    # --- exports -------------------------------------------------------------------------------
+    # --- the card as it prints ---------------------------------------------------------------
     def _ready(self) -> bool:
-        if self.doc is None or self.doc.loaded.profile is None:
-            self.show_problems("No card", "The profile has errors; fix them first (see Problems).")
+        if self.doc is None:
+            self.show_problems("No card", "No profile is open.")
+            return False
+        if self.doc.loaded.table is None:
+            errors = self.doc.loaded.errors
+            self.show_problems("No card", f"The profile has {len(errors)} error(s); fix them first (see Problems):\n"
+                               + "\n".join(str(p) for p in errors[:8]))
             return False
         return True
 
     def current_pdf(self) -> bytes:
-        return self.card("card")()
+        """The open profile's card PDF: the very bytes the preview shows when it shows the current card."""
+        preview = self.preview
+        if (self._card_request and preview.shown_generation == self._card_request and not preview.error_text()
+                and preview.pdf_bytes() is not None):
+            return preview.pdf_bytes()
+        return card_pdf(self.session.card(self.doc.loaded))
 
+    def _card_out(self, what: str) -> bytes | None:
+        try:
+            return self.current_pdf()
+        except LayoutError as exc:
+            self.show_problems(f"The card cannot be {what}", str(exc))
+            return None
+
+    def _printed(self, pdf: bytes, where: str) -> None:
+        """Remember what this card printed, for Compare with the printed card."""
+        from kneeboard.card.data import read_card_data
+
+        for data in read_card_data(pdf):
+            self.session.remember_printed_data(data, where)
+
+    # --- exports -------------------------------------------------------------------------------
     def export_card(self) -> Path | None:
         if not self._ready():
             return None
-        reg = self.doc.loaded.profile.aircraft.registration
         from kneeboard.export import safe_name
 
-        start = (self.fleet.folder or SAMPLES) / f"{safe_name(reg)}.pdf"
+        reg = self.doc.loaded.table.registration
+        start = self._folder() / f"{safe_name(reg)}.pdf"
         path = self.ask_save_path("Export card as PDF", str(start), "PDF (*.pdf)")
         if path is None:
             return None
-        try:
-            write_atomic(path, self.current_pdf())
-        except Exception as exc:  # LayoutError or FileProblem: both are sentences for the person
-            self.show_problems("The card was not exported", str(exc))
+        pdf = self._card_out("exported")
+        if pdf is None:
             return None
+        try:
+            self._refuse_inputs(path)
+            write_atomic(path, pdf)
+        except FileProblem as exc:
+            self.show_problems("The card was not exported", f"{exc}\nNothing was written.")
+            return None
+        self._printed(pdf, str(path))
+        self.statusBar().showMessage(f"The card of {reg} was exported to {path}.", 10000)
         return path
 
+    def _refuse_inputs(self, path: Path) -> None:
+        """An export never replaces the open profile, a profile of the fleet, or a style or logo it uses."""
+        from kneeboard.fileio import refuse_overwrite_of_inputs
+        from kneeboard.profile_io import profile_files
+
+        inputs = [p for p in (self.doc.path if self.doc else None,) if p is not None]
+        if self.session.folder is not None:
+            inputs += profile_files(self.session.folder)
+        refuse_overwrite_of_inputs(Path(path), inputs + self.session.styles.inputs())
+
     def export_csv(self) -> Path | None:
-        if not self._ready() or self.last_table is None:
+        if not self._ready():
             return None
-        start = (self.fleet.folder or SAMPLES) / f"{self.last_table.registration}.csv"
+        table = self.doc.loaded.table
+        from kneeboard.export import safe_name
+
+        start = self._folder() / f"{safe_name(table.registration)}.csv"
         path = self.ask_save_path("Export table as CSV", str(start), "CSV (*.csv)")
         if path is None:
             return None
         try:
-            write_atomic(path, report.to_csv(self.last_table))
+            self._refuse_inputs(path)
+            write_atomic(path, report.to_csv(table))
         except FileProblem as exc:
-            self.show_problems("The table was not exported", str(exc))
+            self.show_problems("The table was not exported", f"{exc}\nNothing was written.")
             return None
+        self.statusBar().showMessage(f"The table of {table.registration} was exported to {path}.", 10000)
         return path
 
-    def export_fleet(self, out: Path | None = None, each: Path | None = None, sheet: str | None = None):
+    def export_fleet(self):
+        """Every card of the open folder in one PDF, as `kneeboard card FOLDER -o FILE` makes it."""
         from kneeboard.app.dialogs import export_fleet
         from kneeboard.profile_io import profile_files
 
         folder = self.fleet.folder
         if folder is None:
+            self.show_problems("No fleet", "Open a folder of profiles first (File › Open folder).")
             return None
-        if out is None and each is None:
-            path = self.ask_save_path("Export the fleet's cards", str(folder / "fleet.pdf"), "PDF (*.pdf)")
-            if path is None:
-                return None
-            out = path
-        batch = export_fleet(self, profile_files(folder), self.style, out, each, sheet)
-        if batch.failures:
+        if self.doc is not None and self.doc.modified and self.doc.path is not None \
+                and self.doc.path.parent == folder and not self.maybe_save():
+            return None  # the fleet's cards are made from the files: unsaved edits would be missing
+        path = self.ask_save_path("Export the fleet's cards", str(folder / "fleet.pdf"), "PDF (*.pdf)")
+        if path is None:
+            return None
+        result = export_fleet(self, profile_files(folder), self.session.styles, path)
+        if result.failures:
             self.show_problems("Some cards were not made",
-                               "\n".join(line for f in batch.failures for line in f.lines))
-        return batch
+                               "\n".join(line for f in result.failures for line in f.lines))
+        if result.cards and not result.cancelled and path in result.written:
+            self._printed(Path(path).read_bytes(), str(path))
+            self.statusBar().showMessage(f"{result.cards} card(s) exported to {path}.", 10000)
+        return result
 
     def print_card(self) -> bool:
         if not self._ready():
             return False
         from kneeboard.app.printing import print_with_dialog
 
-        try:
-            pdf = self.current_pdf()
-        except Exception as exc:
-            self.show_problems("The card cannot be printed", str(exc))
+        pdf = self._card_out("printed")
+        if pdf is None:
             return False
-        return print_with_dialog(self, pdf, self.windowTitle())
+        done = print_with_dialog(self, pdf, self.windowTitle())
+        if done:
+            self._printed(pdf, "the printer")
+        return done
 
-    # --- compare, style, help ------------------------------------------------------------------
+    # --- compare ---------------------------------------------------------------------------------
     def compare_changes(self):
-        """Printed figures that differ between the saved profile and the edited one, or None if either is unusable."""
+        """Printed figures that differ between the saved profile's card and the edited one's (None: unusable)."""
         from kneeboard.compare import compare
 
         saved, now = self.doc.saved(), self.doc.loaded
-        if saved.profile is None or now.profile is None:
+        if saved.table is None or now.table is None:
             return None
-        return compare(build(styled_profile(saved.profile, self.style)),
-                       build(styled_profile(now.profile, self.style)))
+        try:
+            return compare(self.session.card(saved), self.session.card(now))
+        except LayoutError:
+            return None
 
     def compare_with_saved(self):
         if self.doc is None:
@@ -108,35 +162,99 @@ class CardActions:
         if changes is None:
             self.show_problems("Nothing to compare", "The saved or the edited profile has errors.")
             return None
-        dialog = CompareDialog(changes, self.doc.loaded.profile.aircraft.registration, self)
+        dialog = CompareDialog(changes, self.doc.loaded.table.registration, self,
+                               columns=("In the saved file", "With your edits"),
+                               since="since the profile was last saved (the printed card may be older: "
+                                     "compare with the printed card to know)")
         dialog.show()
         return dialog
 
+    def compare_with_printed(self):
+        """The card as printed (exported or printed in this session, else a card PDF the person picks)
+        against the card the profile makes now."""
+        if not self._ready():
+            return None
+        from kneeboard.app.dialogs import CompareDialog
+
+        reg = self.doc.loaded.table.registration
+        printed = self.session.last_printed(reg)
+        if printed is None:
+            printed = self._pick_printed(reg)
+            if printed is None:
+                return None
+        try:
+            changes = self.session.changes_since_printed(printed, self.doc.loaded)
+        except LayoutError as exc:
+            self.show_problems("Nothing to compare", str(exc))
+            return None
+        made = f" on {printed.made_on}" if printed.made_on else ""
+        dialog = CompareDialog(changes, reg, self, columns=("On the printed card", "Now"),
+                               since=f"since the card was printed{made} ({printable(printed.where)})")
+        dialog.show()
+        return dialog
+
+    def _pick_printed(self, registration: str):
+        from kneeboard.card.data import read_card_data
+        from kneeboard.fileio import read_bytes
+
+        path = self.ask_open_path(f"The printed card of {registration}", str(self._folder()), "Cards (*.pdf)")
+        if path is None:
+            return None
+        try:
+            found = read_card_data(read_bytes(Path(path), 200 * 1024 * 1024))
+        except FileProblem as exc:
+            self.show_problems("Cannot read the card", str(exc))
+            return None
+        mine = [d for d in found if str(d.get("registration", "")).casefold() == registration.casefold()]
+        if not mine:
+            self.show_problems("Not this aircraft's card",
+                               f"{printable(path)} holds no kneeboard card of {registration}"
+                               + (f" (it holds {', '.join(str(d.get('registration')) for d in found)})."
+                                  if found else " (it carries no printed figures: not a kneeboard card)."))
+            return None
+        return self.session.remember_printed_data(mine[0], str(path))
+
+    # --- style, help ------------------------------------------------------------------------------
     def edit_style(self):
         from kneeboard.app.style_dialog import StyleDialog
 
-        folder = self.fleet.folder
-        if folder is None:
-            return
-        dialog = StyleDialog(self.style, self)
-        if dialog.exec():
-            style, problems = dialog.save(folder / FLEET_STYLE)
-            if style is None:
-                self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
-                return
-            self.style, self.style_path = style, folder / FLEET_STYLE
-            self.schedule_preview()
+        target = self.session.fleet_style_file()
+        if target is None:
+            self.show_problems("No fleet", "Open a folder of profiles first: its style is saved beside them.")
+            return None
+        style, problems = self.session.style_for(self.doc.path if self.doc is not None else None)
+        if style is None:
+            style, _ = load_style(None)
+        dialog = StyleDialog(style, self)
+        if not self.ask_style(dialog):
+            return None
+        try:
+            style, problems = dialog.save(target)
+        except FileProblem as exc:
+            self.show_problems("The style was not saved", str(exc))
+            return None
+        if style is None:
+            self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
+        self.session.reload_styles()
+        self._forget_prepared()
+        return target
+
+    def ask_style(self, dialog) -> bool:
+        """Show the style dialog; True when the person saved it (a test replaces this)."""
+        return bool(dialog.exec())
 
     def _pick_style(self):
-        path, _ = QFileDialog.getOpenFileName(self, "Card style", str(self.fleet.folder or ROOT),
-                                              "Card styles (*.style.toml)")
-        if path:
-            style, problems = load_style(Path(path))
-            if style is None:
-                self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
-                return
-            self.style, self.style_path = style, Path(path)
-            self.schedule_preview()
+        path = self.ask_open_path("Card style", str(self._folder()), "Card styles (*.style.toml)")
+        if path is None:
+            return None
+        style, problems = load_style(Path(path))
+        if style is None:
+            self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
+            return None
+        self.session.use_style_file(Path(path))
+        self._forget_prepared()
+        self.statusBar().showMessage(f"Every card now uses the style {Path(path).name}.", 6000)
+        return path
 
     def show_formulas(self):
         from kneeboard.app.dialogs import FormulaHelpDialog

@@ -26,10 +26,10 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard.card.style import CardStyle
 from kneeboard.compare import Change
-from kneeboard.export import Batch, Failure, make_cards, write_each, write_fleet
+from kneeboard.export import Export, Failure, export_cards
 from kneeboard.fileio import FileProblem
+from kneeboard.pipeline import Styles
 from kneeboard.problems import Problem
 from kneeboard.texts import CAUTION, FORMULAS_HTML
 
@@ -38,7 +38,7 @@ WORSE_MARK = "! less room: "  #: leads a figure that got worse; the row is bold 
 NO_CHANGE = "No printed figure changed"
 CAUTION_KEY = "caution/acknowledged"  #: settings key recording that the caution was shown
 CAUTION_TITLE = "Before you use these figures"
-COMPARE_COLUMNS = ("Figure", "Printed now", "After your changes")
+COMPARE_COLUMNS = ("Figure", "On the printed card", "Now")
 PROBLEM_COLUMNS = ("Severity", "Field", "What is wrong", "Found", "Expected")
 
 
@@ -73,11 +73,14 @@ def _cell_texts(table: QTableWidget) -> list[tuple[str, ...]]:
 class CompareDialog(QDialog):
     """The printed figures that a change would alter: what the card prints now, and what it would print."""
 
-    def __init__(self, changes: list[Change], registration: str, parent: QWidget | None = None):
+    def __init__(self, changes: list[Change], registration: str, parent: QWidget | None = None,
+                 columns: tuple[str, str] = COMPARE_COLUMNS[1:], since: str = ""):
         super().__init__(parent)
-        self.setWindowTitle(f"Compare with saved: {registration}")
+        self.setWindowTitle(f"Compare: {registration}")
         self._changes = list(changes)
         self._registration = registration
+        self._columns = (COMPARE_COLUMNS[0],) + tuple(columns)
+        self._since = since
         worse = {i for i, c in enumerate(self._changes) if c.worse}
         rows = [(f"{WORSE_MARK}{c.label}" if i in worse else c.label, c.old or NOT_PRINTED, c.new or NOT_PRINTED)
                 for i, c in enumerate(self._changes)]
@@ -88,7 +91,7 @@ class CompareDialog(QDialog):
         self.summary = QLabel(self._summary(len(worse)))
         self.summary.setWordWrap(True)
         layout.addWidget(self.summary)
-        self.table = _table(COMPARE_COLUMNS, rows, worse, tips)
+        self.table = _table(self._columns, rows, worse, tips)
         self.table.setAccessibleName("Printed figures that change")
         self.table.setVisible(bool(rows))
         layout.addWidget(self.table)
@@ -102,10 +105,11 @@ class CompareDialog(QDialog):
         self.resize(640, 420 if rows else 160)
 
     def _summary(self, n_worse: int) -> str:
+        since = f" {self._since}" if self._since else ""
         if not self._changes:
-            return f"{NO_CHANGE} on the card of {self._registration}: the printed card is still current."
-        text = (f"{len(self._changes)} printed figure(s) on the card of {self._registration} read differently "
-                "after your changes: print a new card.")
+            return f"{NO_CHANGE} on the card of {self._registration}{since}."
+        text = (f"{len(self._changes)} printed figure(s) on the card of {self._registration} read differently"
+                f"{since}: print a new card.")
         if n_worse:
             text += (f" Less room before the stall ({n_worse}): a smaller margin or bank, or a higher stall speed; "
                      f"those rows are in bold and begin with \u201c{WORSE_MARK.strip()}\u201d.")
@@ -122,8 +126,8 @@ class CompareDialog(QDialog):
         """The plain-text list the copy button puts on the clipboard."""
         if not self._changes:
             return f"{self._registration}: {NO_CHANGE}\n"
-        lines = [f"{self._registration}: printed figures that change ({COMPARE_COLUMNS[1].lower()} -> "
-                 f"{COMPARE_COLUMNS[2].lower()})"]
+        lines = [f"{self._registration}: printed figures that change ({self._columns[1].lower()} -> "
+                 f"{self._columns[2].lower()})"]
         lines += [f"{figure}: {old} -> {new}" for figure, old, new in self.rows()]
         return "\n".join(lines) + "\n"
 
@@ -213,14 +217,14 @@ def _progress_dialog(parent: QWidget | None, total: int) -> QProgressDialog:
     return dialog
 
 
-def export_fleet(parent: QWidget | None, paths: list[Path], style: CardStyle, out: Path | None, each: Path | None,
-                 sheet: str | None, weight: float | None = None, progress_factory=None) -> Batch:
-    """Make the cards of `paths` with a cancellable progress dialog and write them as `kneeboard card` does.
+def export_fleet(parent: QWidget | None, paths: list[Path], styles: Styles, out: Path | None = None,
+                 sheet: str | None = None, each: Path | None = None, progress_factory=None) -> Export:
+    """Make and write the cards of `paths` as `kneeboard card` does (`export.export_cards`), with a cancellable
+    progress dialog: one PDF `out` (imposed on `sheet` if given) and/or one PDF per aircraft in `each`.
 
-    `out` gets one PDF with every card (imposed on `sheet` if given), `each` one PDF per aircraft;
-    `weight` [kg] applies to every card. Profiles that fail and files that cannot be written are in
-    the returned batch's failures; when cancelled nothing is written. `progress_factory(parent, total)`
-    replaces the QProgressDialog (it needs setValue, setLabelText, wasCanceled and close).
+    Profiles that fail and files that cannot be written are in the returned export's failures; when cancelled
+    the one PDF is not written. `progress_factory(parent, total)` replaces the QProgressDialog (it needs
+    setValue, setLabelText, wasCanceled and close).
     """
     if out is None and each is None:
         raise ValueError("export_fleet needs out, each, or both")
@@ -233,19 +237,10 @@ def export_fleet(parent: QWidget | None, paths: list[Path], style: CardStyle, ou
         return not dialog.wasCanceled()
 
     try:
-        batch = make_cards(list(paths), style, weight, progress=progress)
+        return export_cards(list(paths), styles, out, sheet, each, progress=progress)
+    except FileProblem as exc:  # as on the command line: the first file that cannot be written stops the writing
+        result = Export()
+        result.failures.append(Failure(Path(out or each), [str(exc)]))
+        return result
     finally:
         dialog.close()
-    if batch.cancelled or not batch.cards:
-        return batch
-    target = out
-    try:
-        if out is not None:
-            write_fleet(batch.cards, Path(out), sheet)
-        if each is not None:
-            target = each
-            write_each(batch.cards, Path(each))
-    except FileProblem as exc:
-        # As on the command line: the first file that cannot be written stops the writing.
-        batch.failures.append(Failure(Path(target), [str(exc)]))
-    return batch

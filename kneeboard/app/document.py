@@ -24,13 +24,12 @@ from PySide6.QtCore import QFileSystemWatcher, QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
 from kneeboard.fileio import MAX_FILE_BYTES, FileProblem, decode_text, read_bytes, write_atomic
+from kneeboard.pipeline import Prepared
 from kneeboard.profile_io import (
-    ProfileFile,
     backup_path,
     document_from_text,
     file_format,
     migrate_text,
-    profile_from_plain,
 )
 
 Key = tuple  #: a path into the document: ("configuration", 0, "stall_speed")
@@ -98,8 +97,14 @@ class ProfileDocument(QObject):
     modifiedChanged = Signal(bool)
     changedOnDisk = Signal()  #: the file now differs from what this document read or wrote  # noqa: N815
 
-    def __init__(self, text: str, path: Path | None = None, parent=None, disk: DiskState | None = None):
+    def __init__(self, text: str, path: Path | None = None, parent=None, disk: DiskState | None = None,
+                 session=None):
         super().__init__(parent)
+        if session is None:
+            from kneeboard.app.session import Session
+
+            session = Session()
+        self.session = session  #: how the text becomes a card: the window's session, with its style
         self.path = Path(path) if path is not None else None
         self.disk = disk  #: what the file held when last read or written here; None: not read from a file
         self._told: str | None = None  # the change on disk last signalled
@@ -114,7 +119,7 @@ class ProfileDocument(QObject):
         self.saved_text = text
         self._doc = document_from_text(text, str(path or ""))
         self._text = text
-        self._loaded: ProfileFile | None = None
+        self._loaded: Prepared | None = None
         self._plain: dict | None = None
         migrated, self.migrated_from = migrate_text(text)
         if self.migrated_from is not None:  # an older format: updating it is the first, undoable edit
@@ -125,10 +130,10 @@ class ProfileDocument(QObject):
 
     # --- reading -------------------------------------------------------------------------------
     @classmethod
-    def open(cls, path: Path, parent=None) -> "ProfileDocument":
+    def open(cls, path: Path, parent=None, session=None) -> "ProfileDocument":
         """Raises FileProblem when the file cannot be read or is not TOML at all."""
         data, state = disk_state(Path(path))
-        return cls(decode_text(data, Path(path)), path, parent, state)
+        return cls(decode_text(data, Path(path)), path, parent, state, session)
 
     def text(self) -> str:
         return self._text
@@ -138,11 +143,16 @@ class ProfileDocument(QObject):
         return not self.undo_stack.isClean()
 
     @property
-    def loaded(self) -> ProfileFile:
-        """The profile read from the current text, with every problem; cached until the next edit."""
+    def loaded(self) -> Prepared:
+        """The current text through the pipeline with the session's style (profile, table, every problem);
+        cached until the next edit or `forget()`."""
         if self._loaded is None:
-            self._loaded = profile_from_plain(self.plain(), self.path)
+            self._loaded = self.session.prepare_plain(self.plain(), self.path)
         return self._loaded
+
+    def forget(self) -> None:
+        """Prepare the text again at next use (the card style changed)."""
+        self._loaded = None
 
     def plain(self) -> dict:
         """The document as plain Python data (cached until the next edit); read it, never change it."""
@@ -162,11 +172,9 @@ class ProfileDocument(QObject):
             self._doc = document_from_text(self._text, str(self.path or ""))
         return self._doc
 
-    def saved(self) -> ProfileFile:
-        """The profile as last saved (or as opened)."""
-        from kneeboard.profile_io import profile_from_text
-
-        return profile_from_text(self.saved_text, self.path)
+    def saved(self) -> Prepared:
+        """The profile as last saved (or as opened), through the same pipeline."""
+        return self.session.prepare_text(self.saved_text, self.path)
 
     def get(self, key: Key, default=None):
         node = self.plain()

@@ -19,13 +19,13 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard import units
+from kneeboard import fields as declared
+from kneeboard import terms, units
 from kneeboard.aero.limits import CATEGORY_LIMIT_LOAD
 from kneeboard.app.document import ProfileDocument, key_text
 from kneeboard.app.fields import ChoiceField, Field, NotesField, NumberField, PairsField, TextField
 from kneeboard.app.items import ItemsField
 from kneeboard.problems import Problem
-from kneeboard.profile import CATEGORIES, SPEED_BASES
 
 CONFIG = "configuration"
 DEFAULT = "(default)"
@@ -84,20 +84,34 @@ class ProfileEditor(QScrollArea):
         self.box.addWidget(group)
         return form
 
+    def _declared(self, form: QFormLayout | None, key: tuple, decl: declared.Field) -> Field:
+        """The widget of one declared field (`kneeboard.fields`), bound to `key` of the document."""
+        if decl.kind == declared.CHOICE:
+            options = decl.options if decl.required else (None,) + tuple(decl.options)
+            widget = ChoiceField(options, {None: DEFAULT})
+        elif decl.kind == declared.NUMBER:
+            widget = NumberField(decl.placeholder)
+        elif decl.kind == declared.NOTES:
+            widget = NotesField()
+        elif decl.kind == declared.PAIRS:
+            widget = PairsField(decl.columns)
+        elif decl.kind == declared.BANKS:
+            widget = BanksField(decl.placeholder)
+        elif decl.kind == declared.ITEMS:
+            widget = ItemsField()
+        else:  # TEXT and QUANTITY are typed as text: a quantity with its unit
+            widget = TextField(decl.placeholder)
+        if decl.help:
+            widget.setToolTip(decl.help)
+        return self._bind(form, decl.label, key, widget, decl.quantity)
+
+    def _section(self, form: QFormLayout, section: str, prefix: tuple, skip=()) -> None:
+        for decl in declared.FIELDS:
+            if decl.section == section and decl.key not in skip:
+                self._declared(form, prefix + (decl.key,), decl)
+
     def _aircraft(self):
-        f = self._group("Aircraft")
-        a = ("aircraft",)
-        self._bind(f, "Registration", a + ("registration",), TextField("e.g. DEMO-01"))
-        self._bind(f, "Model", a + ("model",), TextField("what the card calls it"))
-        self._bind(f, "Category", a + ("category",), ChoiceField(CATEGORIES))
-        self._bind(f, "Maximum weight", a + ("max_weight",), TextField('e.g. "750 kg" or "1650 lb"'), units.MASS)
-        self._bind(f, "Speeds published at", a + ("reference_weight",), TextField("default: maximum weight"),
-                   units.MASS)
-        self._bind(f, "Limit load factor", a + ("limit_load_factor",), NumberField("default for the category"))
-        self._bind(f, "Maneuvering speed VA", a + ("maneuvering_speed",), TextField("optional, at that weight"),
-                   units.SPEED)
-        self._bind(f, "Speeds given as", a + ("speed_basis",), ChoiceField(SPEED_BASES))
-        self._bind(f, "Calibration, flaps up", a + ("calibration",), PairsField(("IAS", "CAS")))
+        self._section(self._group("Aircraft"), "aircraft", ("aircraft",))
 
     def _weight(self):
         f = self._group("Weight for this card")
@@ -107,11 +121,7 @@ class ProfileEditor(QScrollArea):
         self.weight_mode.edited.connect(self._set_weight_mode)
         f.addRow("Weight", self.weight_mode)
         self.fields["weight"] = self.weight_mode  # problems of the weight as a whole show here
-        self._bind(f, "Total", ("weight", "total"), TextField('e.g. "690 kg"'), units.MASS)
-        self._bind(f, "Empty weight", ("weight", "empty"), TextField('e.g. "480 kg"'), units.MASS)
-        items = ItemsField()
-        self._bind(None, "items", ("weight", "item"), items)
-        f.addRow("Items", items)
+        self._section(f, "weight", ("weight",))
         self.weight_form = f
 
     def _configurations(self):
@@ -136,17 +146,16 @@ class ProfileEditor(QScrollArea):
         page = QWidget()
         f = QFormLayout(page)
         c = (CONFIG, i)
-        self._bind(f, "Name", c + ("name",), TextField("e.g. Flaps up"))
-        self._bind(f, "Stall speed", c + ("stall_speed",), TextField("power off, wings level"), units.SPEED)
-        mode = ChoiceField(("factor", "fixed"), {"factor": "A factor of the stall speed",
-                                                 "fixed": "A fixed speed"})
-        mode.edited.connect(lambda value, i=i: self._set_pattern_mode(i, value))
-        f.addRow("Pattern speed", mode)
-        self.fields[f"{CONFIG}[{i + 1}].pattern_mode"] = mode
-        self._bind(f, "Factor", c + ("pattern_factor",), NumberField("default 1.4"))
-        self._bind(f, "Fixed speed", c + ("pattern_speed",), TextField('e.g. "68 kt"'), units.SPEED)
-        self._bind(f, "Flap limit VFE", c + ("flap_limit_speed",), TextField("optional"), units.SPEED)
-        self._bind(f, "Calibration", c + ("calibration",), PairsField(("IAS", "CAS")))
+        for decl in declared.FIELDS:
+            if decl.section != CONFIG:
+                continue
+            if decl.key == "pattern_factor":  # how the pattern speed is given comes first
+                mode = ChoiceField(("factor", "fixed"), {"factor": "A factor of the stall speed",
+                                                         "fixed": "A fixed speed"})
+                mode.edited.connect(lambda value, i=i: self._set_pattern_mode(i, value))
+                f.addRow(terms.PATTERN.capitalize(), mode)
+                self.fields[f"{CONFIG}[{i + 1}].pattern_mode"] = mode
+            self._declared(f, c + (decl.key,), decl)
         return page
 
     def _glider(self):
@@ -154,22 +163,10 @@ class ProfileEditor(QScrollArea):
         self.is_glider = QCheckBox("This aircraft has a speed polar (gliders)")
         self.is_glider.clicked.connect(self._set_glider)
         f.addRow(self.is_glider)
-        self._bind(f, "Measured at", ("glider", "polar_weight"), TextField('e.g. "400 kg"'), units.MASS)
-        self._bind(f, "Polar", ("glider", "polar"), PairsField(("speed", "sink rate")))
+        self._section(f, "glider", ("glider",))
 
     def _card(self):
-        f = self._group("Card")
-        k = ("card",)
-        self._bind(f, "Bank angles", k + ("bank_angles",), BanksField())
-        self._bind(f, "Speed unit", k + ("speed_unit",), ChoiceField((None,) + units.SPEED_UNITS, {None: DEFAULT}))
-        self._bind(f, "Distance unit", k + ("distance_unit",),
-                   ChoiceField((None,) + units.DISTANCE_UNITS, {None: DEFAULT}))
-        self._bind(f, "Weight unit", k + ("weight_unit",), ChoiceField((None,) + units.WEIGHT_UNITS, {None: DEFAULT}))
-        self._bind(f, "Buffer", k + ("buffer",), TextField('the least margin to keep, e.g. "5 kt"'), units.SPEED)
-        self._bind(f, "Pressure altitude", k + ("pressure_altitude",), TextField('e.g. "1000 ft"'), units.LENGTH)
-        self._bind(f, "Temperature", k + ("temperature",), TextField("default: standard atmosphere"),
-                   units.TEMPERATURE)
-        self._bind(f, "Notes", k + ("notes",), NotesField())
+        self._section(self._group("Card"), "card", ("card",))
 
     # --- structural edits ------------------------------------------------------------------------
     def _current_config(self) -> int:
@@ -216,10 +213,8 @@ class ProfileEditor(QScrollArea):
 
     def _pattern_speed_text(self, loaded, i: int) -> str:
         unit = self.card_units()[0]
-        if loaded.profile is not None:
-            from kneeboard.tables import build
-
-            table = build(loaded.profile)
+        if loaded.table is not None:  # the speed the card prints now
+            table = loaded.table
             return f"{table.configurations[i].pattern_speed.text} {table.speed_unit}"
         return f"70 {unit}"
 
@@ -320,9 +315,9 @@ class ProfileEditor(QScrollArea):
         for path in ("glider.polar_weight", "glider.polar"):
             self.fields[path].setEnabled(glider)
         category = self.doc.get(("aircraft", "category")) or "normal"
-        profile = self.doc.loaded.profile
-        if profile is not None:  # the default the card uses: the category's, by maximum weight for normal
-            n = f"{profile.aircraft.limit_load_factor:.2f}".rstrip("0").rstrip(".")
+        results = self.doc.loaded.results
+        if results is not None:  # the default the card uses: the category's, by maximum weight for normal
+            n = f"{results.design_limit_load_factor:.2f}".rstrip("0").rstrip(".")
             self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(
                 f"{n} for the {category} category at this maximum weight")
         elif category in CATEGORY_LIMIT_LOAD:
@@ -395,8 +390,8 @@ def converted(text: str, kind: units.Kind, unit: str | None) -> str:
 class BanksField(TextField):
     """Bank angles typed as "0, 15, 30, 45, 60"; kept as text when it is not a list of numbers."""
 
-    def __init__(self, parent=None):
-        super().__init__("degrees, e.g. 0, 15, 30, 45, 60", parent)
+    def __init__(self, placeholder: str = "degrees, e.g. 0, 15, 30, 45, 60", parent=None):
+        super().__init__(placeholder, parent)
         self.input.textEdited.disconnect()
         self.input.textEdited.connect(lambda text: self.edited.emit(parse_banks(text)))
 

@@ -2,7 +2,7 @@
 
 from pathlib import Path
 
-from PySide6.QtCore import Qt, Signal
+from PySide6.QtCore import Qt, QTimer, Signal
 from PySide6.QtWidgets import (
     QHBoxLayout,
     QLabel,
@@ -14,18 +14,30 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard.profile_io import load_profile, profile_files
+from kneeboard.profile_io import profile_files, read_source
 
 PATH_ROLE = Qt.ItemDataRole.UserRole
 COLUMNS = ("", "Registration", "Model")
+EMPTY_HINT = ("No profiles (*.toml) in this folder. File › New profile from template makes one; "
+              "save it here and it appears in this list.")
 
 
 class FleetPanel(QWidget):
     opened = Signal(Path)  #: the person chose a profile
+    checked = Signal()  #: every profile of the folder has its mark
 
-    def __init__(self, parent=None):
+    def __init__(self, prepare=None, parent=None):
+        """`prepare(source)` takes a profile to its problems the way its card is made (the session's)."""
         super().__init__(parent)
+        if prepare is None:
+            from kneeboard.app.session import Session
+
+            prepare = Session().prepare_source
+        self._prepare = prepare
         self.folder: Path | None = None
+        self._unchecked: list[QTreeWidgetItem] = []
+        self._check_timer = QTimer(self, singleShot=True, interval=0)
+        self._check_timer.timeout.connect(self._check_next)
         self.tree = QTreeWidget()
         self.tree.setHeaderLabels(list(COLUMNS))
         self.tree.setRootIsDecorated(False)
@@ -33,6 +45,9 @@ class FleetPanel(QWidget):
         self.tree.setColumnWidth(1, 110)
         self.tree.itemActivated.connect(self._chosen)
         self.tree.itemClicked.connect(self._chosen)
+        self.hint = QLabel(EMPTY_HINT)
+        self.hint.setWordWrap(True)
+        self.hint.hide()
         self.title = QLabel("No folder open")
         self.title.setStyleSheet("font-weight: bold;")
         self.title.setWordWrap(True)
@@ -45,32 +60,69 @@ class FleetPanel(QWidget):
         box = QVBoxLayout(self)
         box.setContentsMargins(0, 0, 0, 0)
         box.addWidget(self.title)
+        box.addWidget(self.hint)
         box.addWidget(self.tree)
         box.addLayout(buttons)
 
     def show_folder(self, folder: Path, current: Path | None = None) -> None:
+        """List the folder's profiles at once (registration and model as written); their marks follow, one
+        profile checked per event-loop turn, so a large fleet never holds the window up."""
         self.folder = Path(folder)
         self.title.setText(f"Fleet: {self.folder.name}")
         self.title.setToolTip(str(self.folder))
         self.tree.clear()
-        style = self.style()
+        self._unchecked = []
         for path in profile_files(self.folder):
-            loaded = load_profile(path)
-            a = loaded.profile.aircraft if loaded.profile else None
-            item = QTreeWidgetItem(["", a.registration if a else path.stem, a.model if a else "cannot be read"])
+            source = read_source(path)
+            aircraft = (source.data or {}).get("aircraft")
+            aircraft = aircraft if isinstance(aircraft, dict) else {}
+            registration, model = aircraft.get("registration"), aircraft.get("model")
+            item = QTreeWidgetItem(["", registration if isinstance(registration, str) else path.stem,
+                                    model if isinstance(model, str) else "cannot be read"])
             item.setData(0, PATH_ROLE, str(path))
-            if loaded.errors:
-                item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxCritical))
-                item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in loaded.errors[:8]))
-                item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, "has errors")
-            elif loaded.warnings:
-                item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxWarning))
-                item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in loaded.warnings[:8]))
-                item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, "has warnings")
+            item.setToolTip(1, str(path))
+            item.setToolTip(2, item.text(2))
             self.tree.addTopLevelItem(item)
+            self._unchecked.append(item)
             if current is not None and Path(current) == path:
                 self.tree.setCurrentItem(item)
         self.tree.sortItems(1, Qt.SortOrder.AscendingOrder)
+        self.tree.resizeColumnToContents(1)
+        self.hint.setVisible(not self._unchecked)
+        self.tree.setVisible(bool(self._unchecked))
+        self._check_timer.start()
+
+    def _check_next(self) -> None:
+        while self._unchecked:
+            item = self._unchecked.pop(0)
+            try:
+                alive = item.treeWidget() is self.tree
+            except RuntimeError:  # the item went with a folder shown since
+                alive = False
+            if alive:
+                self._mark(item)
+                self._check_timer.start()
+                return
+        self.checked.emit()
+
+    def check_all(self) -> None:
+        """Give every listed profile its mark now (a test, or before a whole-fleet action)."""
+        self._check_timer.stop()
+        while self._unchecked:
+            self._mark(self._unchecked.pop(0))
+        self.checked.emit()
+
+    def _mark(self, item: QTreeWidgetItem) -> None:
+        prepared = self._prepare(read_source(Path(item.data(0, PATH_ROLE))))
+        style = self.style()
+        if prepared.errors:
+            item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxCritical))
+            item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in prepared.errors[:8]))
+            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, "has errors")
+        elif prepared.warnings:
+            item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxWarning))
+            item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in prepared.warnings[:8]))
+            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, "has warnings")
 
     def rows(self) -> list[tuple[str, str, str]]:
         """(mark, registration, path) per row: mark is "error", "warning" or ""."""
@@ -81,11 +133,15 @@ class FleetPanel(QWidget):
             out.append((mark.replace("has ", "").rstrip("s"), item.text(1), item.data(0, PATH_ROLE)))
         return out
 
-    def select(self, path: Path) -> None:
+    def select(self, path: Path | None) -> None:
+        """Highlight the profile at `path`; None (a new profile, not in the fleet): highlight none."""
         for i in range(self.tree.topLevelItemCount()):
             item = self.tree.topLevelItem(i)
-            if item.data(0, PATH_ROLE) == str(path):
+            if path is not None and item.data(0, PATH_ROLE) == str(path):
                 self.tree.setCurrentItem(item)
+                return
+        self.tree.setCurrentItem(None)
+        self.tree.clearSelection()
 
     def _chosen(self, item, _column=0):
         self.opened.emit(Path(item.data(0, PATH_ROLE)))

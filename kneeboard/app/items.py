@@ -8,7 +8,7 @@ column, default aviation gasoline), anything else is stored as its mass, exactly
 from kneeboard import units
 from kneeboard.app.fields import TableField
 
-COLUMNS = ("Item", "Mass or volume", "Density (for a volume)")
+COLUMNS = ("Item", "Mass or volume", "Density")  #: a density is only read for a volume
 
 
 class ItemsField(TableField):

@@ -13,7 +13,6 @@ def run(target: str | None = None) -> int:
     from PySide6.QtWidgets import QApplication
 
     from kneeboard.app.dialogs import show_caution_once
-    from kneeboard.app.paths import SAMPLES
     from kneeboard.app.window import MainWindow
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
@@ -24,7 +23,7 @@ def run(target: str | None = None) -> int:
     if target is not None and not Path(target).exists():
         print(f"kneeboard: {target}: no such file or folder", file=sys.stderr)
         return 2
-    start = Path(target) if target else (Path(last) if last and Path(last).is_dir() else SAMPLES)
+    start = Path(target) if target else (Path(last) if last and Path(last).is_dir() else sample_fleet())
     window.show()
     window.open_path(start)
     if os.environ.get("KNEEBOARD_STARTUP_PROBE"):  # the benchmark: report when the window is up, then quit
@@ -33,6 +32,17 @@ def run(target: str | None = None) -> int:
     show_caution_once(window, window.settings)
     window.offer_recovery()
     return app.exec()
+
+
+def sample_fleet() -> Path:
+    """A copy of the invented sample fleet in the app's data folder, to try the app on and edit freely (the
+    installed samples stay as shipped); files already copied, and a person's edits to them, are kept."""
+    from PySide6.QtCore import QStandardPaths
+
+    from kneeboard.shipped import copy_samples
+
+    data = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
+    return copy_samples(Path(data or Path.home() / ".kneeboard") / "sample fleet")
 
 
 def _probe_and_quit(app) -> None:

@@ -168,6 +168,7 @@ class CardPreview(QWidget):
     def __init__(self, parent: QWidget | None = None):
         super().__init__(parent)
         self._generation = 0  #: the newest generation requested
+        self.shown_generation = 0  #: the generation of the PDF shown now (0: none)
         self._running: _Request | None = None
         self._pending: _Request | None = None
         self._doc: QPdfDocument | None = None
@@ -390,6 +391,7 @@ class CardPreview(QWidget):
         page = max(0, self.current_page())
         scroll = (self._view.horizontalScrollBar().value(), self._view.verticalScrollBar().value())
         old, self._doc, self._pdf = self._doc, doc, data
+        self.shown_generation = request.generation
         self._view.setDocument(doc)
         page = min(page, doc.pageCount() - 1)
         if self._view.pageNavigator().currentPage() != page:
@@ -417,6 +419,7 @@ class CardPreview(QWidget):
         if self._doc is not None:
             self._doc.deleteLater()
         self._doc = self._pdf = None
+        self.shown_generation = 0
         self._error.hide()
         self._fill_page_selector(0, -1)
 

@@ -3,6 +3,7 @@
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QLabel, QVBoxLayout, QWidget
 
+from kneeboard import terms
 from kneeboard.tables import CardTable
 
 
@@ -23,27 +24,32 @@ class Readout(QWidget):
         self.figures: dict[str, str] = {}
 
     def show_table(self, t: CardTable) -> None:
+        """The figures a pilot checks first, in the card's words (`kneeboard.terms`), as the card prints them."""
         su = t.speed_unit
-        figures = {"weight": f"{t.weight.text} {t.weight_unit}",
-                   "limit bank": f"{t.limit_bank.text}°"}
+        figures = {terms.CARD_WEIGHT: f"{t.weight.text} {t.weight_unit}",
+                   terms.LIMIT_BANK: f"{t.limit_bank.text}°"}
         if t.maneuvering_speed is not None:
             figures["VA"] = f"{t.maneuvering_speed.text} {su}"
         warning = (f"<p style='color:#A11D1D'><b>Above the maximum weight of {t.max_weight.text} "
-                   f"{t.weight_unit}.</b></p>" if t.over_max_weight else "")
+                   f"{t.weight_unit}: the limits are lowered for this weight.</b></p>" if t.over_max_weight else "")
+        for line in t.warnings:
+            warning += f"<p style='color:#A11D1D'>{_esc(line)}</p>"
         rows = []
         for c in t.configurations:
             buffer = f"{c.buffer_bank.text}°" if c.buffer_bank else "none"
-            figures[f"{c.name} zero margin"] = f"{c.zero_margin_bank.text}°"
-            figures[f"{c.name} buffer"] = buffer
+            figures[f"{c.name} {terms.ZERO_MARGIN_BANK}"] = f"{c.zero_margin_bank.text}°"
+            figures[f"{c.name} {terms.BUFFER_BANK}"] = buffer
             rows.append(f"<tr><td><b>{_esc(c.name)}</b></td><td align=right>{c.stall_speed.text}</td>"
                         f"<td align=right><b>{c.pattern_speed.text}</b></td><td align=right><b>{buffer}</b></td>"
                         f"<td align=right><b>{c.zero_margin_bank.text}°</b></td></tr>")
-        va = f" · VA at this weight <b>{t.maneuvering_speed.text} {su}</b>" if t.maneuvering_speed else ""
+        va = f" · VA <b>{t.maneuvering_speed.text} {su}</b>" if t.maneuvering_speed else ""
+        head = "".join(f"<th align={'left' if i == 0 else 'right'}>{h}</th>" for i, h in enumerate(
+            (f"{su} IAS", terms.STALL, terms.PATTERN, f"{terms.BUFFER_BANK} ({t.buffer.text} {su})",
+             terms.ZERO_MARGIN_BANK)))
         self.label.setText(
-            f"{warning}<p>For <b>{t.weight.text} {t.weight_unit}</b>{va} · limit load "
-            f"{t.limit_load_factor.text} g at <b>{t.limit_bank.text}°</b> bank</p>"
-            f"<table cellspacing=0 cellpadding=3><tr><th align=left>{su} IAS</th><th>stall</th><th>fly</th>"
-            f"<th>{t.buffer.text} {su} left at</th><th>no margin at</th></tr>{''.join(rows)}</table>"
+            f"{warning}<p>{terms.CARD_WEIGHT.capitalize()} <b>{t.weight.text} {t.weight_unit}</b>{va} · "
+            f"{terms.LIMIT_LOAD} {t.limit_load_factor.text} g, {terms.LIMIT_BANK} <b>{t.limit_bank.text}°</b></p>"
+            f"<table cellspacing=0 cellpadding=3><tr>{head}</tr>{''.join(rows)}</table>"
         )
         self.figures = figures
 

@@ -21,19 +21,11 @@ from PySide6.QtWidgets import (
     QVBoxLayout,
 )
 
+from kneeboard.card.blocks import registry
 from kneeboard.card.geometry import CARD_SIZES
-from kneeboard.card.style import BINDINGS, BLOCKS, DEFAULT_STYLE, CardStyle, load_style
+from kneeboard.card.style import BINDINGS, CardStyle, load_style
 from kneeboard.fileio import read_text, write_atomic
-
-BLOCK_LABELS = {
-    "header": "Header: registration, model, weights, date, fingerprint",
-    "margin-table": "Margin table: stall speed and margin by bank",
-    "margin-chart": "Margin chart",
-    "limits": "Limits: load factor, VA, buffer and zero-margin banks",
-    "turns": "Turns at pattern speed",
-    "circling": "Circling at minimum sink (gliders)",
-    "notes": "Notes",
-}
+from kneeboard.shipped import default_style_path
 
 
 class StyleDialog(QDialog):
@@ -59,12 +51,14 @@ class StyleDialog(QDialog):
         self.binding = _combo(BINDINGS, style.binding)
         self.blocks = QListWidget()
         self.blocks.setDragDropMode(QAbstractItemView.DragDropMode.InternalMove)
-        shown = list(style.front) + [b for b in BLOCKS if b not in style.front]
+        labels = registry.labels()  # every registered block has its label: a new block needs no entry here
+        front = list(style.front) if style.front is not None else list(labels)
+        shown = front + [b for b in labels if b not in front]
         for name in shown:
-            item = QListWidgetItem(BLOCK_LABELS[name])
+            item = QListWidgetItem(labels.get(name, name))
             item.setData(Qt.ItemDataRole.UserRole, name)
             item.setFlags(item.flags() | Qt.ItemFlag.ItemIsUserCheckable | Qt.ItemFlag.ItemIsDragEnabled)
-            item.setCheckState(Qt.CheckState.Checked if name in style.front or name in style.back
+            item.setCheckState(Qt.CheckState.Checked if name in front or name in style.back
                                else Qt.CheckState.Unchecked)
             self.blocks.addItem(item)
         form.addRow("Organisation", self.organisation)
@@ -109,7 +103,7 @@ class StyleDialog(QDialog):
 
     def save(self, path: Path):
         """Write the style to `path` and read it back; returns (style or None, problems)."""
-        source = path if path.is_file() else (self.style_in.source or DEFAULT_STYLE)
+        source = path if path.is_file() else (self.style_in.source or default_style_path())
         doc = tomlkit.parse(read_text(source))
         for key, value in self.values().items():
             doc[key] = value

@@ -16,18 +16,17 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from kneeboard import shipped
 from kneeboard.app.actions import CardActions
 from kneeboard.app.document import ProfileDocument, SaveConflict
 from kneeboard.app.editor import ProfileEditor
 from kneeboard.app.fleet import FleetPanel
-from kneeboard.app.paths import SAMPLES, TEMPLATES
 from kneeboard.app.preview import CardPreview
 from kneeboard.app.readout import Readout
 from kneeboard.app.recovery import AUTOSAVE_MS, Pending, Recovery, key_for
-from kneeboard.card import build_card, card_pdf, fleet_pdf
-from kneeboard.card.style import fleet_style_path, load_style
+from kneeboard.app.session import Session
 from kneeboard.fileio import FileProblem
-from kneeboard.tables import build
+from kneeboard.pipeline import card_pdf, fleet_pdf
 from kneeboard.texts import CAUTION, CAUTION_SHORT
 
 MAX_RECENT = 8
@@ -45,9 +44,8 @@ class MainWindow(CardActions, QMainWindow):
         self._autosaved: tuple[str, str] | None = None  # (recovery key, text) last copied aside
         self.doc: ProfileDocument | None = None
         self.editor: ProfileEditor | None = None
-        self.style, self.style_problems = load_style(None)
-        self.style_path: Path | None = None
-        self.last_table = None
+        self.session = Session()  #: the folder, the style, what was printed: everything but the widgets
+        self._card_request = 0  #: the preview generation of the open profile's card as it prints
         self.setAcceptDrops(True)
         # hooks a test replaces: the questions and file choices a person would answer
         self.ask_unsaved = self._ask_unsaved
@@ -57,7 +55,8 @@ class MainWindow(CardActions, QMainWindow):
         self.ask_conflict = self._ask_conflict  # -> "reload" | "overwrite" | "save-as" | "cancel"
         self._asking_conflict = False
 
-        self.fleet = FleetPanel()
+        self.ask_open_path = self._ask_open_path
+        self.fleet = FleetPanel(self.session.prepare_source)
         self.fleet.opened.connect(self.open_profile)
         self.fleet.open_folder.clicked.connect(self._open_folder_dialog)
         self.editor_holder = QWidget()
@@ -109,7 +108,7 @@ class MainWindow(CardActions, QMainWindow):
         action = QAction(text, self)
         if shortcut is not None:
             action.setShortcut(shortcut)
-        action.triggered.connect(slot)
+        action.triggered.connect(lambda _checked=False: slot())  # a slot never gets `checked` as an argument
         menu.addAction(action)
         return action
 
@@ -117,34 +116,40 @@ class MainWindow(CardActions, QMainWindow):
         bar = self.menuBar()
         m = bar.addMenu("&File")
         new = m.addMenu("&New profile from template")
-        for category in ("normal", "utility", "acrobatic", "glider"):
-            self._action(new, category.capitalize(), lambda _=False, c=category: self.new_profile(c))
+        self.act_new = {}
+        for category in shipped.CATEGORIES_WITH_TEMPLATES:
+            self.act_new[category] = self._action(new, category.capitalize(),
+                                                  lambda c=category: self.new_profile(c))
         self.act_open = self._action(m, "&Open profile…", self._open_dialog, QKeySequence.StandardKey.Open)
-        self._action(m, "Open &folder…", self._open_folder_dialog)
+        self.act_open_folder = self._action(m, "Open &folder…", self._open_folder_dialog)
         self.recent_menu = m.addMenu("Open &recent")
         m.addSeparator()
         self.act_save = self._action(m, "&Save", self.save, QKeySequence.StandardKey.Save)
         self.act_save_as = self._action(m, "Save &as…", self.save_as, QKeySequence.StandardKey.SaveAs)
         m.addSeparator()
         self.act_export = self._action(m, "&Export card as PDF…", self.export_card)
-        self._action(m, "Export the &fleet…", self.export_fleet)
-        self._action(m, "Export table as &CSV…", self.export_csv)
+        self.act_export_fleet = self._action(m, "Export the &fleet…", self.export_fleet)
+        self.act_export_csv = self._action(m, "Export table as &CSV…", self.export_csv)
         self.act_print = self._action(m, "&Print card…", self.print_card, QKeySequence.StandardKey.Print)
         m.addSeparator()
-        self._action(m, "&Quit", self.close, QKeySequence.StandardKey.Quit)
+        self.act_quit = self._action(m, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         e = bar.addMenu("&Edit")
         self.act_undo = self._action(e, "&Undo", lambda: self.doc and self.doc.undo_stack.undo(),
                                      QKeySequence.StandardKey.Undo)
         self.act_redo = self._action(e, "&Redo", lambda: self.doc and self.doc.undo_stack.redo(),
                                      QKeySequence.StandardKey.Redo)
         e.addSeparator()
-        self._action(e, "&Compare with saved…", self.compare_with_saved)
+        self.act_compare_saved = self._action(e, "Changes since &saved…", self.compare_with_saved)
         c = bar.addMenu("&Card")
-        self._action(c, "Edit the fleet's card &style…", self.edit_style)
-        self._action(c, "&Use another style file…", self._pick_style)
+        self.act_compare_printed = self._action(c, "&Compare with the printed card…", self.compare_with_printed)
+        c.addSeparator()
+        self.act_edit_style = self._action(c, "Edit the fleet's card &style…", self.edit_style)
+        self.act_pick_style = self._action(c, "&Use another style file…", self._pick_style)
+        self.act_folder_style = self._action(c, "Use the &folder's style", self.use_folder_style)
         h = bar.addMenu("&Help")
-        self._action(h, "&Formulas and sources", self.show_formulas, QKeySequence.StandardKey.HelpContents)
-        self._action(h, "&Caution", lambda: QMessageBox.information(self, "Caution", CAUTION))
+        self.act_formulas = self._action(h, "&Formulas and sources", self.show_formulas,
+                                         QKeySequence.StandardKey.HelpContents)
+        self.act_caution = self._action(h, "&Caution", lambda: QMessageBox.information(self, "Caution", CAUTION))
         self._rebuild_recent()
 
     # --- opening -------------------------------------------------------------------------------
@@ -157,27 +162,37 @@ class MainWindow(CardActions, QMainWindow):
             self.open_profile(path)
 
     def open_folder(self, folder: Path) -> None:
-        self.fleet.show_folder(folder)
+        folder = Path(folder).resolve()
+        self.session.use_folder(folder)
+        self._forget_prepared()
+        self.fleet.show_folder(folder, self.doc.path if self.doc is not None else None)
         self.settings.setValue("last_folder", str(folder))
-        self._use_fleet_style(folder)
         rows = self.fleet.rows()
-        if rows and (self.doc is None or self.doc.path is None or self.doc.path.parent != Path(folder)):
+        if self.doc is not None and self.doc.path is not None and self.doc.path.parent == folder:
+            return
+        if rows:
             self.open_profile(Path(rows[0][2]))
+        elif self.doc is not None and self.maybe_save():
+            self._close_document()  # the aircraft of another folder must not look like one of this fleet
 
     def open_profile(self, path: Path) -> bool:
-        path = Path(path)
+        path = Path(path).resolve()
         if self.doc is not None and self.doc.path == path:
             return True
         if not self.maybe_save():
+            if self.doc is not None and self.doc.path is not None:
+                self.fleet.select(self.doc.path)
             return False
+        if self.session.folder != path.parent:
+            self.session.use_folder(path.parent)
         try:
-            doc = ProfileDocument.open(path, self)
+            doc = ProfileDocument.open(path, self, self.session)
         except FileProblem as exc:
             self.show_problems(f"Cannot open {path.name}", str(exc))
             return False
         if self.fleet.folder != path.parent:
             self.fleet.show_folder(path.parent, path)
-            self._use_fleet_style(path.parent)
+            self.settings.setValue("last_folder", str(path.parent))
         else:
             self.fleet.select(path)
         self._set_document(doc)
@@ -190,8 +205,12 @@ class MainWindow(CardActions, QMainWindow):
     def new_profile(self, category: str) -> None:
         if not self.maybe_save():
             return
-        text = (TEMPLATES / f"{category}.toml").read_text()
-        self._set_document(ProfileDocument(text, None, self))
+        text = shipped.template_path(category).read_text(encoding="utf-8")
+        self._set_document(ProfileDocument(text, None, self, session=self.session))
+        self.fleet.select(None)  # the new profile is none of the fleet's aircraft
+        self.statusBar().showMessage(
+            f"A new {category} profile: every figure in it is the template's placeholder until you type your "
+            "aircraft's flight-manual figures (the Problems box lists them).", 12000)
 
     def _set_document(self, doc: ProfileDocument) -> None:
         if self.doc is not None:
@@ -211,28 +230,46 @@ class MainWindow(CardActions, QMainWindow):
         self._update_title()
         self.schedule_preview()
 
-    def _use_fleet_style(self, folder: Path) -> None:
-        path = fleet_style_path(folder)
-        style, problems = load_style(path)
-        if style is None:
-            self.show_problems("The fleet's card style has problems",
-                               "\n".join(str(p) for p in problems) + "\nThe default style is used instead.")
-            style, problems = load_style(None)
-            path = None
-        self.style, self.style_problems, self.style_path = style, problems, path
+    def _close_document(self) -> None:
+        """No profile open: an empty editor, no figures, no card."""
+        if self.editor is not None:
+            self.editor.setParent(None)
+            self.editor.deleteLater()
+        if self.doc is not None:
+            self.doc.deleteLater()
+        self.doc = self.editor = None
+        self.preview.clear()
+        self.readout.show_nothing("No profile open: choose one in the fleet, or make one with File › New profile.")
+        self._update_title()
+
+    def _forget_prepared(self) -> None:
+        """The style may have changed: every figure is prepared again."""
+        if self.doc is not None:
+            self.doc.forget()
+            if self.editor is not None:
+                self.editor.refresh()
         self.schedule_preview()
+
+    def use_folder_style(self) -> None:
+        """Back to the one rule: the folder's fleet.style.toml, else the shipped default."""
+        self.session.use_style_file(None)
+        self._forget_prepared()
+        self.statusBar().showMessage(f"The cards use {self._style_name()}.", 6000)
+
+    def _style_name(self) -> str:
+        path = self.session.style_path(self.doc.path if self.doc is not None else None)
+        return f"the style {path.name}" if path is not None else "the default style"
 
     # --- the card --------------------------------------------------------------------------------
     def schedule_preview(self) -> None:
         self.timer.start()
 
-    def card(self, mode: str = "card", table=None):
-        """A job for the preview: the card (or a sheet of it) as PDF bytes, from immutable inputs."""
-        loaded = self.doc.loaded
-        profile, style, fingerprint = loaded.profile, self.style, loaded.fingerprint
+    def card(self, mode: str = "card"):
+        """A job for the preview: the open profile's card (or a sheet of it) as PDF bytes, from immutable inputs."""
+        prepared, session = self.doc.loaded, self.session
 
         def job() -> bytes:
-            c = build_card(profile, style, fingerprint, table=table)
+            c = session.card(prepared)
             return card_pdf(c) if mode == "card" else fleet_pdf([c], mode)
 
         return job
@@ -240,20 +277,18 @@ class MainWindow(CardActions, QMainWindow):
     def _update_card(self) -> None:
         if self.doc is None:
             return
-        loaded = self.doc.loaded
-        if loaded.profile is None:
-            n = len(loaded.errors)
+        prepared = self.doc.loaded
+        if prepared.table is None:
+            n = len(prepared.errors)
             self.preview_note.setText(f"The card is not updated: the profile has {n} error(s) (see Problems).")
             self.preview_note.show()
             self.readout.show_nothing("Fix the problems marked in the editor to see the figures.")
-            self.last_table = None
             return
         self.preview_note.hide()
-        from kneeboard.card import styled_profile
-
-        self.last_table = build(styled_profile(loaded.profile, self.style))
-        self.readout.show_table(self.last_table)
-        self.preview.request(self.card(self.preview.mode(), self.last_table))
+        self.readout.show_table(prepared.table)
+        mode = self.preview.mode()
+        generation = self.preview.request(self.card(mode))
+        self._card_request = generation if mode == "card" else 0
 
     # --- saving --------------------------------------------------------------------------------
     def save(self) -> bool:
@@ -323,7 +358,7 @@ class MainWindow(CardActions, QMainWindow):
     def save_as(self) -> bool:
         if self.doc is None:
             return True
-        start = self.doc.path or (self.fleet.folder or SAMPLES) / "new_profile.toml"
+        start = self.doc.path or self._folder() / "new_profile.toml"
         path = self.ask_save_path("Save profile as", str(start), "Profiles (*.toml)")
         if path is None:
             return False
@@ -334,6 +369,10 @@ class MainWindow(CardActions, QMainWindow):
             return False
         self._after_save()
         return True
+
+    def _folder(self) -> Path:
+        """Where file dialogs start: the open fleet's folder, else the home folder."""
+        return self.fleet.folder or Path.home()
 
     def _after_save(self):
         self._forget_autosave()
@@ -364,6 +403,10 @@ class MainWindow(CardActions, QMainWindow):
 
     def _ask_save_path(self, title: str, start: str, filters: str) -> Path | None:
         path, _ = QFileDialog.getSaveFileName(self, title, start, filters)
+        return Path(path) if path else None
+
+    def _ask_open_path(self, title: str, start: str, filters: str) -> Path | None:
+        path, _ = QFileDialog.getOpenFileName(self, title, start, filters)
         return Path(path) if path else None
 
     def _show_problems(self, title: str, text: str) -> None:
@@ -420,7 +463,7 @@ class MainWindow(CardActions, QMainWindow):
                 return False
         else:
             try:
-                self._set_document(ProfileDocument(pending.text, None, self))
+                self._set_document(ProfileDocument(pending.text, None, self, session=self.session))
             except FileProblem:
                 return False
             self.doc.undo_stack.resetClean()
@@ -451,6 +494,7 @@ class MainWindow(CardActions, QMainWindow):
 
     # --- recent files and drops ---------------------------------------------------------------
     def _remember(self, path: Path) -> None:
+        path = Path(path).resolve()  # absolute: Open recent works from any folder the app is started in
         recent = [p for p in self.recent() if p != str(path)]
         self.settings.setValue("recent", [str(path)] + recent[: MAX_RECENT - 1])
         self._rebuild_recent()
@@ -477,12 +521,15 @@ class MainWindow(CardActions, QMainWindow):
                 return
 
     def _open_dialog(self):
-        path, _ = QFileDialog.getOpenFileName(self, "Open profile", str(self.fleet.folder or SAMPLES),
-                                              "Profiles (*.toml)")
-        if path:
-            self.open_profile(Path(path))
+        path = self.ask_open_path("Open profile", str(self._folder()), "Profiles (*.toml)")
+        if path is not None:
+            self.open_profile(path)
 
     def _open_folder_dialog(self):
-        path = QFileDialog.getExistingDirectory(self, "Open fleet folder", str(self.fleet.folder or SAMPLES))
-        if path:
-            self.open_folder(Path(path))
+        path = self.ask_folder("Open fleet folder", str(self._folder()))
+        if path is not None:
+            self.open_folder(path)
+
+    def ask_folder(self, title: str, start: str) -> Path | None:
+        path = QFileDialog.getExistingDirectory(self, title, start)
+        return Path(path) if path else None

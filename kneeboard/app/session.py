@@ -1,0 +1,105 @@
+"""What the app works on, without a widget: the fleet folder, the card style by the one rule, the open profile
+through the pipeline, and the figures of the cards this session printed.
+
+The window shows a `Session`; tests drive one without any window. Every figure the app shows comes from
+`kneeboard.pipeline`, exactly as the command line gets it: the same style rule (`Styles`: a chosen style file,
+else the folder's `fleet.style.toml`, else the shipped default), the same validation, the same card.
+"""
+
+from dataclasses import dataclass
+from pathlib import Path
+
+from kneeboard.card.ops import Figure
+from kneeboard.card.style import FLEET_STYLE
+from kneeboard.pipeline import Prepared, Styles, make_card, prepare
+from kneeboard.profile_io import Source, source_from_plain, source_from_text
+
+UNTITLED = "untitled.toml"  #: the name a new profile's style is looked up by, in the open folder
+
+
+@dataclass(frozen=True)
+class Printed:
+    """A card as it left the app (exported or printed): what it printed, and where it went."""
+
+    figures: dict[str, Figure]
+    made_on: str
+    fingerprint: str
+    where: str  #: the file written, or "the printer"
+
+
+class Session:
+    def __init__(self) -> None:
+        self.folder: Path | None = None
+        self.style_file: Path | None = None  #: chosen by the person; None: by the one rule
+        self.styles = Styles()
+        self.printed: dict[str, Printed] = {}  #: registration (case folded) -> the card last printed here
+
+    # --- the fleet and its style ------------------------------------------------------------------
+    def use_folder(self, folder: Path | None) -> None:
+        self.folder = Path(folder) if folder is not None else None
+        self.reload_styles()
+
+    def use_style_file(self, path: Path | None) -> None:
+        """Use one style file for every card (None: back to the folder's style or the default)."""
+        self.style_file = Path(path) if path is not None else None
+        self.reload_styles()
+
+    def reload_styles(self) -> None:
+        """Forget the styles read so far (a style file was edited)."""
+        self.styles = Styles(self.style_file)
+
+    def style_path(self, profile_path: Path | None = None) -> Path | None:
+        """The style file the open profile's card uses (None: the shipped default)."""
+        return self.styles.path_for(self._style_key(profile_path))
+
+    def fleet_style_file(self) -> Path | None:
+        """Where the open folder's style is (or would be) saved."""
+        return self.folder / FLEET_STYLE if self.folder is not None else None
+
+    def style_for(self, profile_path: Path | None = None):
+        """(style or None when its file has errors, the style file's problems)."""
+        return self.styles.for_profile(self._style_key(profile_path))
+
+    def _style_key(self, profile_path: Path | None) -> Path | None:
+        if profile_path is not None:
+            return Path(profile_path)
+        return self.folder / UNTITLED if self.folder is not None else None
+
+    # --- a profile through the pipeline ---------------------------------------------------------------
+    def prepare_source(self, source: Source) -> Prepared:
+        style, style_problems = self.style_for(source.path)
+        return prepare(source, style, style_problems=style_problems)
+
+    def prepare_plain(self, data: dict, path: Path | None = None) -> Prepared:
+        return self.prepare_source(source_from_plain(data, path))
+
+    def prepare_text(self, text: str, path: Path | None = None) -> Prepared:
+        return self.prepare_source(source_from_text(text, path))
+
+    @staticmethod
+    def card(prepared: Prepared, made_on: str | None = None):
+        """The laid-out card (raises LayoutError when it cannot be printed legibly)."""
+        return make_card(prepared, made_on)
+
+    # --- what was printed -----------------------------------------------------------------------------
+    def remember_printed(self, card, where: str) -> Printed:
+        printed = Printed(card.figures(), card.made_on, card.fingerprint, where)
+        self.printed[card.registration.casefold()] = printed
+        return printed
+
+    def remember_printed_data(self, data: dict, where: str) -> Printed:
+        """A card read back from its PDF (`kneeboard.card.data`)."""
+        from kneeboard.card.data import figures_of
+
+        printed = Printed(figures_of(data), str(data.get("made_on", "")), str(data.get("fingerprint", "")), where)
+        self.printed[str(data.get("registration", "")).casefold()] = printed
+        return printed
+
+    def last_printed(self, registration: str) -> Printed | None:
+        return self.printed.get(registration.casefold())
+
+    def changes_since_printed(self, printed: Printed, prepared: Prepared):
+        """Every printed figure that reads differently on the card `prepared` makes now."""
+        from kneeboard.compare import compare_figures
+
+        return compare_figures(printed.figures, self.card(prepared).figures())
