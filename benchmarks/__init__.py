@@ -1,1 +1,1 @@
-"""kneeboard's benchmark: preview latency, one card against the bare-reportlab floor, a fleet, start-up."""
+"""kneeboard's benchmark: start-up, one card, the preview and fleets, each beside a floor measured in the same run."""

@@ -1,0 +1,1 @@
+"""Bare scripts run as whole processes: the floors the start-up and the fleet are measured against."""
