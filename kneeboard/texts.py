@@ -24,14 +24,16 @@ FORMULAS_HTML = """\
 indicator's position error follows the angle of attack. So the indicated stall speed rises with the bank and the
 weight exactly as the calibrated one does (flight manuals' stall-speed-by-bank tables list IAS and CAS each rising
 by &radic;n). The flight manual's calibration table is a 1-g table: it converts the published stall speed to the
-basis the file does not give, and the speeds flown at 1 g (pattern speed, VA, VFE). Without a table IAS is taken
+basis the file does not give (the best-glide speed likewise, both then scaled with the weight at one angle of
+attack), and the speeds flown at 1 g (pattern speed, VA, VFE). Without a table IAS is taken
 equal to CAS.</p>
 <table border="1" cellspacing="0" cellpadding="4">
 <tr><th align="left">figure</th><th align="left">formula</th><th align="left">source</th></tr>
 <tr><td>load factor in a level, coordinated turn</td><td>n = 1 / cos(bank)</td>
 <td>FAA-H-8083-25 (Pilot's Handbook of Aeronautical Knowledge), load factor chart</td></tr>
-<tr><td>stall speed in a bank and at a weight</td><td>Vs &times; &radic;n &times; &radic;(W / Wref), in IAS and in
-CAS alike</td><td>FAA-H-8083-25, &ldquo;Load Factors and Stalling Speeds&rdquo;; lift equation</td></tr>
+<tr><td>stall speed in a bank and at a weight</td><td>Vs(bank) = Vs &radic;n, and &times; &radic;(W / Wref) at
+another weight, in IAS and in CAS alike</td>
+<td>FAA-H-8083-25, &ldquo;Load Factors and Stalling Speeds&rdquo;; lift equation</td></tr>
 <tr><td>pattern speed</td><td>a fixed speed, or factor &times; the CAS stall speed at the card weight (1.4 default;
 less than 1.3 in CAS is warned), converted to IAS</td><td>FAA-H-8083-3 (Airplane Flying Handbook), ch. 9</td></tr>
 <tr><td>margin</td><td>printed pattern speed &minus; printed stall speed in the bank (IAS): the printed figures add
@@ -41,15 +43,34 @@ up</td><td>definition</td></tr>
 <tr><td>buffer bank</td><td>arccos((Vs / (Vp &minus; buffer))&sup2;), IAS</td><td>same</td></tr>
 <tr><td>limit load factor</td><td>3.8 (less above 4,118 lb) / 4.4 / 6.0 (normal / utility / acrobatic), gliders
 5.3</td><td>14 CFR 23.337 before amendment 23-64; EASA CS 22.337</td></tr>
-<tr><td>limit with flaps or air brakes</td><td>aeroplanes +2.0 with flaps extended; gliders +4.0 with landing flaps,
-+3.5 with air brakes; or the flight manual's own figure</td>
-<td>14 CFR 23.345(a)(1) before amendment 23-64; CS 22.345(b)(1), CS 22.345(a)(1)</td></tr>
+<tr><td>limit with flaps or air brakes</td><td>aeroplanes +2.0 with the flaps extended; gliders +4.0 with the
+wing-flaps in a landing setting, +3.5 with the air brakes extended; never above the aircraft's own limit; or the
+flight manual's own figure for the configuration. A configuration with a flap limit speed has its flaps extended
+unless the file says otherwise</td>
+<td>14 CFR 23.345(a)(1) before amendment 23-64; CS 22.345(b)(1)(i), CS 22.345(a)(1)</td></tr>
 <tr><td>limit above the maximum weight</td><td>n<sub>limit</sub> &times; W<sub>max</sub> / W</td>
 <td>the design limit load, n<sub>limit</sub> W<sub>max</sub>, reached sooner</td></tr>
 <tr><td>limit bank</td><td>arccos(1 / n<sub>limit</sub>): where a level turn reaches the structure's limit load
 </td><td>from the load factor</td></tr>
-<tr><td>VA at this weight</td><td>VA &times; &radic;(W / W<sub>VA</sub>) when lighter; never above the published
-VA</td><td>FAA-H-8083-25; 14 CFR 23.1507, CS 22.1507</td></tr>
+<tr><td>VA at this weight</td><td>VA &times; &radic;(W / W<sub>VA</sub>) when lighter (W<sub>VA</sub> the weight VA is
+published at, by default the reference weight); never above the published VA</td>
+<td>FAA-H-8083-25; 14 CFR 23.1507, CS 22.1507</td></tr>
+<tr><td>available load factor (the pull at the pattern speed)</td><td>(Vp / Vs)&sup2;, IAS, wings level: the load
+factor that stalls the wing at the pattern speed (1.96 g at 1.4 Vs); marked &ldquo;!&rdquo; where the
+configuration's limit load factor comes first. Stall speed at n g: Vs &times; &radic;n</td>
+<td>FAA-H-8083-25, &ldquo;Load Factors and Stalling Speeds&rdquo;</td></tr>
+<tr><td>turn back after an engine failure</td><td>a coordinated gliding turn at the best-glide angle of attack:
+speed V<sub>bg</sub> &times; &radic;n (IAS), sink rate V / ((L/D) cos bank), height lost through a heading change
+&Delta;&psi;: &Delta;h = V<sub>bg</sub>&sup2; &Delta;&psi; / (g (L/D) sin bank cos bank), least at 45&deg;;
+V<sub>bg</sub> the true best-glide airspeed at 1 g at the card weight (best-glide speed &times; &radic;(W / Wref),
+through the calibration and the density). Before the turn, a straight glide for the reaction time:
+V<sub>bg</sub> t / (L/D). A best-glide sink rate given instead of the ratio: L/D = V<sub>bg</sub> / sink. Margin:
+the speed in the turn &minus; the first configuration's stall speed at that bank. Still air, no roll-in or roll-out.
+Heading changes 180&deg; and 270&deg; by default (regaining the runway needs more than 180&deg;; 270&deg;: common
+practice); reaction time 4 s by default (common practice)</td>
+<td>derived from the lift equation; the published analyses of the turn back after take-off reach the same result,
+e.g. Rogers, &ldquo;The Possible &lsquo;Impossible&rsquo; Turn&rdquo;, Journal of Aircraft 32(2), 1995 (cited from
+memory); FAA-H-8083-3 (Airplane Flying Handbook), engine failure after take-off, for the decision itself</td></tr>
 <tr><td>IAS &harr; CAS</td><td>linear in the manual's calibration table; outside it the end offset is held and a
 warning printed</td><td>the aircraft's flight manual</td></tr>
 <tr><td>TAS</td><td>from CAS through the impact pressure and the Mach number (compressible, subsonic)</td>
@@ -64,6 +85,7 @@ turn speed &times; &radic;n, sink &times; n<sup>1.5</sup></td>
 </table>
 <p>Glider sink rates are true (a variometer reads true sink); polar speeds are read in the file's speed basis.</p>
 <p><b>Rounding on the card is always toward safety:</b> stall speeds, pattern speeds, turn radii, times, sink rates
-and heights round up; margins, banks, VA, limit load factors and flap limits round down, to 1 kt / 1 mph / 1 km/h
-and 1 degree. Every warning is printed on the card, on every page. Rounding happens once, in the table builder.</p>
+and heights round up; margins, banks, VA, limit and available load factors, glide ratios and flap limits round down,
+to 1 kt / 1 mph / 1 km/h, 1 degree, 0.1 g (load factors in the margin table up, to 0.01) and, for the turn back,
+10 ft or 5 m. Every warning is printed on the card, on every page. Rounding happens once, in the table builder.</p>
 """
