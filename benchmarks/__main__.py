@@ -73,7 +73,9 @@ def describe(name: str, value: dict) -> str:
     met = {None: "not judged (smoke)", True: "met", False: "MISSED"}[value["met"]]
     targets = ", ".join(f"{key} <= {limit:g}" for key, limit in value["targets"].items())
     return (f"{name:<24} {m['p50']:.4g} {m['unit']} (p95 {m['p95']:.4g})  floor {f['p50']:.4g} {f['unit']}"
-            f"  ratio {r['p50']:.3g} x (p95 {r['p95']:.3g} x, n={r['n']})  target {targets}: {met}")
+            f"  ratio {r['p50']:.3g} x (p95 {r['p95']:.3g} x, n={r['n']})  target {targets}: {met}"
+            + (f"\n{'':<24} renders for {value['unchanged_edits']} edits that print nothing new: "
+               f"{value['renders_for_unchanged']} (target 0)" if "unchanged_edits" in value else ""))
 
 
 if __name__ == "__main__":

@@ -57,6 +57,14 @@ def test_fleet_floor_draws_as_many_sheets(smoke):
     assert data["figures"]["large fleet time"]["cards"] > fleet["cards"]
 
 
+def test_preview_counts_renders_for_edits_that_print_nothing_new(smoke):
+    data, stdout = smoke
+    preview = data["figures"]["preview"]
+    assert preview["unchanged_edits"] >= 1
+    assert 0 <= preview["renders_for_unchanged"] <= 4 * preview["unchanged_edits"]
+    assert "print nothing new" in stdout
+
+
 def test_machine_is_named(smoke):
     data, _ = smoke
     assert {"cpu", "cores", "python", "date"} <= set(data["machine"])
