@@ -4,8 +4,9 @@
 - every word the table promises is really used: each file key is a declared profile field, each card word is printed
   on a sample card, each app and command-line word is in the command line's output, its help or the editor's labels;
 - none of the words a term replaced (`terms.GLOSSARY`) appears in what a user reads: the text reports of every
-  sample, the command line's help pages, the caution and help texts (kneeboard/texts.py), the editor's labels, and
-  every figure label and printed text of each sample card.
+  sample, the command line's help pages, the caution and help texts (kneeboard/texts.py), the editor's labels, every
+  figure label and printed text of each sample card, and the README;
+- the README names every profile field, every JSON key, every command-line option and display.py's packages.
 """
 
 import json
@@ -111,6 +112,7 @@ def read_by_users(prepared, cards, help_pages) -> dict[str, str]:
     """Every text a user reads that the tests can reach without a window, by where it is read."""
     sources = {f"text report of {name}": report_text(p, "text") for name, p in prepared.items()}
     sources |= help_pages | _texts_module() | _field_texts() | _card_texts(cards)
+    sources["README.md"] = (ROOT / "README.md").read_text(encoding="utf-8")
     return sources
 
 
@@ -200,3 +202,58 @@ def test_a_planted_replaced_word_is_found():
 def test_no_replaced_word_in_what_a_user_reads(read_by_users):
     found = _replaced_words_in(read_by_users)
     assert found - REPORTED == set()
+
+
+# --- the README tells what the code does --------------------------------------------------------------------------
+
+README = ROOT / "README.md"
+
+
+def _readme_section(title: str) -> str:
+    text = README.read_text(encoding="utf-8")
+    # a heading is a line of #s and a capital (the code blocks' comments start lower case)
+    match = re.search(rf"^#+ {re.escape(title)}\n(.*?)(?=^#{{1,4}} [A-Z]|\Z)", text, re.M | re.S)
+    assert match, f"README.md has no section {title!r}"
+    return match.group(1)
+
+
+def test_the_readme_profile_format_names_every_field_with_its_default():
+    section = _readme_section("The profile file")
+    block = re.search(r"```toml\n(.*?)```", section, re.S).group(1)
+    written = set(re.findall(r"^#?\s*(\w+) = ", block, re.M))
+    declared = {f.key for f in fields.FIELDS if f.kind != fields.ITEMS} | set(fields.TOP_LEVEL) - set(fields.SECTIONS)
+    assert declared <= written, sorted(declared - written)
+    assert {f"[{s}]" for s in ("aircraft", "weight", "glider", "card")} | {"[[configuration]]", "[[weight.item]]"} \
+        <= set(re.findall(r"^#?\s*(\[\[?[\w.]+\]\]?)", block, re.M))
+
+
+def test_the_readme_apt_line_is_the_packages_display_py_checks():
+    from kneeboard.display import XCB_LIBRARIES
+
+    (line,) = re.findall(r"^sudo apt install (.+)$", _readme_section("Two commands"), re.M)
+    assert line.split() == list(dict.fromkeys(XCB_LIBRARIES.values()))
+
+
+def _keys(data) -> set[str]:
+    if isinstance(data, dict):
+        return set(data) | {k for v in data.values() for k in _keys(v)}
+    if isinstance(data, list):
+        return {k for v in data for k in _keys(v)}
+    return set()
+
+
+def test_the_readme_json_section_names_every_key_the_json_has(prepared):
+    section = _readme_section("The JSON output")
+    keys = set().union(*(_keys(json.loads(report_text(p, "json"))) for p in prepared.values()))
+    assert {"turn_back", "available_load_factor", "over_max_weight", "warnings", "caution"} <= keys
+    missing = {k for k in keys if f'"{k}"' not in section}
+    assert not missing, sorted(missing)
+
+
+def test_the_readme_commands_section_names_every_command_and_option(help_pages):
+    section = _readme_section("Commands")
+    for page in help_pages.values():
+        for option in set(re.findall(r"(?<![\w-])--[a-z][a-z-]+", page)) - {"--help"}:
+            assert option in section, option
+    for command in ("check", "table", "card", "compare"):
+        assert f"kneeboard {command} " in section, command
