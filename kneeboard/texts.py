@@ -83,6 +83,9 @@ temperature</td><td>ICAO Doc 7488, U.S. Standard Atmosphere 1976</td></tr>
 turn speed &times; &radic;n, sink &times; n<sup>1.5</sup></td>
 <td>common method; Welch, Welch &amp; Irving, <i>The Complete Soaring Pilot's Handbook</i></td></tr>
 </table>
+<p>The flaps and air-brake limits (14 CFR 23.345, CS 22.345), the VA ceiling (14 CFR 23.1507, CS 22.1507) and the
+normal category's 60&deg; (14 CFR 23.3) are cited from memory or secondary sources, not yet checked against the
+regulations' text: where the flight manual gives its own figure, enter it; the flight manual governs.</p>
 <p>Glider sink rates are true (a variometer reads true sink); polar speeds are read in the file's speed basis.</p>
 <p><b>Rounding on the card is always toward safety:</b> stall speeds, pattern speeds, turn radii, times, sink rates
 and heights round up; margins, banks, VA, limit and available load factors, glide ratios and flap limits round down,
