@@ -257,3 +257,29 @@ def test_the_readme_commands_section_names_every_command_and_option(help_pages):
             assert option in section, option
     for command in ("check", "table", "card", "compare"):
         assert f"kneeboard {command} " in section, command
+
+
+def _readme_profile() -> str:
+    return re.search(r"```toml\n(.*?)```", _readme_section("The profile file"), re.S).group(1)
+
+
+def test_the_readme_example_profile_is_one_kneeboard_reads_without_a_problem():
+    from conftest import MINIMAL, checked
+
+    aeroplane = checked(_readme_profile())
+    assert aeroplane.table is not None and aeroplane.problems == (), [str(p) for p in aeroplane.problems]
+    assert aeroplane.table.turn_back is not None  # best glide and glide ratio give the turn back
+    # the commented glider polar is one too
+    polar = re.search(r"^# polar = (\[.*\])  #", _readme_profile(), re.M).group(1)
+    glider = checked(MINIMAL.replace('max_weight = "750 kg"', 'category = "glider"\nmax_weight = "450 kg"')
+                     .replace('stall_speed = "50 kt"', 'stall_speed = "65 km/h"')
+                     + f'\n[glider]\npolar_weight = "420 kg"\npolar = {polar}\n')
+    assert glider.table is not None and glider.table.glider is not None, [str(p) for p in glider.errors]
+
+
+def test_the_readme_style_lists_every_block_in_the_default_order():
+    from kneeboard.card import blocks
+
+    block = re.search(r"```toml\n(.*?)```", _readme_section("Card styles"), re.S).group(1)
+    front = json.loads(re.search(r"^front = (\[.*\])", block, re.M).group(1))
+    assert tuple(front) == blocks.names()
