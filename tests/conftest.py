@@ -76,6 +76,31 @@ def minimal_text():
 # --- GUI fixtures: a main window on a private copy of the sample fleet, with private settings ---
 
 
+@pytest.fixture(autouse=True)
+def no_modal_dialogs(request, monkeypatch):
+    """A modal dialog nobody answers would hang the suite: in a GUI test it fails the test instead, naming it.
+
+    Tests answer the window's questions through its hooks (ask_unsaved, ask_conflict, ask_save_path, ...).
+    """
+    if "qtbot" not in request.fixturenames:
+        return
+    from PySide6.QtWidgets import QColorDialog, QDialog, QFileDialog, QMessageBox
+
+    def refuse(name):
+        def modal(*args, **_kwargs):
+            title = next((a for a in args if isinstance(a, str)), "")
+            raise AssertionError(f"a modal {name} opened unanswered: {title!r}")
+        return modal
+
+    for name in ("question", "warning", "information", "critical"):
+        monkeypatch.setattr(QMessageBox, name, staticmethod(refuse(f"QMessageBox.{name}")))
+    monkeypatch.setattr(QMessageBox, "exec", refuse("QMessageBox"))
+    monkeypatch.setattr(QDialog, "exec", refuse("dialog"))
+    for name in ("getOpenFileName", "getSaveFileName", "getExistingDirectory"):
+        monkeypatch.setattr(QFileDialog, name, staticmethod(refuse(f"QFileDialog.{name}")))
+    monkeypatch.setattr(QColorDialog, "getColor", staticmethod(refuse("QColorDialog")))
+
+
 @pytest.fixture
 def fleet(tmp_path):
     folder = tmp_path / "fleet"
@@ -100,6 +125,8 @@ def window(qtbot, fleet, settings, tmp_path):
     w.show_problems = lambda title, text: w.problems_seen.append((title, text))
     w.answers = []
     w.ask_unsaved = lambda: w.answers.pop(0) if w.answers else "discard"
+    w.conflicts = []  # a test that expects the question sets its answer here
+    w.ask_conflict = lambda: w.conflicts.pop(0) if w.conflicts else "cancel"
     w.show()
     w.open_profile(fleet / "demo_trainer.toml")
     qtbot.wait(w.timer.interval() + 20)

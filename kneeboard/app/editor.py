@@ -48,7 +48,7 @@ class ProfileEditor(QScrollArea):
         self.keys: dict[str, tuple] = {}
         self.problem_list = QListWidget()
         self.problem_list.setMaximumHeight(110)
-        self.all_clear = QLabel("No problems: the card can be printed.")
+        self.all_clear = QLabel("No input problems found.")
         self.all_clear.setStyleSheet("color: #1B5E20; font-weight: bold;")
         self.problem_list.itemActivated.connect(lambda item: self.focus_problem(item.data(256)))
         problems = QGroupBox("Problems")

@@ -35,7 +35,8 @@ class FleetPanel(QWidget):
             prepare = Session().prepare_source
         self._prepare = prepare
         self.folder: Path | None = None
-        self._unchecked: list[QTreeWidgetItem] = []
+        self._items: dict[str, QTreeWidgetItem] = {}
+        self._unchecked: list[str] = []  #: paths of the listed profiles not yet marked
         self._check_timer = QTimer(self, singleShot=True, interval=0)
         self._check_timer.timeout.connect(self._check_next)
         self.tree = QTreeWidget()
@@ -70,8 +71,9 @@ class FleetPanel(QWidget):
         self.folder = Path(folder)
         self.title.setText(f"Fleet: {self.folder.name}")
         self.title.setToolTip(str(self.folder))
-        self.tree.clear()
+        self._items: dict[str, QTreeWidgetItem] = {}  # emptied with the tree, whose clear() deletes the items
         self._unchecked = []
+        self.tree.clear()
         for path in profile_files(self.folder):
             source = read_source(path)
             aircraft = (source.data or {}).get("aircraft")
@@ -83,7 +85,8 @@ class FleetPanel(QWidget):
             item.setToolTip(1, str(path))
             item.setToolTip(2, item.text(2))
             self.tree.addTopLevelItem(item)
-            self._unchecked.append(item)
+            self._unchecked.append(str(path))
+            self._items[str(path)] = item
             if current is not None and Path(current) == path:
                 self.tree.setCurrentItem(item)
         self.tree.sortItems(1, Qt.SortOrder.AscendingOrder)
@@ -93,17 +96,11 @@ class FleetPanel(QWidget):
         self._check_timer.start()
 
     def _check_next(self) -> None:
-        while self._unchecked:
-            item = self._unchecked.pop(0)
-            try:
-                alive = item.treeWidget() is self.tree
-            except RuntimeError:  # the item went with a folder shown since
-                alive = False
-            if alive:
-                self._mark(item)
-                self._check_timer.start()
-                return
-        self.checked.emit()
+        if self._unchecked:
+            self._mark(self._unchecked.pop(0))
+            self._check_timer.start()
+        else:
+            self.checked.emit()
 
     def check_all(self) -> None:
         """Give every listed profile its mark now (a test, or before a whole-fleet action)."""
@@ -112,8 +109,14 @@ class FleetPanel(QWidget):
             self._mark(self._unchecked.pop(0))
         self.checked.emit()
 
-    def _mark(self, item: QTreeWidgetItem) -> None:
-        prepared = self._prepare(read_source(Path(item.data(0, PATH_ROLE))))
+    def _item(self, path: str) -> QTreeWidgetItem | None:
+        return self._items.get(path)
+
+    def _mark(self, path: str) -> None:
+        item = self._item(path)
+        if item is None:
+            return
+        prepared = self._prepare(read_source(Path(path)))
         style = self.style()
         if prepared.errors:
             item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxCritical))

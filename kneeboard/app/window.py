@@ -23,7 +23,8 @@ from kneeboard.app.editor import ProfileEditor
 from kneeboard.app.fleet import FleetPanel
 from kneeboard.app.preview import CardPreview
 from kneeboard.app.readout import Readout
-from kneeboard.app.recovery import AUTOSAVE_MS, Pending, Recovery, key_for
+from kneeboard.app.recovery import AUTOSAVE_MS, Recovery
+from kneeboard.app.safekeeping import Safekeeping
 from kneeboard.app.session import Session
 from kneeboard.fileio import FileProblem
 from kneeboard.pipeline import card_pdf, fleet_pdf
@@ -33,7 +34,7 @@ MAX_RECENT = 8
 DEBOUNCE_MS = 0  #: edits of one event-loop turn share a render; the preview drops stale renders itself
 
 
-class MainWindow(CardActions, QMainWindow):
+class MainWindow(CardActions, Safekeeping, QMainWindow):
     def __init__(self, settings: QSettings | None = None, recovery_dir: Path | None = None):
         super().__init__()
         self.settings = settings or QSettings("kneeboard", "kneeboard")
@@ -306,55 +307,6 @@ class MainWindow(CardActions, QMainWindow):
         self._after_save()
         return True
 
-    # --- someone else changed the open file ------------------------------------------------------
-    def _changed_on_disk(self) -> None:
-        """The watcher saw the file change: without unsaved edits take theirs (undoable), else ask."""
-        if self._asking_conflict or self.doc is None:
-            return
-        if not self.doc.modified:  # nothing of this window's would be lost
-            try:
-                self.doc.reload_from_disk()
-                note = "changed on disk and was reloaded (Undo brings back the earlier text)"
-            except FileProblem:
-                note = "changed on disk and cannot be read now; saving will ask first"
-            self.statusBar().showMessage(f"{self.doc.path.name} {note}", 8000)
-            return
-        self._settle_conflict()
-
-    def _settle_conflict(self, answer: str | None = None) -> bool:
-        """Ask (unless answered) what to do about the file's change on disk; True when the edits are now saved."""
-        if answer is None:
-            self._asking_conflict = True
-            try:
-                answer = self.ask_conflict()
-            finally:
-                self._asking_conflict = False
-        try:
-            if answer == "reload":
-                self.doc.reload_from_disk()
-                self._forget_autosave()
-                return False
-            if answer == "overwrite":
-                self.doc.save(force=True)
-                self._after_save()
-                return True
-        except FileProblem as exc:
-            self.show_problems("The profile was not saved" if answer == "overwrite" else "The file cannot be read",
-                               f"{exc}\nYour changes are still here.")
-            return False
-        return self.save_as() if answer == "save-as" else False
-
-    def _ask_conflict(self) -> str:
-        name = self.doc.path.name if self.doc.path else "the profile"
-        box = QMessageBox(QMessageBox.Icon.Warning, "Changed on disk",
-                          f"{name} was changed on disk by someone else since you opened it.", parent=self)
-        choices = {box.addButton("Reload theirs", QMessageBox.ButtonRole.DestructiveRole): "reload",
-                   box.addButton("Keep mine (overwrite)", QMessageBox.ButtonRole.AcceptRole): "overwrite",
-                   box.addButton("Save mine as…", QMessageBox.ButtonRole.ActionRole): "save-as"}
-        box.setDefaultButton(box.addButton(QMessageBox.StandardButton.Cancel))
-        box.exec()
-        return choices.get(box.clickedButton(), "cancel")
-
     def save_as(self) -> bool:
         if self.doc is None:
             return True
@@ -420,77 +372,6 @@ class MainWindow(CardActions, QMainWindow):
             event.accept()
         else:
             event.ignore()
-
-    # --- crash recovery ------------------------------------------------------------------------
-    def _recovery_key(self) -> str:
-        return key_for(self.doc.path, self.doc.untitled_id)
-
-    def autosave(self) -> Path | None:
-        """Copy unsaved edits aside (every AUTOSAVE_MS); nothing is written when nothing changed."""
-        if self.doc is None or not self.doc.modified:
-            return None
-        key, text = self._recovery_key(), self.doc.text()
-        if self._autosaved == (key, text):
-            return None
-        if self._autosaved is not None and self._autosaved[0] != key:
-            self.recovery.discard(self._autosaved[0])
-        try:
-            path = self.recovery.save(key, self.doc.path, text)
-        except FileProblem:
-            return None  # a full or read-only disk must not interrupt the editing itself
-        self._autosaved = (key, text)
-        return path
-
-    def _forget_autosave(self) -> None:
-        if self._autosaved is not None:
-            self.recovery.discard(self._autosaved[0])
-            self._autosaved = None
-        if self.doc is not None:
-            self.recovery.discard(self._recovery_key())
-
-    def offer_recovery(self) -> int:
-        """After a crash: offer each autosaved set of edits back; returns how many were restored."""
-        restored = 0
-        for pending in self.recovery.pending():
-            if self.ask_restore(pending) and self._restore(pending):
-                restored += 1
-            self.recovery.remove(pending)
-        return restored
-
-    def _restore(self, pending: Pending) -> bool:
-        if pending.path is not None and pending.path.is_file():
-            if not self.open_profile(pending.path):
-                return False
-        else:
-            try:
-                self._set_document(ProfileDocument(pending.text, None, self, session=self.session))
-            except FileProblem:
-                return False
-            self.doc.undo_stack.resetClean()
-            return True
-        try:
-            self.doc.replace_text(pending.text, "Restore unsaved changes")
-        except FileProblem:
-            return False
-        return True
-
-    def _ask_restore(self, pending: Pending) -> bool:
-        name = pending.path.name if pending.path else "a new profile"
-        answer = QMessageBox.question(
-            self, "Restore unsaved changes?",
-            f"kneeboard stopped at {pending.when} with unsaved changes to {name}. Restore them?",
-        )
-        return answer == QMessageBox.StandardButton.Yes
-
-    def _update_title(self) -> None:
-        if self.doc is None:
-            self.setWindowTitle("kneeboard")
-            return
-        name = self.doc.path.name if self.doc.path else "new profile"
-        loaded = self.doc.loaded
-        reg = loaded.profile.aircraft.registration if loaded.profile else ""
-        self.setWindowTitle(f"{reg + ' — ' if reg else ''}{name}[*] — kneeboard")
-        self.setWindowModified(self.doc.modified)
 
     # --- recent files and drops ---------------------------------------------------------------
     def _remember(self, path: Path) -> None:

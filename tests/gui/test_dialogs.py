@@ -4,6 +4,7 @@ import shutil
 from pathlib import Path
 
 import pytest
+from card_helpers import card_of, prepared
 from PySide6.QtCore import QSettings, Qt
 from PySide6.QtGui import QGuiApplication
 from PySide6.QtWidgets import QWidget
@@ -19,11 +20,10 @@ from kneeboard.app.dialogs import (
     export_fleet,
     show_caution_once,
 )
-from kneeboard.card.style import load_style
-from kneeboard.compare import Change, compare
+from kneeboard.compare import HIGHER_IS_WORSE, LOWER_IS_WORSE, Change, compare
+from kneeboard.pipeline import Styles
 from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile_io import expand_paths, load_profile
-from kneeboard.tables import build
 from kneeboard.texts import CAUTION
 
 # The samples folder, found from this file.
@@ -31,9 +31,9 @@ SAMPLES = Path(__file__).resolve().parents[2] / "sample_aircraft"
 
 CHANGES = [
     Change("weight", "2900 lb", "3100 lb"),
-    Change("Gear up, flaps up · 30° · margin", "35 kt", "33 kt"),  # smaller margin: worse
+    Change("Gear up, flaps up · 30° · margin", "35 kt", "33 kt", LOWER_IS_WORSE),  # smaller margin: worse
     Change("Gear up, flaps up · 30° · turn radius", "1102 ft", "1130 ft"),
-    Change("Gear up, flaps up · 75° · stall", None, "120 kt"),  # added row
+    Change("Gear up, flaps up · 75° · stall", None, "120 kt", HIGHER_IS_WORSE),  # added row: not judged
     Change("Gear up, flaps up · 60° · turn radius", "640 ft", None),  # no longer printed
 ]
 
@@ -50,15 +50,16 @@ def test_compare_dialog_shows_every_change_and_marks_a_worse_margin(qtbot):
     bold = [all(dialog.table.item(i, j).font().bold() for j in range(3)) for i in range(len(rows))]
     assert bold == [False, True, False, False, False]
     headers = [dialog.table.horizontalHeaderItem(j).text() for j in range(dialog.table.columnCount())]
-    assert headers == ["Figure", "Printed now", "After your changes"]
+    assert headers == ["Figure", "On the printed card", "Now"]
     assert "Less room before the stall (1)" in dialog.summary.text()
 
 
 def test_compare_dialog_from_real_tables_marks_every_smaller_margin(qtbot):
-    loaded = load_profile(SAMPLES / "demo_retractable.toml")
-    p = loaded.profile
-    changes = compare(build(p), build(p, weight=p.aircraft.max_weight))  # fixed pattern speeds: margins shrink
-    dialog = CompareDialog(changes, p.aircraft.registration)
+    t = prepared("demo_retractable").table
+    heavy = f"{t.max_weight.text} {t.weight_unit}"
+    changes = compare(card_of("demo_retractable"), card_of("demo_retractable", weight=heavy))
+    assert changes  # fixed pattern speeds: heavier, the margins shrink
+    dialog = CompareDialog(changes, t.registration)
     qtbot.addWidget(dialog)
     assert dialog.row_count() == len(changes)
     for change, (figure, old, new) in zip(changes, dialog.rows()):
@@ -161,9 +162,7 @@ def fleet_with_broken(tmp_path, minimal_text):
         shutil.copy(sample, folder / sample.name)
     broken = minimal_text.replace('registration = "TEST-1"', 'registration = "BROKEN-1"').replace('"50 kt"', '"fast"')
     (folder / "broken.toml").write_text(broken, encoding="utf-8")
-    style, problems = load_style()
-    assert style is not None, problems
-    return folder, expand_paths([folder]), style
+    return folder, expand_paths([folder]), Styles()
 
 
 def registrations():
@@ -175,7 +174,7 @@ def test_export_each_writes_one_pdf_per_aircraft_and_reports_the_broken_one(qtbo
     parent = QWidget()
     qtbot.addWidget(parent)
     each = tmp_path / "cards"
-    batch = export_fleet(parent, paths, style, None, each, None)  # the real progress dialog
+    batch = export_fleet(parent, paths, style, each=each)  # the real progress dialog
     assert not batch.cancelled
     assert sorted(p.stem for p in each.glob("*.pdf")) == registrations()
     assert all(p.read_bytes().startswith(b"%PDF") for p in each.glob("*.pdf"))
@@ -216,14 +215,14 @@ def test_export_one_fleet_pdf_with_progress_labels(tmp_path, fleet_with_broken):
         return made[0]
 
     out = tmp_path / "fleet.pdf"
-    batch = export_fleet(None, paths, style, out, None, "letter", progress_factory=factory)
+    batch = export_fleet(None, paths, style, out, "letter", progress_factory=factory)
     progress = made[0]
     assert progress.total == len(paths) == 6
     assert progress.labels[0] == f"Card 1 of 6: {paths[0].name}"
     assert progress.labels == [f"Card {i} of 6: {p.name}" for i, p in enumerate(paths, start=1)]
     assert progress.closed
     assert out.read_bytes().startswith(b"%PDF")
-    assert len(batch.cards) == 5 and len(batch.failures) == 1
+    assert batch.cards == 5 and len(batch.failures) == 1 and batch.written == [out]
 
 
 def test_cancel_after_two_cards_writes_nothing(tmp_path, fleet_with_broken):
@@ -234,20 +233,19 @@ def test_cancel_after_two_cards_writes_nothing(tmp_path, fleet_with_broken):
         fakes.append(FakeProgress(total, cancel_at=2))
         return fakes[-1]
 
-    out, each = tmp_path / "fleet.pdf", tmp_path / "cards"
-    batch = export_fleet(None, paths, style, out, each, None, progress_factory=factory)
+    out = tmp_path / "fleet.pdf"
+    batch = export_fleet(None, paths, style, out, progress_factory=factory)
     assert batch.cancelled
-    assert len(batch.cards) + len(batch.failures) == 2  # the third profile was never read
+    assert batch.cards + len(batch.failures) == 2  # the third profile was never read
     assert fakes[0].closed
-    assert not out.exists() and not each.exists()
+    assert not out.exists()
     assert list(tmp_path.iterdir()) == [folder]
 
 
 def test_a_file_that_cannot_be_written_is_a_failure_not_an_exception(tmp_path, fleet_with_broken):
     folder, paths, style = fleet_with_broken
     out = tmp_path / "no such folder" / "fleet.pdf"
-    batch = export_fleet(None, paths, style, out, None, None, progress_factory=quiet)
-    assert batch.cards
+    batch = export_fleet(None, paths, style, out, progress_factory=quiet)
     failure = batch.failures[-1]
     assert failure.path == out
     assert len(failure.lines) == 1 and str(out) in failure.lines[0]
@@ -256,4 +254,4 @@ def test_a_file_that_cannot_be_written_is_a_failure_not_an_exception(tmp_path, f
 def test_export_needs_somewhere_to_write(fleet_with_broken):
     _, paths, style = fleet_with_broken
     with pytest.raises(ValueError):
-        export_fleet(None, paths, style, None, None, None, progress_factory=quiet)
+        export_fleet(None, paths, style, progress_factory=quiet)

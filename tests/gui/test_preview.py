@@ -1,21 +1,19 @@
 """The card preview: the card's own PDF, built off the GUI thread, shown with its page, zoom and mode controls."""
 
 import threading
-from dataclasses import replace
 from functools import cache
 
 import numpy as np
 import pytest
-from conftest import SAMPLES
+from card_helpers import SMALL_CARD, card_of
 from PySide6.QtCore import QTimer
 from PySide6.QtGui import QAction, QImage
 from PySide6.QtPdfWidgets import QPdfView
 from PySide6.QtWidgets import QComboBox, QWidget
 
 from kneeboard.app.preview import ZOOM_STEPS, CardPreview
-from kneeboard.card import LayoutError, build_card, card_pdf, fleet_pdf
+from kneeboard.card import LayoutError, card_pdf, fleet_pdf
 from kneeboard.card.style import load_style
-from kneeboard.profile_io import load_profile
 
 MADE_ON = "2026-12-01"
 WAIT_MS = 10_000  #: generous: a loaded test machine must not fail a test, only slow it
@@ -33,14 +31,10 @@ def style():
 
 
 @cache
-def tourer():
-    return load_profile(SAMPLES / "demo_tourer.toml")
-
-
-@cache
 def tourer_card(weight: float | None = None, **changes):
-    lp = tourer()
-    return build_card(lp.profile, style().with_changes(**changes), lp.fingerprint, weight=weight, made_on=MADE_ON)
+    """The demo tourer's card through the pipeline, at `weight` [kg] when given."""
+    overrides = {"weight": f"{weight} kg"} if weight is not None else {}
+    return card_of("demo_tourer", style().with_changes(**changes), **overrides)
 
 
 def tourer_job(weight: float | None = None, **changes):
@@ -50,10 +44,8 @@ def tourer_job(weight: float | None = None, **changes):
 
 def layout_error() -> LayoutError:
     """The real error of a card that cannot be laid out: two dozen bank angles on a 4x6 card."""
-    lp = tourer()
-    many = replace(lp.profile, card=replace(lp.profile.card, bank_angles_deg=tuple(float(b) for b in range(0, 72, 3))))
     try:
-        build_card(many, style().with_changes(size="4x6"), lp.fingerprint, made_on=MADE_ON)
+        card_of("demo_tourer", style().with_changes(size="4x6"), bank_angles=tuple(float(b) for b in range(0, 72, 3)))
     except LayoutError as exc:
         return exc
     raise AssertionError("this card was expected not to fit")
@@ -103,7 +95,7 @@ def test_shows_the_cards_own_pdf_at_its_page_size(qtbot, preview):
 
 def test_a_smaller_card_size_changes_the_page(qtbot, preview):
     show(qtbot, preview, tourer_job())
-    show(qtbot, preview, tourer_job(size="4x6"))
+    show(qtbot, preview, tourer_job(size="4x6", front=SMALL_CARD))
     size = preview.page_size_points(0)
     assert (size.width(), size.height()) == pytest.approx(SIX_BY_FOUR_POINTS, abs=0.1)
 

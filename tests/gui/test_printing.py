@@ -6,15 +6,14 @@ from functools import cache
 import numpy as np
 import pypdfium2
 import pytest
-from conftest import SAMPLES
+from card_helpers import SMALL_CARD, card_of
 from pypdf import PdfReader
 from PySide6.QtPrintSupport import QPrintDialog, QPrinter
 from PySide6.QtWidgets import QDialog
 
 from kneeboard.app.printing import print_pdf, print_with_dialog
-from kneeboard.card import build_card, card_pdf, fleet_pdf
+from kneeboard.card import card_pdf, fleet_pdf
 from kneeboard.card.style import load_style
-from kneeboard.profile_io import load_profile
 
 MADE_ON = "2026-12-01"
 
@@ -23,8 +22,7 @@ MADE_ON = "2026-12-01"
 def card(name: str = "demo_tourer", **changes):
     style, problems = load_style()
     assert style is not None, problems
-    lp = load_profile(SAMPLES / f"{name}.toml")
-    return build_card(lp.profile, style.with_changes(**changes), lp.fingerprint, made_on=MADE_ON)
+    return card_of(name, style.with_changes(**changes))
 
 
 def pdf_printer(path, dpi: int = 150) -> QPrinter:
@@ -47,7 +45,8 @@ def gray(data: bytes, page: int = 0) -> np.ndarray:
     return np.asarray(doc[page].render(scale=1.0).to_pil().convert("L"), dtype=float)
 
 
-@pytest.mark.parametrize("changes", [{}, {"size": "4x6"}, {"landscape": True}, {"size": "half-letter"}],
+@pytest.mark.parametrize("changes", [{}, {"size": "4x6", "front": SMALL_CARD}, {"landscape": True},
+                                     {"size": "half-letter"}],
                          ids=["a5", "4x6", "a5-landscape", "half-letter"])
 def test_each_page_prints_on_paper_of_the_cards_size(qtbot, tmp_path, changes):
     pdf = card_pdf(card(**changes))
@@ -62,7 +61,8 @@ def test_each_page_prints_on_paper_of_the_cards_size(qtbot, tmp_path, changes):
 
 
 def test_sheets_of_a_fleet_print_on_their_sheets(qtbot, tmp_path):
-    pdf = fleet_pdf([card("demo_trainer", size="4x6"), card("demo_microlight", size="4x6")], "letter")
+    cards = [card(name, size="4x6", front=SMALL_CARD) for name in ("demo_trainer", "demo_microlight")]
+    pdf = fleet_pdf(cards, "letter")
     out = tmp_path / "sheets.pdf"
     expected = boxes(pdf)
     assert len(expected) >= 2
