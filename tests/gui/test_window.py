@@ -1,13 +1,19 @@
 """The main window driven as a person drives it: typing, undo, saving, prompts, broken files, exports."""
 
 import io
+import subprocess
+import sys
 from pathlib import Path
 
 import pytest
 from pypdf import PdfReader
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QKeySequence
+from PySide6.QtWidgets import QMenu, QMessageBox
 
+from kneeboard import terms
+from kneeboard.app.dialogs import CompareDialog
+from kneeboard.card.data import read_card_data
 from kneeboard.card.geometry import CARD_SIZES
 
 LB = 0.45359237
@@ -33,12 +39,12 @@ def test_opens_on_the_fleet_with_marks(window, fleet):
 
 
 def test_typing_a_weight_updates_model_readout_and_preview(qtbot, window):
-    before = window.readout.figures["weight"]
+    before = window.readout.figures[terms.CARD_WEIGHT]
     type_into(qtbot, window.editor.fields["weight.total"], "1450 lb")
     settle(qtbot, window)
     assert window.doc.get(("weight", "total")) == "1450 lb"
     assert window.doc.loaded.profile.weight == pytest.approx(1450 * LB)
-    assert window.readout.figures["weight"] == "1450 lb" != before
+    assert window.readout.figures[terms.CARD_WEIGHT] == "1450 lb" != before
     shown = PdfReader(io.BytesIO(window.preview.pdf_bytes())).pages[0].extract_text()
     assert "1450 lb" in shown
     assert window.isWindowModified()
@@ -70,7 +76,7 @@ def test_invalid_entry_is_marked_kept_and_blocks_nothing(qtbot, window):
 @pytest.mark.parametrize("key, text, marked, says", [
     ("weight.total", "2000 lb", "weight", "above the maximum"),
     ("configuration[1].pattern_factor", "0.9", "configuration[1].pattern_factor", "out of range"),
-    ("configuration[1].pattern_factor", "1.2", "configuration[1].pattern_factor", "below 1.3"),
+    ("configuration[1].pattern_factor", "1.2", "configuration[1].pattern_factor", "least usual 1.3"),
     ("card.bank_angles", "0, 30, 90", "card.bank_angles", "bank angle"),
 ])
 def test_unflyable_values_are_explained(qtbot, window, key, text, marked, says):
@@ -140,9 +146,11 @@ def test_broken_files_show_problems_and_keep_the_app(qtbot, window, fleet):
     assert window.doc.path.name == "demo_trainer.toml"  # what was open stays open
     bad_values = fleet / "zz_values.toml"
     bad_values.write_text((fleet / "demo_trainer.toml").read_text().replace('"48 kt"', '"48 kg"'))
-    window.fleet.show_folder(fleet)
-    marks = {r[1]: r[0] for r in window.fleet.rows()}
-    assert marks["zz_broken"] == "error" and marks["DEMO-TRN"] == ""
+    window.fleet.reload.click()
+    window.fleet.check_all()
+    marks = {Path(r[2]).name: r[0] for r in window.fleet.rows()}
+    assert marks["zz_broken.toml"] == "error" and marks["zz_values.toml"] == "error"
+    assert marks["demo_trainer.toml"] == ""
     assert window.open_profile(bad_values)
     assert "configuration[1].stall_speed" in window.problems_seen[-1][1]
     assert window.editor.fields["configuration[1].stall_speed"].problem is not None
@@ -179,49 +187,166 @@ def test_weight_build_up_with_fuel_by_volume(qtbot, window):
     assert window.doc.loaded.profile.weight == pytest.approx(1100 * LB + 72.0)
 
 
-def test_preview_page_size_follows_the_style(qtbot, window):
+def test_preview_page_size_follows_the_style_file_chosen_in_the_menu(qtbot, window, tmp_path):
     w, h = window.preview.page_size_points(0).width(), window.preview.page_size_points(0).height()
     assert (w, h) == pytest.approx(CARD_SIZES["a5"], abs=0.1)
-    window.style = window.style.with_changes(size="4x6")
-    window.schedule_preview()
+    small = tmp_path / "small.style.toml"
+    small.write_text('style = 1\nsize = "4x6"\nfront = ["header", "margin-table", "limits"]\n')
+    window.ask_open_path = lambda *_: small
+    window.act_pick_style.trigger()
     settle(qtbot, window)
     size = window.preview.page_size_points(0)
     assert (size.width(), size.height()) == pytest.approx(CARD_SIZES["4x6"], abs=0.1)
+    window.act_folder_style.trigger()  # back to the folder's (here: the default) style
+    settle(qtbot, window)
+    assert window.preview.page_size_points(0).width() == pytest.approx(CARD_SIZES["a5"][0], abs=0.1)
 
 
-def test_compare_with_saved_lists_exactly_the_changed_figures(qtbot, window):
+def test_changes_since_saved_lists_exactly_the_changed_figures(qtbot, window):
     assert window.compare_changes() == []
     type_into(qtbot, window.editor.fields["weight.total"], "1300 lb")
     changes = window.compare_changes()
     labels = {c.label for c in changes}
-    assert "weight" in labels
+    assert terms.CARD_WEIGHT in labels
     assert all(c.old != c.new for c in changes)
-    assert not any("load factor" in label for label in labels)  # load factors do not depend on weight
-    dialog = window.compare_with_saved()
+    assert not any(label.endswith("load factor") for label in labels)  # load factors do not depend on weight
+    window.act_compare_saved.trigger()
+    (dialog,) = window.findChildren(CompareDialog)
     assert dialog.row_count() == len(changes)
+    assert [dialog.table.horizontalHeaderItem(j).text() for j in range(3)] == [
+        "Figure", "In the saved file", "With your edits"]
 
 
-def test_exports(qtbot, window, tmp_path):
+def test_exports_from_the_menu(qtbot, window, tmp_path):
     window.ask_save_path = lambda *_: tmp_path / "card.pdf"
-    path = window.export_card()
+    window.act_export.trigger()
+    path = tmp_path / "card.pdf"
     assert len(PdfReader(str(path)).pages) == 2
+    assert path.read_bytes() == window.preview.pdf_bytes()  # the very bytes the preview shows
+    assert "card.pdf" in window.statusBar().currentMessage()
     window.ask_save_path = lambda *_: tmp_path / "table.csv"
-    csv = window.export_csv()
-    assert csv.read_text().startswith("registration,configuration")
-    batch = window.export_fleet(each=tmp_path / "each")
-    assert sorted(p.name for p in (tmp_path / "each").iterdir()) == sorted(
-        f"{r[1]}.pdf" for r in window.fleet.rows())
-    assert not batch.failures
+    window.act_export_csv.trigger()
+    assert (tmp_path / "table.csv").read_text().startswith("registration,configuration")
+    window.ask_save_path = lambda *_: tmp_path / "fleet.pdf"
+    window.act_export_fleet.trigger()  # the menu item: it once received `checked` as its output path
+    found = read_card_data((tmp_path / "fleet.pdf").read_bytes())
+    assert sorted(d["registration"] for d in found) == sorted(r[1] for r in window.fleet.rows())
+    assert not window.problems_seen
+
+
+def test_an_export_never_replaces_the_profile(qtbot, window, fleet):
+    before = (fleet / "demo_glider.toml").read_bytes()
+    window.ask_save_path = lambda *_: fleet / "demo_glider.toml"
+    window.act_export.trigger()
+    assert (fleet / "demo_glider.toml").read_bytes() == before
+    assert window.problems_seen and "toml" in window.problems_seen[-1][1]
+
+
+def test_compare_with_the_printed_card_after_saving(qtbot, window, tmp_path):
+    """Export, change the weight, save (the natural order), compare: the printed card is out of date."""
+    window.ask_save_path = lambda *_: tmp_path / "DEMO-TRN.pdf"
+    window.act_export.trigger()
+    window.act_compare_printed.trigger()
+    (dialog,) = window.findChildren(CompareDialog)
+    assert dialog.row_count() == 0 and "No printed figure changed" in dialog.summary.text()
+    dialog.close()
+    dialog.setParent(None)
+    type_into(qtbot, window.editor.fields["weight.total"], "1300 lb")
+    window.act_save.trigger()
+    assert not window.doc.modified
+    window.act_compare_printed.trigger()
+    (dialog,) = window.findChildren(CompareDialog)
+    rows = {figure: (old, new) for figure, old, new in dialog.rows()}
+    assert rows[terms.CARD_WEIGHT] == ("1560 lb", "1300 lb")
+    assert "print a new card" in dialog.summary.text() and "DEMO-TRN.pdf" in dialog.summary.text()
+
+
+def test_compare_with_a_card_printed_by_the_command_line(qtbot, window, fleet, tmp_path):
+    out = tmp_path / "printed.pdf"
+    cli = subprocess.run([sys.executable, "-m", "kneeboard", "card", str(fleet / "demo_trainer.toml"), "-o", str(out)],
+                         capture_output=True, text=True)
+    assert cli.returncode == 0, cli.stderr
+    window.ask_open_path = lambda *_: out
+    window.act_compare_printed.trigger()
+    (dialog,) = window.findChildren(CompareDialog)
+    assert dialog.row_count() == 0  # the app makes the very card the command line printed
+
+
+def test_the_app_and_the_command_line_print_the_same_card_with_a_fleet_style(qtbot, window, fleet, tmp_path):
+    (fleet / "fleet.style.toml").write_text('style = 1\nbank_angles = [0, 20, 40, 60]\nspeed_unit = "km/h"\n')
+    window.ask_folder = lambda *_: fleet
+    window.act_open_folder.trigger()
+    window.fleet.reload.click()
+    settle(qtbot, window)
+    app_card = read_card_data(window.preview.pdf_bytes())[0]
+    out = tmp_path / "cli.pdf"
+    cli = subprocess.run([sys.executable, "-m", "kneeboard", "card", str(window.doc.path), "-o", str(out)],
+                         capture_output=True, text=True)
+    assert cli.returncode == 0, cli.stderr
+    cli_card = read_card_data(out.read_bytes())[0]
+    assert app_card["figures"] == cli_card["figures"]
+    assert any("20°" in f["label"] for f in app_card["figures"]) and "km/h IAS" in window.readout.label.text()
+
+
+def test_edit_the_fleet_style_from_the_menu(qtbot, window, fleet):
+    def answer(dialog):
+        dialog.organisation.setText("Aeroklub Říčany (invented)")
+        return True
+
+    window.ask_style = answer
+    window.act_edit_style.trigger()
+    assert 'organisation = "Aeroklub Říčany (invented)"' in (fleet / "fleet.style.toml").read_text(encoding="utf-8")
+    settle(qtbot, window)
+    assert "Aeroklub" in PdfReader(io.BytesIO(window.preview.pdf_bytes())).pages[0].extract_text()
 
 
 def test_new_profile_from_template_then_save_as(qtbot, window, fleet):
-    window.new_profile("glider")
+    window.act_new["glider"].trigger()
     assert window.doc.path is None and window.doc.loaded.profile.aircraft.category == "glider"
     assert "new profile" in window.windowTitle()
+    assert window.fleet.tree.currentItem() is None  # the new profile is none of the fleet's aircraft
+    placeholders = [p for p in window.doc.loaded.warnings if "placeholder" in p.message]
+    assert placeholders and window.editor.all_clear.isHidden()
     window.ask_save_path = lambda *_: fleet / "new_glider.toml"
-    assert window.save()
-    assert (fleet / "new_glider.toml").is_file()
+    window.act_save.trigger()
+    assert (fleet / "new_glider.toml").is_file() and not window.doc.modified
     assert "NEW-GL" in [r[1] for r in window.fleet.rows()]
+
+
+def test_an_empty_folder_says_what_to_do_and_closes_the_other_fleets_aircraft(qtbot, window, tmp_path):
+    empty = tmp_path / "empty"
+    empty.mkdir()
+    window.ask_folder = lambda *_: empty
+    window.act_open_folder.trigger()
+    assert window.fleet.hint.isVisible() and "New profile from template" in window.fleet.hint.text()
+    assert window.doc is None and window.preview.page_count() == 0
+    for action in (window.act_export, window.act_print, window.act_compare_printed):
+        action.trigger()
+    assert [title for title, _ in window.problems_seen] == ["No card"] * 3
+
+
+def test_settings_keep_absolute_paths(qtbot, window, fleet, settings, monkeypatch):
+    monkeypatch.chdir(fleet.parent)
+    window.open_profile(Path(fleet.name) / "demo_glider.toml")
+    assert window.recent()[0] == str(fleet / "demo_glider.toml")
+    assert Path(settings.value("last_folder")).is_absolute()
+
+
+def test_every_menu_item_answers_without_an_exception(qtbot, window, monkeypatch):
+    seen = []
+    for name in ("information", "warning", "question"):
+        monkeypatch.setattr(QMessageBox, name, staticmethod(lambda *a, **k: seen.append(a[1])))
+    window.ask_save_path = window.ask_open_path = window.ask_folder = lambda *_: None  # every file dialog cancelled
+    window.ask_style = lambda dialog: False
+    monkeypatch.setattr("kneeboard.app.printing.print_with_dialog", lambda *a: False)
+    actions = [a for menu in window.menuBar().findChildren(QMenu) for a in menu.actions()
+               if a.text() and not a.isSeparator() and a.menu() is None and a is not window.act_quit]
+    assert len(actions) >= 20
+    for action in actions:
+        action.trigger()
+        qtbot.wait(1)
+    assert window.isVisible() and window.doc is not None
+    window.close()
 
 
 def test_recent_files_and_drop(qtbot, window, fleet, settings):
