@@ -18,7 +18,7 @@ SAMPLES = Path(__file__).resolve().parents[1] / "sample_aircraft"
 POWERED = ("demo_trainer", "demo_tourer", "demo_retractable", "demo_microlight")
 SHEET = "letter"
 MEMORY_TARGET_MB = 300
-FLOOR_IS = "a bare reportlab process drawing as many Letter sheets with the same marks (one group's sheets in turn)"
+FLOOR_IS = "a bare reportlab process drawing as many Letter sheets, same marks (the first cards' sheets in turn)"
 
 
 def generate(folder: Path, count: int) -> list[Path]:
@@ -49,15 +49,19 @@ def sheets_written(stdout: str) -> int:
 
 
 def group_ink(paths: list[Path]) -> list[dict]:
-    """The sheets of the first group of cards that fills one sheet: fronts, then their backs."""
+    """The sheets of the fleet's first cards, one of each sample (the fleet repeats them in turn), imposed as the
+    export imposes them: the floor draws these sheets in turn, so its ink per sheet is the fleet's."""
     from kneeboard.card.sheets import grid_for, impose
     from kneeboard.pipeline import Styles, make_card, prepare_file
 
     styles = Styles()
-    cards = [make_card(prepare_file(path, styles), made_on=MADE_ON).pages for path in paths[:8]]
-    first = cards[0][0]
+    first = make_card(prepare_file(paths[0], styles), made_on=MADE_ON).pages[0]
     per_sheet = grid_for(first.width, first.height, SHEET).per_sheet
-    return ink.ink_of(impose(cards[:per_sheet], SHEET))
+    cards = [make_card(prepare_file(path, styles), made_on=MADE_ON).pages for path in paths[:len(POWERED) * per_sheet]]
+    sheets = []
+    for start in range(0, len(cards), per_sheet):
+        sheets += impose(cards[start:start + per_sheet], SHEET)
+    return ink.ink_of(sheets)
 
 
 def run(smoke: bool = False, env: dict | None = None, work: Path | None = None) -> dict:

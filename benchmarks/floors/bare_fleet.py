@@ -2,7 +2,7 @@
 
     python -m benchmarks.floors.bare_fleet INK.json PAGES OUT.pdf
 
-INK.json holds {"fonts": {name: file}, "pages": [...]} (see benchmarks.ink): the sheets of one group of cards,
+INK.json holds {"fonts": {name: file}, "pages": [...]} (see benchmarks.ink): the sheets of the fleet's first cards,
 drawn in turn until PAGES pages are on paper, so the file has as many pages as the fleet's, with as much ink.
 """
 
