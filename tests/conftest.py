@@ -131,4 +131,8 @@ def window(qtbot, fleet, settings, tmp_path):
     w.open_profile(fleet / "demo_trainer.toml")
     qtbot.wait(w.timer.interval() + 20)
     assert w.preview.wait_idle(10_000)
-    return w
+    yield w
+    # no render or fleet check may still run while the window and its documents are taken down
+    w.timer.stop()
+    w.fleet.check_all()
+    w.preview.wait_idle(10_000)

@@ -135,7 +135,10 @@ class CardActions:
         pdf = self._card_out("printed")
         if pdf is None:
             return False
-        done = print_with_dialog(self, pdf, self.windowTitle())
+        from kneeboard.export import safe_name
+
+        # the document's name, which print-to-file proposes as the file name: the registration, as exports name it
+        done = print_with_dialog(self, pdf, f"{safe_name(self.doc.loaded.table.registration)}_card")
         if done:
             self._printed(pdf, "the printer")
         return done

@@ -4,7 +4,7 @@ Widgets here only display and edit: values go into the document exactly as typed
 reads them into a profile, and the problems it finds come back to the fields that caused them.
 """
 
-from PySide6.QtCore import Signal
+from PySide6.QtCore import Qt, Signal
 from PySide6.QtWidgets import (
     QCheckBox,
     QFormLayout,
@@ -14,6 +14,7 @@ from PySide6.QtWidgets import (
     QListWidget,
     QPushButton,
     QScrollArea,
+    QStackedWidget,
     QTabWidget,
     QVBoxLayout,
     QWidget,
@@ -28,6 +29,7 @@ from kneeboard.app.items import ItemsField
 from kneeboard.problems import Problem
 
 CONFIG = "configuration"
+PROBLEMS_HEIGHT = 96  #: [px] the problems list: four lines, then it scrolls
 DEFAULT = "(default)"
 
 
@@ -47,14 +49,18 @@ class ProfileEditor(QScrollArea):
         self.kinds: dict[str, units.Kind] = {}
         self.keys: dict[str, tuple] = {}
         self.problem_list = QListWidget()
-        self.problem_list.setMaximumHeight(110)
         self.all_clear = QLabel("No input problems found.")
         self.all_clear.setStyleSheet("color: #1B5E20; font-weight: bold;")
         self.problem_list.itemActivated.connect(lambda item: self.focus_problem(item.data(256)))
+        self.all_clear.setAlignment(Qt.AlignmentFlag.AlignTop | Qt.AlignmentFlag.AlignLeft)
         problems = QGroupBox("Problems")
         problems_box = QVBoxLayout(problems)
-        problems_box.addWidget(self.all_clear)
-        problems_box.addWidget(self.problem_list)
+        # one height whatever it shows, so the form below never jumps when a problem appears or goes
+        self.problem_pages = QStackedWidget()
+        self.problem_pages.addWidget(self.all_clear)
+        self.problem_pages.addWidget(self.problem_list)
+        self.problem_pages.setFixedHeight(PROBLEMS_HEIGHT)
+        problems_box.addWidget(self.problem_pages)
         self.problems_box = problems
         self.box.addWidget(problems)
         self._aircraft()
@@ -348,9 +354,7 @@ class ProfileEditor(QScrollArea):
         for p in errors + warnings:
             self.problem_list.addItem(f"{p.severity}: {p.path}: {p.message}")
             self.problem_list.item(self.problem_list.count() - 1).setData(256, p.path)
-        self.problem_list.setVisible(bool(problems))
-        self.all_clear.setVisible(not problems)
-        self.problem_list.setFixedHeight(min(110, 8 + 20 * max(len(problems), 1)))
+        self.problem_pages.setCurrentWidget(self.problem_list if problems else self.all_clear)
         self.problemsShown.emit(len(errors), len(warnings))
 
     def field_for(self, path: str) -> Field | None:

@@ -369,6 +369,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             self.settings.setValue("window/geometry", self.saveGeometry())
             self._forget_autosave()
             self.autosave_timer.stop()
+            self.timer.stop()
             event.accept()
         else:
             event.ignore()

@@ -373,3 +373,12 @@ def test_the_caution_is_always_on_screen(window):
     assert window.caution.isVisible()
     assert "flight manual and local regulations govern" in window.caution.text()
     assert "coordinated, level flight at the stated weight" in window.caution.text()
+
+
+def test_the_form_stays_put_when_a_problem_appears(qtbot, window):
+    field = window.editor.fields["aircraft.registration"]
+    before = field.mapTo(window.editor.widget(), field.rect().topLeft()).y()
+    type_into(qtbot, window.editor.fields["weight.total"], "1450 kt")
+    qtbot.wait(20)
+    assert window.editor.problem_list.isVisible() and window.editor.all_clear.isHidden()
+    assert field.mapTo(window.editor.widget(), field.rect().topLeft()).y() == before
