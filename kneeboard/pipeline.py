@@ -24,7 +24,7 @@ from datetime import date
 from pathlib import Path
 
 from kneeboard import fields, report
-from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organisation_problems
+from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organization_problems
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
 from kneeboard.problems import WARNING, Problem
@@ -82,7 +82,7 @@ class Styles:
             style, problems = load_style(key)
             if style is not None and (self.overrides.size is not None or self.overrides.landscape is not None):
                 style = self.overrides.styled(style)
-                too_wide = organisation_problems(style)  # the organisation must fit the card this run makes
+                too_wide = organization_problems(style)  # the organization must fit the card this run makes
                 problems = list(problems) + [p.in_file(str(key or "")) for p in too_wide]
                 style = None if too_wide else style
             self._loaded[key] = (style, tuple(problems))

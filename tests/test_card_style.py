@@ -55,7 +55,7 @@ def test_png_and_svg_logos_are_printed(tmp_path):
     (tmp_path / "logo.png").write_bytes(PNG)
     (tmp_path / "logo.svg").write_text(SVG)
     for name in ("logo.png", "logo.svg"):
-        style, problems = load_style(write(tmp_path, f'logo = "{name}"\norganisation = "Demo Flying Club"\n'))
+        style, problems = load_style(write(tmp_path, f'logo = "{name}"\norganization = "Demo Flying Club"\n'))
         assert problems == [], problems
         c = card_of("demo_microlight", style)
         images = [op for op in c.pages[0].ops if isinstance(op, Image)]
@@ -73,3 +73,16 @@ def test_style_overrides_banks_and_units(tmp_path):
 def test_unknown_key_warns(tmp_path):
     style, problems = load_style(write(tmp_path, 'colour_scheme = "night"\n'))
     assert style is not None and [p.severity for p in problems] == ["warning"]
+
+
+def test_the_older_spelling_of_organization_is_read_with_a_warning(tmp_path):
+    """One spelling (American, as the FAA writes) in keys; a file written with the other loses nothing."""
+    path = tmp_path / "old.style.toml"
+    path.write_text('style = 1\norganisation = "Aeroklub Demo (invented)"\n', encoding="utf-8")
+    style, problems = load_style(path)
+    assert style is not None and style.organization == "Aeroklub Demo (invented)"
+    (warning,) = problems
+    assert warning.path == "organisation" and not warning.is_error and "write organization" in warning.message
+    path.write_text('style = 1\norganisation = "Old"\norganization = "New"\n', encoding="utf-8")
+    style, problems = load_style(path)
+    assert style.organization == "New" and [p.path for p in problems] == ["organisation"]

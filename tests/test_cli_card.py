@@ -130,7 +130,7 @@ def test_folder_uses_its_fleet_style(capsys, tmp_path):
     folder = tmp_path / "fleet"
     folder.mkdir()
     (folder / "demo_microlight.toml").write_bytes((SAMPLES / "demo_microlight.toml").read_bytes())
-    (folder / "fleet.style.toml").write_text('size = "4x6"\norganisation = "Demo Flying Club"\n')
+    (folder / "fleet.style.toml").write_text('size = "4x6"\norganization = "Demo Flying Club"\n')
     out = tmp_path / "f.pdf"
     code, _, err = run(capsys, "card", folder, "-o", out)
     assert code == 0, err  # the style file is not read as a profile

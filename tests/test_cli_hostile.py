@@ -31,7 +31,7 @@ def fleet(tmp_path):
     folder.mkdir()
     for name in ("demo_trainer.toml", "demo_microlight.toml"):
         shutil.copy(SAMPLES / name, folder)
-    (folder / "fleet.style.toml").write_text('organisation = "Demo Flying Club"\n')
+    (folder / "fleet.style.toml").write_text('organization = "Demo Flying Club"\n')
     return folder
 
 

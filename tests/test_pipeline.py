@@ -21,7 +21,7 @@ from kneeboard.cli import main
 from kneeboard.compare import compare
 from kneeboard.schema import KNOWN_KEYS
 
-STYLE = 'speed_unit = "km/h"\nbank_angles = [0, 20, 40]\norganisation = "Demo Flying Club"\n'
+STYLE = 'speed_unit = "km/h"\nbank_angles = [0, 20, 40]\norganization = "Demo Flying Club"\n'
 
 
 @pytest.fixture

@@ -15,7 +15,7 @@ from hang_guard import promptly
 
 from kneeboard.card.logo import LogoProblem, logo_png
 from kneeboard.card.ops import Image
-from kneeboard.card.style import CardStyle, load_style, organisation_problems
+from kneeboard.card.style import CardStyle, load_style, organization_problems
 from kneeboard.card.svgcheck import MAX_DRAWN
 
 SVG_NS = 'xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink"'
@@ -111,49 +111,49 @@ def test_unknown_keys_with_controls_are_shown_escaped(tmp_path):
     assert "\x1b" not in problems[0].path
 
 
-# --- the organisation --------------------------------------------------------------------------------
+# --- the organization --------------------------------------------------------------------------------
 
 
 @pytest.mark.parametrize("value, says", [
     ("Demo\\u0007Club", "U+0007"),  # a bell
     ("Demo \\u202eCLUB", "U+202E"),  # right-to-left override: the card would show other text than the file
     ("Demo\\u200bClub", "U+200B"),  # zero-width space
-    ("Demo\\nClub", "U+000A"),  # the organisation is one line
+    ("Demo\\nClub", "U+000A"),  # the organization is one line
     ("x" * 61, "61 characters"),
     ("W" * 60, "does not fit"),
 ])
-def test_the_organisation_follows_the_profile_text_rules(tmp_path, value, says):
-    style, problems = load(tmp_path, f'organisation = "{value}"\n')
+def test_the_organization_follows_the_profile_text_rules(tmp_path, value, says):
+    style, problems = load(tmp_path, f'organization = "{value}"\n')
     assert style is None
-    assert [p.path for p in problems] == ["organisation"] and says in problems[0].message
+    assert [p.path for p in problems] == ["organization"] and says in problems[0].message
 
 
 @pytest.mark.parametrize("size, binding, logo", [
     ("4x6", "none", True), ("4x6", "left", False), ("5x8", "left", True), ("half-letter", "top", True),
     ("a5", "none", True),
 ])
-def test_every_organisation_the_loader_accepts_fits_its_card(tmp_path, sample_paths, size, binding, logo):
+def test_every_organization_the_loader_accepts_fits_its_card(tmp_path, sample_paths, size, binding, logo):
     # the longest name of short words the loader accepts for a card prints on every sample aircraft
     # (their registrations are no wider than the ten characters the room is measured beside)
     from kneeboard.card import fonts
     from kneeboard.card.style import REGISTRATION_SAMPLE
 
     (tmp_path / "logo.png").write_bytes(png(40, 20))
-    # only the header is at stake here (a glider's circling table never fits a bound 4x6 card, organisation or not)
+    # only the header is at stake here (a glider's circling table never fits a bound 4x6 card, organization or not)
     card_keys = (f'size = "{size}"\nbinding = "{binding}"\nfront = ["header", "margin-table"]\n'
                  + ('logo = "logo.png"\n' if logo else ""))
     name = ""
     while True:
         longer = (name + " Mmmm").strip()
-        style, problems = load(tmp_path, f'organisation = "{longer}"\n' + card_keys)
+        style, problems = load(tmp_path, f'organization = "{longer}"\n' + card_keys)
         if style is None:
             # the room runs out, or on the widest cards the 60-character limit comes first
-            assert [p.path for p in problems] == ["organisation"]
+            assert [p.path for p in problems] == ["organization"]
             assert "does not fit" in problems[0].message or "characters long" in problems[0].message
             break
         name = longer
     assert len(name) >= 9  # at least "Mmmm Mmmm" on every card
-    style, problems = load(tmp_path, f'organisation = "{name}"\n' + card_keys)
+    style, problems = load(tmp_path, f'organization = "{name}"\n' + card_keys)
     assert problems == []
     sample_width = fonts.width(REGISTRATION_SAMPLE, fonts.BOLD, 10)
     for path in sample_paths:
@@ -164,14 +164,14 @@ def test_every_organisation_the_loader_accepts_fits_its_card(tmp_path, sample_pa
         assert all(word in printed for word in name.split())
 
 
-def test_an_organisation_is_measured_against_the_style_card(tmp_path):
+def test_an_organization_is_measured_against_the_style_card(tmp_path):
     name = "Mmmm Mmmm Mmmm Mmmm Mmmm Mmmm Mmmm Mmmm Mmmm Mmmm Mmmm"
-    style, problems = load(tmp_path, f'organisation = "{name}"\nsize = "a5"\n')
-    assert problems == [] and style.organisation == name
-    (too_small,) = organisation_problems(style.with_changes(size="4x6", binding="left"))
-    assert too_small.path == "organisation" and "4x6 (bound left)" in too_small.message
-    style, problems = load(tmp_path, f'organisation = "{name}"\nsize = "4x6"\nbinding = "left"\n')
-    assert style is None and [p.path for p in problems] == ["organisation"]
+    style, problems = load(tmp_path, f'organization = "{name}"\nsize = "a5"\n')
+    assert problems == [] and style.organization == name
+    (too_small,) = organization_problems(style.with_changes(size="4x6", binding="left"))
+    assert too_small.path == "organization" and "4x6 (bound left)" in too_small.message
+    style, problems = load(tmp_path, f'organization = "{name}"\nsize = "4x6"\nbinding = "left"\n')
+    assert style is None and [p.path for p in problems] == ["organization"]
 
 
 def test_a_nul_in_the_logo_path_is_named(tmp_path):

@@ -118,6 +118,8 @@ class FleetPanel(QWidget):
             return
         prepared = self._prepare(read_source(Path(path)))
         style = self.style()
+        if prepared.fingerprint:  # what a printed card of this aircraft carries beside its date
+            item.setToolTip(1, f"{item.toolTip(1)}\nfingerprint {prepared.fingerprint}")
         if prepared.errors:
             item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxCritical))
             item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in prepared.errors[:8]))

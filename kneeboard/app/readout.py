@@ -23,11 +23,13 @@ class Readout(QWidget):
         self.label.setText(f"<i>{why}</i>")
         self.figures: dict[str, str] = {}
 
-    def show_table(self, t: CardTable) -> None:
+    def show_table(self, t: CardTable, fingerprint: str = "") -> None:
         """The figures a pilot checks first, in the card's words (`kneeboard.terms`), as the card prints them."""
         su = t.speed_unit
         figures = {terms.CARD_WEIGHT: f"{t.weight.text} {t.weight_unit}",
                    terms.LIMIT_BANK: f"{t.limit_bank.text}°"}
+        if fingerprint:
+            figures[terms.FINGERPRINT] = fingerprint
         if t.maneuvering_speed is not None:
             figures["VA"] = f"{t.maneuvering_speed.text} {su}"
         warning = (f"<p style='color:#A11D1D'><b>Above the maximum weight of {t.max_weight.text} "
@@ -46,10 +48,12 @@ class Readout(QWidget):
         head = "".join(f"<th align={'left' if i == 0 else 'right'}>{h}</th>" for i, h in enumerate(
             (f"{su} IAS", terms.STALL, terms.PATTERN, f"{terms.BUFFER_BANK} ({t.buffer.text} {su})",
              terms.ZERO_MARGIN_BANK)))
+        stamp = (f"<p style='color:#555'>{terms.FINGERPRINT} {fingerprint}: the same on the card printed from "
+                 "this profile as it stands</p>" if fingerprint else "")
         self.label.setText(
             f"{warning}<p>{terms.CARD_WEIGHT.capitalize()} <b>{t.weight.text} {t.weight_unit}</b>{va} · "
             f"{terms.LIMIT_LOAD} {t.limit_load_factor.text} g, {terms.LIMIT_BANK} <b>{t.limit_bank.text}°</b></p>"
-            f"<table cellspacing=0 cellpadding=3><tr>{head}</tr>{''.join(rows)}</table>"
+            f"<table cellspacing=0 cellpadding=3><tr>{head}</tr>{''.join(rows)}</table>{stamp}"
         )
         self.figures = figures
 

@@ -23,9 +23,13 @@ from PySide6.QtWidgets import (
 
 from kneeboard.card.blocks import registry
 from kneeboard.card.geometry import CARD_SIZES
-from kneeboard.card.style import BINDINGS, CardStyle, load_style
+from kneeboard.card.style import BINDINGS, LEGACY_ORGANIZATION, CardStyle, load_style
 from kneeboard.fileio import read_text, write_atomic
 from kneeboard.shipped import default_style_path
+
+#: What the card sizes are, as a person buying card stock reads them.
+SIZE_LABELS = {"a5": "A5 (148 x 210 mm)", "half-letter": "Half letter (5.5 x 8.5 in)", "5x8": "5 x 8 in",
+               "4x6": "4 x 6 in"}
 
 
 class StyleDialog(QDialog):
@@ -36,7 +40,7 @@ class StyleDialog(QDialog):
         self.setWindowTitle("Card style")
         self.style_in = style
         form = QFormLayout()
-        self.organisation = QLineEdit(style.organisation)
+        self.organization = QLineEdit(style.organization)
         self.logo = QLineEdit(style.logo.name if style.logo else "")
         self.logo.setPlaceholderText("a PNG or SVG file in the fleet folder, e.g. logo.png")
         self.accent = QPushButton(style.accent)
@@ -46,7 +50,7 @@ class StyleDialog(QDialog):
         self.scale.setRange(0.7, 1.6)
         self.scale.setSingleStep(0.05)
         self.scale.setValue(style.font_scale)
-        self.size = _combo(tuple(CARD_SIZES), style.size)
+        self.size = _combo(tuple(CARD_SIZES), style.size, SIZE_LABELS)
         self.orientation = _combo(("portrait", "landscape"), "landscape" if style.landscape else "portrait")
         self.binding = _combo(BINDINGS, style.binding)
         self.blocks = QListWidget()
@@ -61,7 +65,7 @@ class StyleDialog(QDialog):
             item.setCheckState(Qt.CheckState.Checked if name in front or name in style.back
                                else Qt.CheckState.Unchecked)
             self.blocks.addItem(item)
-        form.addRow("Organisation", self.organisation)
+        form.addRow("Organization", self.organization)
         form.addRow("Logo", self.logo)
         form.addRow("Accent colour", self.accent)
         form.addRow("Type size", self.scale)
@@ -91,13 +95,13 @@ class StyleDialog(QDialog):
         front = [self.blocks.item(i).data(Qt.ItemDataRole.UserRole) for i in range(self.blocks.count())
                  if self.blocks.item(i).checkState() == Qt.CheckState.Checked]
         return {
-            "organisation": self.organisation.text(),
+            "organization": self.organization.text(),
             "logo": self.logo.text().strip(),
             "accent": self.accent.text(),
             "font_scale": round(self.scale.value(), 2),
-            "size": self.size.currentText(),
-            "orientation": self.orientation.currentText(),
-            "binding": self.binding.currentText(),
+            "size": self.size.currentData(),
+            "orientation": self.orientation.currentData(),
+            "binding": self.binding.currentData(),
             "front": [b for b in front if b not in self.style_in.back],
         }
 
@@ -107,12 +111,15 @@ class StyleDialog(QDialog):
         doc = tomlkit.parse(read_text(source))
         for key, value in self.values().items():
             doc[key] = value
+        doc.pop(LEGACY_ORGANIZATION, None)  # its value is in organization now: the file speaks one spelling
         write_atomic(path, tomlkit.dumps(doc))
         return load_style(path)
 
 
-def _combo(options, current) -> QComboBox:
+def _combo(options, current, labels: dict[str, str] | None = None) -> QComboBox:
+    """A choice of `options` (each shown by its label); `currentData()` is the option as the file writes it."""
     combo = QComboBox()
-    combo.addItems(list(options))
-    combo.setCurrentText(current)
+    for option in options:
+        combo.addItem((labels or {}).get(option, option), option)
+    combo.setCurrentIndex(max(0, combo.findData(current)))
     return combo

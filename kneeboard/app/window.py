@@ -286,7 +286,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             self.readout.show_nothing("Fix the problems marked in the editor to see the figures.")
             return
         self.preview_note.hide()
-        self.readout.show_table(prepared.table)
+        self.readout.show_table(prepared.table, prepared.fingerprint)
         mode = self.preview.mode()
         generation = self.preview.request(self.card(mode))
         self._card_request = generation if mode == "card" else 0

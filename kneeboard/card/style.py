@@ -33,13 +33,14 @@ def fleet_style_path(folder: Path) -> Path | None:
     return path if path.is_file() else None
 
 _COLOUR = re.compile(r"#[0-9A-Fa-f]{6}\Z")
-MAX_ORGANISATION = 60  #: characters
+MAX_ORGANIZATION = 60  #: characters
+LEGACY_ORGANIZATION = "organisation"  #: the key's British spelling, accepted with a warning
 MAX_LOGO_NAME = 200  #: characters of the logo's file name as written
 
 
 @dataclass(frozen=True)
 class CardStyle:
-    organisation: str = ""
+    organization: str = ""
     logo: Path | None = None  #: resolved path of a PNG or SVG inside the style's folder
     accent: str = "#1B5E8C"  #: "#RRGGBB"
     font_scale: float = 1.0
@@ -88,7 +89,16 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     def bad(key, message, expected, value=None, severity="error"):
         found.append(Problem(key, message, expected, value, severity))
 
-    known = {"style", "organisation", "logo", "accent", "font_scale", "size", "orientation", "binding", "front",
+    if LEGACY_ORGANIZATION in data:  # the British spelling of the key, read as before: nothing a file holds is lost
+        if "organization" in data:
+            bad(LEGACY_ORGANIZATION, "is given as well as organization; organization is used", "one of them",
+                data[LEGACY_ORGANIZATION], WARNING)
+        else:
+            bad(LEGACY_ORGANIZATION, "is the older spelling of this key; it is read, but write organization",
+                "organization", data[LEGACY_ORGANIZATION], WARNING)
+            data = {**data, "organization": data[LEGACY_ORGANIZATION]}
+        data = {k: v for k, v in data.items() if k != LEGACY_ORGANIZATION}
+    known = {"style", "organization", "logo", "accent", "font_scale", "size", "orientation", "binding", "front",
              "back", "bank_angles", "speed_unit", "distance_unit"}
     for key in data:
         if key not in known:
@@ -105,7 +115,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
             return default_value
         return value
 
-    organisation = _organisation(data, bad)
+    organization = _organization(data, bad)
     accent = text("accent", default.accent)
     if not _COLOUR.match(accent):
         bad("accent", "is not a colour", 'a colour as "#RRGGBB", e.g. "#1B5E8C"', accent)
@@ -139,7 +149,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
         bad("distance_unit", "is not accepted", " | ".join(units.DISTANCE_UNITS), distance_unit)
         distance_unit = None
     style = CardStyle(
-        organisation=organisation,
+        organization=organization,
         logo=logo,
         accent=accent,
         font_scale=float(scale),
@@ -153,9 +163,9 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
         distance_unit=distance_unit,
         logo_png=logo_bytes,
     )
-    too_wide = organisation_problems(style)
+    too_wide = organization_problems(style)
     found.extend(too_wide)
-    return (style.with_changes(organisation="") if too_wide else style), found
+    return (style.with_changes(organization="") if too_wide else style), found
 
 
 def _blocks(data, key, default, bad):
@@ -177,29 +187,29 @@ def _blocks(data, key, default, bad):
     return tuple(dict.fromkeys(v for v in value if v in known))
 
 
-def _organisation(data, bad) -> str:
-    """The organisation's name, held to the profile's text rules (its width is checked once the card is known)."""
-    value = data.get("organisation", "")
-    expected = f"text on one line of up to {MAX_ORGANISATION} characters"
+def _organization(data, bad) -> str:
+    """The organization's name, held to the profile's text rules (its width is checked once the card is known)."""
+    value = data.get("organization", "")
+    expected = f"text on one line of up to {MAX_ORGANIZATION} characters"
     if not isinstance(value, str):
-        bad("organisation", "must be text in quotes", expected, value)
+        bad("organization", "must be text in quotes", expected, value)
         return ""
-    if len(value) > MAX_ORGANISATION:
-        bad("organisation", f"is {len(value)} characters long", expected, value)
+    if len(value) > MAX_ORGANIZATION:
+        bad("organization", f"is {len(value)} characters long", expected, value)
         return ""
     odd = first_non_text(value)
     if odd is not None:
-        bad("organisation", f"contains the control character U+{ord(odd):04X}", "printable text on one line", value)
+        bad("organization", f"contains the control character U+{ord(odd):04X}", "printable text on one line", value)
         return ""
     return value
 
 
-#: The registration the organisation's room is measured beside: ten characters, longer than most registrations.
+#: The registration the organization's room is measured beside: ten characters, longer than most registrations.
 REGISTRATION_SAMPLE = "XX-XXXXXXX"
 
 
-def organisation_room(size: str, landscape: bool = False, binding: str = "none", logo: bool = False) -> float:
-    """Width each of the organisation's two lines may take in the header of this card [pt].
+def organization_room(size: str, landscape: bool = False, binding: str = "none", logo: bool = False) -> float:
+    """Width each of the organization's two lines may take in the header of this card [pt].
 
     Measured as the header places it, at the smallest type the layout may reach on this card:
     the content width, less the logo and the sample registration beside it.
@@ -216,22 +226,22 @@ def organisation_room(size: str, landscape: bool = False, binding: str = "none",
     return width - fonts.width(REGISTRATION_SAMPLE, fonts.BOLD, reg) - 2 * label
 
 
-def organisation_problems(style: CardStyle) -> list[Problem]:
-    """The problem of an organisation too wide for the style's card; call it again after changing the size."""
+def organization_problems(style: CardStyle) -> list[Problem]:
+    """The problem of an organization too wide for the style's card; call it again after changing the size."""
     from kneeboard.card import fonts
     from kneeboard.card.draw import MIN_TEXT
 
-    text = style.organisation
+    text = style.organization
     if not text:
         return []
-    room = organisation_room(style.size, style.landscape, style.binding, style.logo is not None)
+    room = organization_room(style.size, style.landscape, style.binding, style.logo is not None)
     lines = fonts.wrap(text, fonts.BOLD, MIN_TEXT, max(room, 1.0))
     if len(lines) <= 2 and all(fonts.width(line, fonts.BOLD, MIN_TEXT) <= room for line in lines):
         return []
     card = style.size + (" landscape" if style.landscape else "")
     card += f" (bound {style.binding})" if style.binding != "none" else ""
     beside = "registration and logo" if style.logo is not None else "registration"
-    return [Problem("organisation", f"does not fit in two lines of {max(room, 0):.0f} pt beside the {beside} "
+    return [Problem("organization", f"does not fit in two lines of {max(room, 0):.0f} pt beside the {beside} "
                     f"on a {card} card, even at the smallest type", "a shorter name, or a larger card", text)]
 
 

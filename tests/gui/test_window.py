@@ -40,13 +40,16 @@ def test_opens_on_the_fleet_with_marks(window, fleet):
 
 def test_typing_a_weight_updates_model_readout_and_preview(qtbot, window):
     before = window.readout.figures[terms.CARD_WEIGHT]
+    fingerprint = window.readout.figures[terms.FINGERPRINT]
     type_into(qtbot, window.editor.fields["weight.total"], "1450 lb")
     settle(qtbot, window)
+    # the key figures show the fingerprint the card prints, and it follows the edit
+    assert window.readout.figures[terms.FINGERPRINT] == window.doc.loaded.fingerprint != fingerprint
     assert window.doc.get(("weight", "total")) == "1450 lb"
     assert window.doc.loaded.profile.weight == pytest.approx(1450 * LB)
     assert window.readout.figures[terms.CARD_WEIGHT] == "1450 lb" != before
     shown = PdfReader(io.BytesIO(window.preview.pdf_bytes())).pages[0].extract_text()
-    assert "1450 lb" in shown
+    assert "1450 lb" in shown and f"fingerprint {window.doc.loaded.fingerprint}" in shown
     assert window.isWindowModified()
 
 
@@ -290,14 +293,19 @@ def test_the_app_and_the_command_line_print_the_same_card_with_a_fleet_style(qtb
 
 def test_edit_the_fleet_style_from_the_menu(qtbot, window, fleet):
     def answer(dialog):
-        dialog.organisation.setText("Aeroklub Říčany (invented)")
+        dialog.organization.setText("Aeroklub Říčany (invented)")
+        sizes = [dialog.size.itemText(i) for i in range(dialog.size.count())]
+        assert "5 x 8 in" in sizes and "4 x 6 in" in sizes  # sizes say inches
+        dialog.size.setCurrentIndex(dialog.size.findData("5x8"))
         return True
 
     window.ask_style = answer
     window.act_edit_style.trigger()
-    assert 'organisation = "Aeroklub Říčany (invented)"' in (fleet / "fleet.style.toml").read_text(encoding="utf-8")
+    assert 'organization = "Aeroklub Říčany (invented)"' in (fleet / "fleet.style.toml").read_text(encoding="utf-8")
     settle(qtbot, window)
+    assert 'size = "5x8"' in (fleet / "fleet.style.toml").read_text(encoding="utf-8")
     assert "Aeroklub" in PdfReader(io.BytesIO(window.preview.pdf_bytes())).pages[0].extract_text()
+    assert window.preview.page_size_points(0).width() == pytest.approx(CARD_SIZES["5x8"][0], abs=0.1)
 
 
 def test_new_profile_from_template_then_save_as(qtbot, window, fleet):

@@ -21,7 +21,7 @@ def draw(ctx: Context, width: float, _height=None):
         d.ops.append(Image(width - logo_h * 2, -logo_h, logo_h * 2, logo_h, ctx.logo_png))
         right = width - logo_h * 2 - ls
     reg_w = fonts.width(t.registration, fonts.BOLD, reg)
-    org = ctx.style.organisation
+    org = ctx.style.organization
     if org:
         org_lines = fit_lines("header", org, fonts.BOLD, ls, max(right - reg_w - ls * 2, 1), 2)
         for k, line in enumerate(org_lines):
