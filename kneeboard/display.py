@@ -39,7 +39,7 @@ XCB_LIBRARIES = {
 }
 LIBRARY_FOLDERS = ("/usr/lib/x86_64-linux-gnu", "/usr/lib/aarch64-linux-gnu", "/lib/x86_64-linux-gnu",
                    "/lib/aarch64-linux-gnu", "/usr/lib64", "/usr/lib", "/lib64", "/lib", "/usr/local/lib")
-HEADLESS = "the commands check, table and card work without one (kneeboard --help)"
+HEADLESS = "the commands check, table, card and compare work without one (kneeboard --help)"
 
 
 def missing_packages(folders=LIBRARY_FOLDERS) -> list[str]:

@@ -11,6 +11,7 @@ from dataclasses import dataclass, replace
 CATEGORIES = ("normal", "utility", "acrobatic", "glider")
 SPEED_BASES = ("IAS", "CAS")
 DEFAULT_BANKS_DEG = (0.0, 15.0, 30.0, 45.0, 60.0)
+#: The pattern speed as a factor of the stall speed: 1.4 is common practice; FAA-H-8083-3 gives about 1.3 VSO on final.
 DEFAULT_PATTERN_FACTOR = 1.4
 #: Heading changes of a turn back after an engine failure [deg]: regaining the runway needs more than 180
 #: (FAA-H-8083-3, engine failure after take-off); 270 is the usual figure for a turn back to the runway's line

@@ -7,7 +7,7 @@ import sys
 def test_aero_core_imports_no_qt_pint_or_reportlab():
     code = (
         "import sys, kneeboard.aero.turns, kneeboard.aero.atmosphere, kneeboard.aero.airspeed, "
-        "kneeboard.aero.glider, kneeboard.aero.limits\n"
+        "kneeboard.aero.glider, kneeboard.aero.limits, kneeboard.aero.glide\n"
         "bad = [m for m in sys.modules if m.split('.')[0] in ('PySide6', 'pint', 'reportlab', 'tomlkit')]\n"
         "print(bad); sys.exit(1 if bad else 0)"
     )

@@ -23,7 +23,7 @@ def draw(ctx: Context, width: float, _height=None):
 
     y = heading(d, width, 0.0, f"CIRCLING AT MINIMUM SINK, {weight_text(t)}",
                 f"straight flight: {g.min_sink_speed.text} {su}, sink {g.min_sink_rate.text} "
-                f"{sink}; turn-back loss is the height lost in a 180° turn",
+                f"{sink}; 180° loss is the height lost in a 180° turn",
                 (tag(terms.label(straight, terms.SPEED), g.min_sink_speed, su),
                  tag(terms.label(straight, terms.SINK), g.min_sink_rate, sink, HIGHER_IS_WORSE)))
     names = ["bank", f"{su} IAS", f"sink {sink}", f"radius {du}", "circle s", f"180° loss {du}"]
