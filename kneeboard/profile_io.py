@@ -16,7 +16,6 @@ import tomlkit
 from kneeboard.fileio import FileProblem, read_text, write_atomic
 from kneeboard.problems import Problem
 from kneeboard.profile import Profile
-from kneeboard.schema import SCHEMA_VERSION, profile_from_data
 
 PROFILE_SUFFIX = ".toml"
 STYLE_SUFFIX = ".style.toml"  #: card styles live beside profiles but are not profiles
@@ -143,6 +142,8 @@ def profile_from_plain(data: dict, path: Path | None = None) -> ProfileFile:
 def _validated(source: Source) -> ProfileFile:
     if source.data is None:
         return ProfileFile(source.path, None, source.problems, "")
+    from kneeboard.schema import profile_from_data  # the reader loads the units library: only when validating
+
     profile, problems = profile_from_data(source.data)
     return ProfileFile(source.path, profile, tuple(p.in_file(str(source.path or "")) for p in problems),
                        source.fingerprint)
@@ -172,6 +173,8 @@ def migrate_text(text: str) -> tuple[str, int | None]:
     while at < len(lines) and lines[at].lstrip().startswith("#"):
         at += 1
     gap = [] if at < len(lines) and not lines[at].strip() else ["\n"]
+    from kneeboard.schema import SCHEMA_VERSION
+
     return "".join(lines[:at] + [f"schema = {SCHEMA_VERSION}\n"] + gap + lines[at:]), FORMAT_0
 
 

@@ -22,3 +22,27 @@ def test_command_line_table_does_not_load_qt():
         "sys.exit(1 if bad else 0)"
     )
     assert subprocess.run([sys.executable, "-c", code]).returncode == 0
+
+
+def test_the_first_frame_needs_neither_units_nor_numpy_nor_reportlab():
+    """Start-up: the window and the fleet's list are on screen before the heavy libraries load (they come with
+    the first profile's figures, one event-loop turn later)."""
+    code = (
+        "import os, sys, tempfile; os.environ['QT_QPA_PLATFORM'] = 'offscreen'\n"
+        "from pathlib import Path\n"
+        "from PySide6.QtCore import QSettings\n"
+        "from PySide6.QtWidgets import QApplication\n"
+        "app = QApplication([])\n"
+        "from kneeboard.app.window import MainWindow\n"
+        "from kneeboard.app.dialogs import show_caution_once\n"
+        "tmp = tempfile.mkdtemp()\n"
+        "w = MainWindow(QSettings(tmp + '/s.ini', QSettings.Format.IniFormat), Path(tmp) / 'r')\n"
+        "w.show(); w.show_fleet(Path(sys.argv[1])); app.processEvents()\n"
+        "assert len(w.fleet.rows()) == 5, w.fleet.rows()\n"
+        "bad = sorted({m.split('.')[0] for m in sys.modules} & {'pint', 'numpy', 'reportlab'})\n"
+        "print(bad); sys.exit(1 if bad else 0)"
+    )
+    from conftest import SAMPLES
+
+    proc = subprocess.run([sys.executable, "-c", code, str(SAMPLES)], capture_output=True, text=True)
+    assert proc.returncode == 0, proc.stdout + proc.stderr

@@ -7,15 +7,22 @@ window module holds the editing and the files, this one the card's ways out. Eve
 
 from pathlib import Path
 
-from kneeboard import report
-from kneeboard.card import LayoutError
-from kneeboard.card.style import load_style
 from kneeboard.fileio import FileProblem, write_atomic
-from kneeboard.pipeline import card_pdf
 from kneeboard.problems import printable
 
 
+class _LayoutError:
+    """`except self.LayoutError` without importing the layout (and reportlab) before the first card is made."""
+
+    def __get__(self, _obj, _owner=None):
+        from kneeboard.card.layout import LayoutError
+
+        return LayoutError
+
+
 class CardActions:
+    LayoutError = _LayoutError()  #: the layout's error, loaded with the layout
+
     # --- the card as it prints ---------------------------------------------------------------
     def _ready(self) -> bool:
         if self.doc is None:
@@ -34,12 +41,14 @@ class CardActions:
         if (self._card_request and preview.shown_generation == self._card_request and not preview.error_text()
                 and preview.pdf_bytes() is not None):
             return preview.pdf_bytes()
+        from kneeboard.pipeline import card_pdf
+
         return card_pdf(self.session.card(self.doc.loaded))
 
     def _card_out(self, what: str) -> bytes | None:
         try:
             return self.current_pdf()
-        except LayoutError as exc:
+        except self.LayoutError as exc:
             self.show_problems(f"The card cannot be {what}", str(exc))
             return None
 
@@ -96,6 +105,8 @@ class CardActions:
             return None
         try:
             self._refuse_inputs(path)
+            from kneeboard import report
+
             write_atomic(path, report.to_csv(table))
         except FileProblem as exc:
             self.show_problems("The table was not exported", f"{exc}\nNothing was written.")
@@ -153,7 +164,7 @@ class CardActions:
             return None
         try:
             return compare(self.session.card(saved), self.session.card(now))
-        except LayoutError:
+        except self.LayoutError:
             return None
 
     def compare_with_saved(self):
@@ -187,7 +198,7 @@ class CardActions:
                 return None
         try:
             changes = self.session.changes_since_printed(printed, self.doc.loaded)
-        except LayoutError as exc:
+        except self.LayoutError as exc:
             self.show_problems("Nothing to compare", str(exc))
             return None
         made = f" on {printed.made_on}" if printed.made_on else ""
@@ -225,6 +236,8 @@ class CardActions:
         if target is None:
             self.show_problems("No fleet", "Open a folder of profiles first: its style is saved beside them.")
             return None
+        from kneeboard.card.style import load_style
+
         style, problems = self.session.style_for(self.doc.path if self.doc is not None else None)
         if style is None:
             style, _ = load_style(None)
@@ -250,6 +263,8 @@ class CardActions:
         path = self.ask_open_path("Card style", str(self._folder()), "Card styles (*.style.toml)")
         if path is None:
             return None
+        from kneeboard.card.style import load_style
+
         style, problems = load_style(Path(path))
         if style is None:
             self.show_problems("The style has problems", "\n".join(str(p) for p in problems))

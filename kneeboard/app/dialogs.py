@@ -4,9 +4,12 @@ Thin widgets: every figure, judgement and file comes from the core (`kneeboard.c
 `kneeboard.problems`, `kneeboard.export`); these only show it. Nothing here rounds or computes.
 """
 
+from __future__ import annotations
+
 from collections.abc import Callable
 from html import escape
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from PySide6.QtCore import QSettings, Qt
 from PySide6.QtGui import QFont, QGuiApplication
@@ -26,11 +29,13 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard.compare import Change
-from kneeboard.export import Export, Failure, export_cards
 from kneeboard.fileio import FileProblem
-from kneeboard.pipeline import Styles
 from kneeboard.problems import Problem
+
+if TYPE_CHECKING:  # the card machinery loads with the first card, not with the window
+    from kneeboard.compare import Change
+    from kneeboard.export import Export
+    from kneeboard.pipeline import Styles
 from kneeboard.texts import CAUTION, FORMULAS_HTML
 
 NOT_PRINTED = "not printed"  #: shown where a figure was not printed before, or no longer is
@@ -226,6 +231,8 @@ def export_fleet(parent: QWidget | None, paths: list[Path], styles: Styles, out:
     the one PDF is not written. `progress_factory(parent, total)` replaces the QProgressDialog (it needs
     setValue, setLabelText, wasCanceled and close).
     """
+    from kneeboard.export import Export, Failure, export_cards
+
     if out is None and each is None:
         raise ValueError("export_fleet needs out, each, or both")
     dialog = (progress_factory or _progress_dialog)(parent, len(paths))

@@ -17,6 +17,7 @@ from PySide6.QtWidgets import (
 from kneeboard.profile_io import profile_files, read_source
 
 PATH_ROLE = Qt.ItemDataRole.UserRole
+CHECK_DELAY_MS = 50  #: [ms] from listing a folder to checking its first profile, so the list is drawn first
 COLUMNS = ("", "Registration", "Model")
 EMPTY_HINT = ("No profiles (*.toml) in this folder. File › New profile from template makes one; "
               "save it here and it appears in this list.")
@@ -93,12 +94,12 @@ class FleetPanel(QWidget):
         self.tree.resizeColumnToContents(1)
         self.hint.setVisible(not self._unchecked)
         self.tree.setVisible(bool(self._unchecked))
-        self._check_timer.start()
+        self._check_timer.start(CHECK_DELAY_MS)  # the list paints first; then one profile per turn
 
     def _check_next(self) -> None:
         if self._unchecked:
             self._mark(self._unchecked.pop(0))
-            self._check_timer.start()
+            self._check_timer.start(0)
         else:
             self.checked.emit()
 

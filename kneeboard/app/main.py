@@ -25,12 +25,22 @@ def run(target: str | None = None) -> int:
         return 2
     start = Path(target) if target else (Path(last) if last and Path(last).is_dir() else sample_fleet())
     window.show()
-    window.open_path(start)
-    if os.environ.get("KNEEBOARD_STARTUP_PROBE"):  # the benchmark: report when the window is up, then quit
-        QTimer.singleShot(0, lambda: _probe_and_quit(app))
-        return app.exec()
-    show_caution_once(window, window.settings)
-    window.offer_recovery()
+
+    # The window is on screen before the units library, numpy and the card machinery load; the fleet's list
+    # follows on the next turn of the event loop, then the first profile and its card, then each profile's mark.
+    def fleet_shown() -> None:
+        window.show_fleet(start)
+        if os.environ.get("KNEEBOARD_STARTUP_PROBE"):  # the benchmark: report when the fleet is shown, then quit
+            QTimer.singleShot(0, lambda: _probe_and_quit(app))
+            return
+        QTimer.singleShot(0, first_profile)
+
+    def first_profile() -> None:
+        window.open_path(start)
+        show_caution_once(window, window.settings)
+        window.offer_recovery()
+
+    QTimer.singleShot(0, fleet_shown)
     return app.exec()
 
 

@@ -1,10 +1,14 @@
 """The key figures beside the editor: what a pilot checks first, from the same table the card prints."""
 
+from typing import TYPE_CHECKING
+
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QLabel, QVBoxLayout, QWidget
 
 from kneeboard import terms
-from kneeboard.tables import CardTable
+
+if TYPE_CHECKING:
+    from kneeboard.tables import CardTable
 
 
 class Readout(QWidget):
@@ -23,7 +27,7 @@ class Readout(QWidget):
         self.label.setText(f"<i>{why}</i>")
         self.figures: dict[str, str] = {}
 
-    def show_table(self, t: CardTable, fingerprint: str = "") -> None:
+    def show_table(self, t: "CardTable", fingerprint: str = "") -> None:
         """The figures a pilot checks first, in the card's words (`kneeboard.terms`), as the card prints them."""
         su = t.speed_unit
         figures = {terms.CARD_WEIGHT: f"{t.weight.text} {t.weight_unit}",

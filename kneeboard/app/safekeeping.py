@@ -9,7 +9,6 @@ from pathlib import Path
 
 from PySide6.QtWidgets import QMessageBox
 
-from kneeboard.app.document import ProfileDocument
 from kneeboard.app.recovery import Pending, key_for
 from kneeboard.fileio import FileProblem
 
@@ -106,6 +105,8 @@ class Safekeeping:
                 return False
         else:
             try:
+                from kneeboard.app.document import ProfileDocument
+
                 self._set_document(ProfileDocument(pending.text, None, self, session=self.session))
             except FileProblem:
                 return False

@@ -6,13 +6,16 @@ The window shows a `Session`; tests drive one without any window. Every figure t
 else the folder's `fleet.style.toml`, else the shipped default), the same validation, the same card.
 """
 
+from __future__ import annotations
+
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-from kneeboard.card.ops import Figure
-from kneeboard.card.style import FLEET_STYLE
-from kneeboard.pipeline import Prepared, Styles, make_card, prepare
-from kneeboard.profile_io import Source, source_from_plain, source_from_text
+if TYPE_CHECKING:  # the pipeline loads numpy, pint and the card package: at the first profile, not at start-up
+    from kneeboard.card.ops import Figure
+    from kneeboard.pipeline import Prepared, Styles
+    from kneeboard.profile_io import Source
 
 UNTITLED = "untitled.toml"  #: the name a new profile's style is looked up by, in the open folder
 
@@ -31,7 +34,7 @@ class Session:
     def __init__(self) -> None:
         self.folder: Path | None = None
         self.style_file: Path | None = None  #: chosen by the person; None: by the one rule
-        self.styles = Styles()
+        self._styles: Styles | None = None
         self.printed: dict[str, Printed] = {}  #: registration (case folded) -> the card last printed here
 
     # --- the fleet and its style ------------------------------------------------------------------
@@ -46,7 +49,16 @@ class Session:
 
     def reload_styles(self) -> None:
         """Forget the styles read so far (a style file was edited)."""
-        self.styles = Styles(self.style_file)
+        self._styles = None
+
+    @property
+    def styles(self) -> Styles:
+        """The style of each profile by the one rule, each style file read once until `reload_styles`."""
+        if self._styles is None:
+            from kneeboard.pipeline import Styles
+
+            self._styles = Styles(self.style_file)
+        return self._styles
 
     def style_path(self, profile_path: Path | None = None) -> Path | None:
         """The style file the open profile's card uses (None: the shipped default)."""
@@ -54,6 +66,8 @@ class Session:
 
     def fleet_style_file(self) -> Path | None:
         """Where the open folder's style is (or would be) saved."""
+        from kneeboard.card.style import FLEET_STYLE
+
         return self.folder / FLEET_STYLE if self.folder is not None else None
 
     def style_for(self, profile_path: Path | None = None):
@@ -67,18 +81,26 @@ class Session:
 
     # --- a profile through the pipeline ---------------------------------------------------------------
     def prepare_source(self, source: Source) -> Prepared:
+        from kneeboard.pipeline import prepare
+
         style, style_problems = self.style_for(source.path)
         return prepare(source, style, style_problems=style_problems)
 
     def prepare_plain(self, data: dict, path: Path | None = None) -> Prepared:
+        from kneeboard.profile_io import source_from_plain
+
         return self.prepare_source(source_from_plain(data, path))
 
     def prepare_text(self, text: str, path: Path | None = None) -> Prepared:
+        from kneeboard.profile_io import source_from_text
+
         return self.prepare_source(source_from_text(text, path))
 
     @staticmethod
     def card(prepared: Prepared, made_on: str | None = None):
         """The laid-out card (raises LayoutError when it cannot be printed legibly)."""
+        from kneeboard.pipeline import make_card
+
         return make_card(prepared, made_on)
 
     # --- what was printed -----------------------------------------------------------------------------

@@ -18,8 +18,6 @@ from PySide6.QtWidgets import (
 
 from kneeboard import shipped
 from kneeboard.app.actions import CardActions
-from kneeboard.app.document import ProfileDocument, SaveConflict
-from kneeboard.app.editor import ProfileEditor
 from kneeboard.app.fleet import FleetPanel
 from kneeboard.app.preview import CardPreview
 from kneeboard.app.readout import Readout
@@ -27,7 +25,6 @@ from kneeboard.app.recovery import AUTOSAVE_MS, Recovery
 from kneeboard.app.safekeeping import Safekeeping
 from kneeboard.app.session import Session
 from kneeboard.fileio import FileProblem
-from kneeboard.pipeline import card_pdf, fleet_pdf
 from kneeboard.texts import CAUTION, CAUTION_SHORT
 
 MAX_RECENT = 8
@@ -43,8 +40,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             recovery_dir = Path(data or Path.home() / ".kneeboard") / "recovery"
         self.recovery = Recovery(recovery_dir)
         self._autosaved: tuple[str, str] | None = None  # (recovery key, text) last copied aside
-        self.doc: ProfileDocument | None = None
-        self.editor: ProfileEditor | None = None
+        self.doc = None  #: the open profile (app.document.ProfileDocument), or None
+        self.editor = None  #: its editor (app.editor.ProfileEditor)
         self.session = Session()  #: the folder, the style, what was printed: everything but the widgets
         self._card_request = 0  #: the preview generation of the open profile's card as it prints
         self.setAcceptDrops(True)
@@ -162,11 +159,18 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         else:
             self.open_profile(path)
 
+    def show_fleet(self, path: Path) -> None:
+        """List the fleet of `path` (a folder, or a profile's folder) without reading any profile's figures:
+        what the first frame shows, before the units library and the card machinery are loaded."""
+        path = Path(path).resolve()
+        self.fleet.show_folder(path if path.is_dir() else path.parent, None if path.is_dir() else path)
+
     def open_folder(self, folder: Path) -> None:
         folder = Path(folder).resolve()
         self.session.use_folder(folder)
         self._forget_prepared()
-        self.fleet.show_folder(folder, self.doc.path if self.doc is not None else None)
+        if self.fleet.folder != folder:  # listed already when the window first showed it
+            self.fleet.show_folder(folder, self.doc.path if self.doc is not None else None)
         self.settings.setValue("last_folder", str(folder))
         rows = self.fleet.rows()
         if self.doc is not None and self.doc.path is not None and self.doc.path.parent == folder:
@@ -186,6 +190,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             return False
         if self.session.folder != path.parent:
             self.session.use_folder(path.parent)
+        from kneeboard.app.document import ProfileDocument
+
         try:
             doc = ProfileDocument.open(path, self, self.session)
         except FileProblem as exc:
@@ -206,6 +212,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
     def new_profile(self, category: str) -> None:
         if not self.maybe_save():
             return
+        from kneeboard.app.document import ProfileDocument
+
         text = shipped.template_path(category).read_text(encoding="utf-8")
         self._set_document(ProfileDocument(text, None, self, session=self.session))
         self.fleet.select(None)  # the new profile is none of the fleet's aircraft
@@ -213,7 +221,9 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             f"A new {category} profile: every figure in it is the template's placeholder until you type your "
             "aircraft's flight-manual figures (the Problems box lists them).", 12000)
 
-    def _set_document(self, doc: ProfileDocument) -> None:
+    def _set_document(self, doc) -> None:
+        from kneeboard.app.editor import ProfileEditor
+
         if self.doc is not None:
             self.doc.deleteLater()
         old = self.editor
@@ -270,6 +280,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         prepared, session = self.doc.loaded, self.session
 
         def job() -> bytes:
+            from kneeboard.pipeline import card_pdf, fleet_pdf
+
             c = session.card(prepared)
             return card_pdf(c) if mode == "card" else fleet_pdf([c], mode)
 
@@ -297,6 +309,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             return True
         if self.doc.path is None:
             return self.save_as()
+        from kneeboard.app.document import SaveConflict
+
         try:
             self.doc.save()
         except SaveConflict:

@@ -4,15 +4,30 @@
 profile to a card is `kneeboard.pipeline`, which the command line and the app both call.
 """
 
-from dataclasses import dataclass
+from __future__ import annotations
 
-from kneeboard.card.layout import CardLayout, LayoutError, layout_card
-from kneeboard.card.ops import Figure, Page
-from kneeboard.card.render import pdf_bytes
-from kneeboard.card.style import CardStyle
-from kneeboard.tables import CardTable
+from dataclasses import dataclass
+from typing import TYPE_CHECKING
+
+if TYPE_CHECKING:
+    from kneeboard.card.layout import CardLayout
+    from kneeboard.card.ops import Figure, Page
+    from kneeboard.tables import CardTable
 
 __all__ = ["Card", "CardStyle", "LayoutError", "card_pdf", "fleet_pdf", "layout_card"]
+
+#: Names this package offers, each imported at first use: importing `kneeboard.card.style` or `.ops` (a check,
+#: a table, the app's first frame) must not load the layout, every block and reportlab.
+_LAZY = {"CardLayout": "layout", "LayoutError": "layout", "layout_card": "layout", "Figure": "ops", "Page": "ops",
+         "pdf_bytes": "render", "CardStyle": "style"}
+
+
+def __getattr__(name: str):
+    if name in _LAZY:
+        import importlib
+
+        return getattr(importlib.import_module(f"kneeboard.card.{_LAZY[name]}"), name)
+    raise AttributeError(f"module 'kneeboard.card' has no attribute {name!r}")
 
 
 @dataclass(frozen=True)
@@ -38,6 +53,8 @@ class Card:
 
 def card_pdf(card: Card) -> bytes:
     """The card's PDF, carrying its printed figures (`card.data`) and its fingerprint in the metadata."""
+    from kneeboard.card.render import pdf_bytes
+
     return pdf_bytes(card.pages, title=f"kneeboard card {card.registration}",
                      subject=f"{card.registration}, fingerprint {card.fingerprint}", attachments=[attachment(card)],
                      keywords=f"kneeboard card, fingerprint {card.fingerprint}")
@@ -53,6 +70,8 @@ def attachment(card: Card) -> tuple[str, bytes, str]:
 
 def fleet_pdf(cards: list[Card], sheet: str | None = None) -> bytes:
     """All cards in one PDF: one card page per PDF page, or imposed on `sheet` ("letter" | "a4")."""
+    from kneeboard.card.render import pdf_bytes
+
     attachments = [attachment(card) for card in cards]
     if sheet is None:
         pages = [page for card in cards for page in card.pages]
