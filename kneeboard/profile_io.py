@@ -7,6 +7,7 @@ exactly as typed, so a save after an edit changes only the edited value.
 
 import hashlib
 import json
+import re
 import tomllib
 from dataclasses import dataclass
 from pathlib import Path
@@ -84,12 +85,28 @@ class ProfileFile:
         return [p for p in self.problems if not p.is_error]
 
 
-def fingerprint(data: dict) -> str:
-    """Eight hex digits identifying a profile's data (not its comments or layout).
+_QUANTITY = re.compile(r"\s*([-+]?(?:\d+\.?\d*|\.\d+))\s*([^\d\s].*?)?\s*\Z", re.DOTALL)
 
-    A card shows it so a pilot can tell whether the card was printed from the current profile.
+
+def _canonical(value):
+    """The data with each number-and-unit text written one way ("1182.0 kg", " 1182 kg" -> "1182.0 kg")."""
+    if isinstance(value, dict):
+        return {k: _canonical(v) for k, v in value.items()}
+    if isinstance(value, list):
+        return [_canonical(v) for v in value]
+    if isinstance(value, str) and (match := _QUANTITY.match(value)):
+        number, unit = match.groups()
+        return f"{float(number)!r} {unit}" if unit else repr(float(number))
+    return value
+
+
+def fingerprint(data: dict) -> str:
+    """Eight hex digits identifying a profile's data (not its comments, layout, or how a number is written).
+
+    A card shows it so a pilot can tell whether the card was printed from the current profile. The same
+    figures written another way ("1182.0 kg" for "1182 kg") are the same data and make the same card.
     """
-    canonical = json.dumps(data, sort_keys=True, ensure_ascii=True, separators=(",", ":"), default=str)
+    canonical = json.dumps(_canonical(data), sort_keys=True, ensure_ascii=True, separators=(",", ":"), default=str)
     return hashlib.sha256(canonical.encode()).hexdigest()[:8].upper()
 
 

@@ -44,6 +44,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         self.editor = None  #: its editor (app.editor.ProfileEditor)
         self.session = Session()  #: the folder, the style, what was printed: everything but the widgets
         self._card_request = 0  #: the preview generation of the open profile's card as it prints
+        self._requested = None  #: what the newest preview request draws: (fingerprint, style, logo, mode, date)
         self.setAcceptDrops(True)
         # hooks a test replaces: the questions and file choices a person would answer
         self.ask_unsaved = self._ask_unsaved
@@ -250,6 +251,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             self.doc.deleteLater()
         self.doc = self.editor = None
         self.preview.clear()
+        self._requested = None
         self.readout.show_nothing("No profile open: choose one in the fleet, or make one with File › New profile.")
         self._update_title()
 
@@ -300,6 +302,15 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         self.preview_note.hide()
         self.readout.show_table(prepared.table, prepared.fingerprint)
         mode = self.preview.mode()
+        from kneeboard.pipeline import today
+
+        # the card is a function of the data (its fingerprint), the style, the sheet and the date: an edit that
+        # changes none of them ("1182.0 kg" for "1182 kg") prints the very same card, so nothing is drawn
+        style = prepared.style
+        key = (prepared.fingerprint, style, hash(style.logo_png), mode, today())
+        if key == self._requested and not self.preview.error_text():
+            return
+        self._requested = key
         generation = self.preview.request(self.card(mode))
         self._card_request = generation if mode == "card" else 0
 

@@ -390,3 +390,20 @@ def test_the_form_stays_put_when_a_problem_appears(qtbot, window):
     qtbot.wait(20)
     assert window.editor.problem_list.isVisible() and window.editor.all_clear.isHidden()
     assert field.mapTo(window.editor.widget(), field.rect().topLeft()).y() == before
+
+
+def test_an_edit_that_prints_nothing_new_draws_nothing(qtbot, window):
+    field = window.editor.fields["weight.total"]
+    type_into(qtbot, field, "1500 lb")
+    settle(qtbot, window)
+    shown = window.preview.shown_generation
+    fingerprint = window.doc.loaded.fingerprint
+    for same in ("1500.0 lb", " 1500 lb", "1500.00 lb"):  # the same figure written another way
+        type_into(qtbot, field, same)
+        settle(qtbot, window)
+        assert window.doc.get(("weight", "total")) == same  # kept as typed
+        assert window.doc.loaded.fingerprint == fingerprint
+    assert window.preview.shown_generation == shown  # no render
+    type_into(qtbot, field, "1501 lb")
+    settle(qtbot, window)
+    assert window.preview.shown_generation > shown
