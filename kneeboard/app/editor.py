@@ -48,6 +48,7 @@ class ProfileEditor(QScrollArea):
         self.fields: dict[str, Field] = {}
         self.kinds: dict[str, units.Kind] = {}
         self.keys: dict[str, tuple] = {}
+        self.sink_fields: set[str] = set()
         self.problem_list = QListWidget()
         self.all_clear = QLabel("No input problems found.")
         self.all_clear.setStyleSheet("color: #1B5E20; font-weight: bold;")
@@ -109,6 +110,8 @@ class ProfileEditor(QScrollArea):
             widget = TextField(decl.placeholder)
         if decl.help:
             widget.setToolTip(decl.help)
+        if decl.bounds is declared.SINK_RANGE:  # a sink rate: shown in the card's sink unit, not its speed unit
+            self.sink_fields.add(key_text(key))
         return self._bind(form, decl.label, key, widget, decl.quantity)
 
     def _section(self, form: QFormLayout, section: str, prefix: tuple, skip=()) -> None:
@@ -334,11 +337,13 @@ class ProfileEditor(QScrollArea):
         speed_unit, distance_unit, weight_unit = self.card_units()
         targets = {units.SPEED.name: speed_unit, units.MASS.name: weight_unit, units.LENGTH.name: distance_unit,
                    units.TEMPERATURE.name: "degC"}
+        from kneeboard.tables import SINK_UNIT
+
         for path, kind in self.kinds.items():
             field = self.fields.get(path)
             if field is not None:
-                field.set_beside(converted(field.value() if hasattr(field, "value") else "", kind,
-                                           targets.get(kind.name)))
+                target = SINK_UNIT.get(distance_unit) if path in self.sink_fields else targets.get(kind.name)
+                field.set_beside(converted(field.value() if hasattr(field, "value") else "", kind, target))
 
     def _show_problems(self, problems: list[Problem]):
         errors = [p for p in problems if p.is_error]

@@ -407,3 +407,10 @@ def test_an_edit_that_prints_nothing_new_draws_nothing(qtbot, window):
     type_into(qtbot, field, "1501 lb")
     settle(qtbot, window)
     assert window.preview.shown_generation > shown
+
+
+def test_a_sink_rate_converts_to_the_cards_sink_unit(qtbot, window, fleet):
+    window.open_profile(fleet / "demo_glider.toml")  # a metric card: sink rates in m/s
+    field = window.editor.fields["aircraft.best_glide_sink"]
+    type_into(qtbot, field, "780 fpm")
+    assert field.beside.text() == "= 4.0 m/s"  # 780 ft/min = 3.96 m/s
