@@ -253,7 +253,8 @@ def test_compare_with_the_printed_card_after_saving(qtbot, window, tmp_path):
     (dialog,) = window.findChildren(CompareDialog)
     assert dialog.row_count() == 0 and "No printed figure changed" in dialog.summary.text()
     dialog.close()
-    dialog.setParent(None)
+    dialog.deleteLater()  # the window owns its dialogs: Qt deletes it, once
+    qtbot.waitUntil(lambda: not window.findChildren(CompareDialog), timeout=2000)
     type_into(qtbot, window.editor.fields["weight.total"], "1300 lb")
     window.act_save.trigger()
     assert not window.doc.modified
