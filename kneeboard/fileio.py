@@ -215,7 +215,7 @@ def write_target(path: Path) -> tuple[Path, os.stat_result | None]:
     return target, info
 
 
-def write_atomic(path: Path, data: bytes | str) -> None:
+def write_atomic(path: Path, data: bytes | memoryview | str) -> None:
     """Write `data` to `path` so that the old file survives any failure.
 
     The bytes go to a temporary file in the same folder, are flushed to disk, and replace the

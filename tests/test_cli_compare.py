@@ -67,3 +67,21 @@ def test_a_fleet_check_names_every_printed_card_that_no_longer_matches(capsys, t
     lines = [line for line in out.splitlines() if line.startswith(str(printed))]
     assert len(lines) == 5
     assert [line.split(" (")[0].rsplit("/", 1)[1] for line in lines if "OUT OF DATE" in line] == ["DEMO-TOUR.pdf"]
+
+
+def test_card_data_is_compressed_and_cards_with_data_in_clear_are_still_read(tmp_path):
+    from card_helpers import card_of
+
+    from kneeboard.card import card_pdf
+    from kneeboard.card.data import MARKER, card_data, card_json
+
+    card = card_of("demo_trainer")
+    pdf = card_pdf(card)
+    assert MARKER not in pdf  # the figures are compressed in the file ...
+    assert read_card_data(pdf) == [card_data(card)]  # ... and read back with zlib alone
+    # a card made before the data was compressed carries it in clear: still a card
+    older = pdf + b"\n9 0 obj\n<< /Type /EmbeddedFile >>\nstream\n" + card_json(card) + b"\nendstream\nendobj\n"
+    assert read_card_data(older) == [card_data(card), card_data(card)]
+    # damaged compressed data is no card, never an exception
+    broken = pdf.replace(b"/KNBD_CardData /Card /Length", b"/KNBD_CardData /Card /Lxngth")
+    assert read_card_data(broken[: broken.find(b"KNBD_CardData") + 60]) == []

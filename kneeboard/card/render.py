@@ -64,16 +64,20 @@ class PdfWriter:
             self.pages += 1
 
     def attach(self, name: str, data: bytes, description: str = "") -> None:
-        """Embed a file (`name`, `data`) in the PDF: an embedded file (ISO 32000-1, 7.11.4), stored uncompressed
-        so that a reader without a PDF library can find it again (`kneeboard.card.data.read_card_data`)."""
-        self._attachments.append((name, data, description))
+        """Embed a file (`name`, `data`) in the PDF: an embedded file (ISO 32000-1, 7.11.4), compressed and marked
+        so that a reader without a PDF library finds it again (`kneeboard.card.data.read_card_data`)."""
+        import zlib
+
+        # compressed now: a fleet's thousands of attachments wait for the end of the file at a sixth of their size
+        self._attachments.append((name, len(data), zlib.compress(data, 9), description))
 
     def set_keywords(self, keywords: str) -> None:
         """The document information's keywords (a card's fingerprint, so file browsers show it)."""
         self._keywords = keywords
 
-    def finish(self) -> bytes:
-        """The PDF's bytes; a writer that got no page makes none (ValueError)."""
+    def finish(self, view: bool = False) -> bytes | memoryview:
+        """The PDF's bytes (`view`: a view of them, for a large file written once: no copy is made); a writer that
+        got no page makes none (ValueError)."""
         if self._canvas is None:
             raise ValueError("a PDF needs at least one page")
         if self._keywords:
@@ -81,7 +85,7 @@ class PdfWriter:
         if self._attachments:
             _embed(self._canvas, self._attachments)
         self._canvas.save()
-        return self._buf.getvalue()
+        return self._buf.getbuffer() if view else self._buf.getvalue()
 
 
 def _compress_now(canvas: Canvas) -> None:
@@ -116,11 +120,16 @@ def _embed(canvas: Canvas, files) -> None:
     """The document's embedded files name tree (ISO 32000-1, 7.7.4 and 7.11)."""
     from reportlab.pdfbase.pdfdoc import PDFArray, PDFDictionary, PDFName, PDFStream, PDFString
 
+    from kneeboard.card.data import COMPRESSED_MARK
+
     doc = canvas._doc
     names = []
-    for name, data, description in files:
+    for name, size, compressed, description in files:
+        # compressed, and marked so that `read_card_data` finds it with zlib alone, without a PDF library
         stream = PDFStream(PDFDictionary({"Type": PDFName("EmbeddedFile"), "Subtype": PDFName("application#2Fjson"),
-                                          "Params": PDFDictionary({"Size": len(data)})}), data, filters=[])
+                                          "Params": PDFDictionary({"Size": size}),
+                                          "Filter": PDFArray([PDFName("FlateDecode")]),
+                                          COMPRESSED_MARK: PDFName("Card")}), compressed)
         spec = PDFDictionary({"Type": PDFName("Filespec"), "F": PDFString(name), "UF": PDFString(name),
                               "Desc": PDFString(description), "EF": PDFDictionary({"F": doc.Reference(stream)})})
         names += [PDFString(name), doc.Reference(spec)]
