@@ -1,17 +1,26 @@
 """Autosave for crashes: unsaved edits are copied aside every few seconds and offered back on the next start.
 
-A recovery file is a small JSON record (the profile's path, the edited text, when) in the
-application's data folder. Saving, discarding or closing normally removes it; only a crash
-leaves it behind.
+A recovery file is a small JSON record (the profile's path, the edited text, when, and its owner: the process
+and machine that wrote it) in the application's data folder. Saving, discarding or closing normally removes it;
+only a crash leaves it behind. A record is offered back only once its owner is gone, so a second window or a
+second instance never takes the edits of one still running; each window writes its own record, so none
+overwrites another's; a record that cannot be read is reported, never silently dropped.
 """
 
 import hashlib
+import itertools
 import json
+import os
+import socket
 import time
 from dataclasses import dataclass
 from pathlib import Path
 
-from kneeboard.fileio import FileProblem, read_text, write_atomic
+from kneeboard.fileio import MAX_FILE_BYTES, FileProblem, read_text, write_atomic
+
+#: The largest record: the largest profile's text, every character escaped in the worst case, and the rest.
+MAX_RECORD_BYTES = 6 * MAX_FILE_BYTES + 4096
+_instances = itertools.count(1)
 
 AUTOSAVE_MS = 4000  #: at most this much typing is lost in a crash
 
@@ -30,36 +39,80 @@ def key_for(path: Path | None, untitled_id: str) -> str:
     return hashlib.sha256(str(Path(path).resolve()).encode()).hexdigest()[:16]
 
 
+def _started(pid: int) -> str:
+    """When process `pid` started, as the system counts it ("" where it cannot be told): a pid reused by a new
+    process after a crash is then not mistaken for the owner."""
+    try:
+        stat = Path(f"/proc/{pid}/stat").read_text()
+        return stat.rsplit(")", 1)[1].split()[19]
+    except (OSError, IndexError):
+        return ""
+
+
+def _alive(pid: int) -> bool:
+    try:
+        os.kill(pid, 0)
+    except ProcessLookupError:
+        return False
+    except (PermissionError, OSError):
+        return True  # it exists, run by someone else
+    return True
+
+
 class Recovery:
     def __init__(self, folder: Path):
         self.folder = Path(folder)
+        self.owner = {"pid": os.getpid(), "host": socket.gethostname(), "started": _started(os.getpid()),
+                      "window": next(_instances)}
+        self.unreadable: list[str] = []  #: what `pending()` could not read, one sentence each
 
     def _file(self, key: str) -> Path:
-        return self.folder / f"{key}.json"
+        o = self.owner
+        return self.folder / f"{key}.{o['host']}-{o['pid']}-{o['window']}.json"
 
     def save(self, key: str, path: Path | None, text: str) -> Path:
         self.folder.mkdir(parents=True, exist_ok=True)
         record = {"path": str(path) if path else None, "text": text,
-                  "when": time.strftime("%Y-%m-%d %H:%M:%S")}
+                  "when": time.strftime("%Y-%m-%d %H:%M:%S"), "owner": self.owner}
         target = self._file(key)
-        write_atomic(target, json.dumps(record))
+        write_atomic(target, json.dumps(record, ensure_ascii=False))  # UTF-8 as typed, not escaped
         return target
+
+    def owner_gone(self, owner) -> bool:
+        """True when the process that wrote a record has ended (on another machine it cannot be told: False)."""
+        if not isinstance(owner, dict):
+            return True  # a record of an older version: its writer has long ended
+        if owner.get("host") != self.owner["host"]:
+            return False
+        pid = owner.get("pid")
+        if not isinstance(pid, int) or not _alive(pid):
+            return True
+        if pid == self.owner["pid"]:
+            return False  # another window of this very process: still running
+        return bool(owner.get("started")) and owner.get("started") != _started(pid)
 
     def discard(self, key: str) -> None:
         self._file(key).unlink(missing_ok=True)
 
     def pending(self) -> list[Pending]:
-        """Records left by a session that did not end normally, oldest first; unreadable ones are skipped."""
+        """Records left by a session that did not end normally (their owner is gone), oldest first. A record that
+        cannot be read is named in `unreadable` and left where it is, for the person to look at."""
         found = []
+        self.unreadable = []
         if not self.folder.is_dir():
             return found
         for file in sorted(self.folder.glob("*.json")):
             try:
-                record = json.loads(read_text(file))
-                text, path, when = record["text"], record.get("path"), record.get("when", "")
-            except (FileProblem, ValueError, KeyError, TypeError):
+                record = json.loads(read_text(file, MAX_RECORD_BYTES))
+                text, path, when, owner = record["text"], record.get("path"), record.get("when", ""), record.get(
+                    "owner")
+                if not isinstance(text, str):
+                    raise TypeError("its text is not text")
+            except (FileProblem, ValueError, KeyError, TypeError, AttributeError) as exc:
+                self.unreadable.append(f"{file}: unsaved edits that cannot be read back ({exc}); the file is "
+                                       "kept for you to open")
                 continue
-            if isinstance(text, str):
+            if self.owner_gone(owner):
                 found.append(Pending(file, Path(path) if isinstance(path, str) else None, text, str(when)))
         return sorted(found, key=lambda p: p.when)
 

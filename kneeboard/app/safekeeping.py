@@ -94,9 +94,14 @@ class Safekeeping:
         """After a crash: offer each autosaved set of edits back; returns how many were restored."""
         restored = 0
         for pending in self.recovery.pending():
-            if self.ask_restore(pending) and self._restore(pending):
+            if not self.ask_restore(pending):
+                self.recovery.remove(pending)  # declined: forgotten
+            elif self._restore(pending):
                 restored += 1
-            self.recovery.remove(pending)
+                self.recovery.remove(pending)  # the edits are in the window now, and autosaved from there
+            # a restore that failed keeps its record: offered again at the next start, never lost
+        if self.recovery.unreadable:
+            self.show_problems("Unsaved edits that cannot be read", "\n".join(self.recovery.unreadable))
         return restored
 
     def _restore(self, pending: Pending) -> bool:
