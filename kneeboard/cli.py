@@ -32,8 +32,8 @@ class UsageProblem(Exception):
     """A bad option value; the message names the option."""
 
 
-USAGE = """kneeboard [PROFILE_OR_FOLDER]      open the app (on the last fleet, or the sample fleet)
-       kneeboard COMMAND ...              check | table | card, without a window"""
+USAGE = """kneeboard [PROFILE_OR_FOLDER]      open the app (on the last fleet, or a copy of the sample fleet)
+       kneeboard COMMAND ...              check | table | card | compare, without a window"""
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -49,8 +49,9 @@ def _parser() -> argparse.ArgumentParser:
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
 
     def command(name, help_text):
-        return sub.add_parser(name, help=help_text, description=help_text[0].upper() + help_text[1:] + ".",
-                              epilog=caution, formatter_class=argparse.RawDescriptionHelpFormatter)
+        return sub.add_parser(name, prog=f"kneeboard {name}", help=help_text,
+                              description=help_text[0].upper() + help_text[1:] + ".", epilog=caution,
+                              formatter_class=argparse.RawDescriptionHelpFormatter)
 
     style_help = "card style (default: the fleet.style.toml beside each profile, else the shipped default)"
     check = command("check", "validate profiles and list every problem")

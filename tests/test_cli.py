@@ -127,3 +127,16 @@ def test_command_line_names_match_the_modules_behind_them():
 
     assert tuple(CARD_SIZES) == cli.CARD_SIZES and tuple(SHEET_SIZES) == cli.SHEET_SIZES
     assert cli.SPEED_UNITS == units.SPEED_UNITS and cli.DISTANCE_UNITS == units.DISTANCE_UNITS
+
+
+def test_each_commands_usage_names_the_command_and_the_main_usage_names_every_command(capsys):
+    from kneeboard.cli import COMMANDS, main
+
+    for name in COMMANDS:
+        with pytest.raises(SystemExit):
+            main([name, "--help"])
+        out = capsys.readouterr().out
+        assert out.startswith(f"usage: kneeboard {name} [-h]"), out[:120]
+    with pytest.raises(SystemExit):
+        main(["--help"])
+    assert "check | table | card | compare" in capsys.readouterr().out
