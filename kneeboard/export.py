@@ -263,7 +263,7 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
         if len(fingerprints) <= 20:  # the fingerprints in the metadata, where a file browser shows them
             writer.set_keywords("kneeboard cards, fingerprints " + ", ".join(fingerprints))
         result.pages = writer.pages
-        write_atomic(out, writer.finish(view=True))  # a fleet's file is written from the buffer, not a copy
+        write_atomic(out, writer.finish_into)  # a fleet's file is written straight into its temporary file
         result.written.insert(0, out)
     return result
 

@@ -215,8 +215,9 @@ def write_target(path: Path) -> tuple[Path, os.stat_result | None]:
     return target, info
 
 
-def write_atomic(path: Path, data: bytes | memoryview | str) -> None:
-    """Write `data` to `path` so that the old file survives any failure.
+def write_atomic(path: Path, data) -> None:
+    """Write `data` (bytes, text, or a function that writes into the open binary file it is given) to `path` so
+    that the old file survives any failure.
 
     The bytes go to a temporary file in the same folder, are flushed to disk, and replace the
     target in one rename; on any error (or an interrupting signal) the temporary file is removed
@@ -237,7 +238,10 @@ def write_atomic(path: Path, data: bytes | memoryview | str) -> None:
         raise FileProblem(f"{path}: cannot write in {target.parent} ({exc.strerror or exc})") from None
     try:
         with os.fdopen(fd, "wb") as f:
-            f.write(data)
+            if callable(data):
+                data(f)
+            else:
+                f.write(data)
             f.flush()
             os.fsync(f.fileno())
         _keep_owner_and_mode(before, tmp)

@@ -75,17 +75,24 @@ class PdfWriter:
         """The document information's keywords (a card's fingerprint, so file browsers show it)."""
         self._keywords = keywords
 
-    def finish(self, view: bool = False) -> bytes | memoryview:
-        """The PDF's bytes (`view`: a view of them, for a large file written once: no copy is made); a writer that
-        got no page makes none (ValueError)."""
+    def finish(self) -> bytes:
+        """The PDF's bytes; a writer that got no page makes none (ValueError)."""
+        self._close(self._buf)
+        return self._buf.getvalue()
+
+    def finish_into(self, file) -> None:
+        """Write the PDF into an open binary `file` (a large fleet's file goes there without a copy in memory)."""
+        self._close(file)
+
+    def _close(self, file) -> None:
         if self._canvas is None:
             raise ValueError("a PDF needs at least one page")
         if self._keywords:
             self._canvas.setKeywords(self._keywords)
         if self._attachments:
             _embed(self._canvas, self._attachments)
+        self._canvas._filename = file  # reportlab writes the document to this file object when saving
         self._canvas.save()
-        return self._buf.getbuffer() if view else self._buf.getvalue()
 
 
 def _compress_now(canvas: Canvas) -> None:
