@@ -99,3 +99,20 @@ def test_new_files_get_ordinary_permissions(tmp_path):
     umask = os.umask(0)
     os.umask(umask)
     assert target.stat().st_mode & 0o777 == 0o666 & ~umask
+
+
+def test_a_writer_function_writes_the_file_and_its_failure_leaves_the_old_one(tmp_path):
+    from kneeboard.fileio import FileProblem, write_atomic
+
+    target = tmp_path / "fleet.pdf"
+    target.write_bytes(b"old card")
+    write_atomic(target, lambda f: f.write(b"new card"))
+    assert target.read_bytes() == b"new card"
+
+    def fails(f):
+        f.write(b"half a ca")
+        raise OSError(28, "No space left on device")
+
+    with pytest.raises(FileProblem, match="No space left"):
+        write_atomic(target, fails)
+    assert target.read_bytes() == b"new card" and [p.name for p in tmp_path.iterdir()] == ["fleet.pdf"]
