@@ -2,6 +2,7 @@
 opens the app."""
 
 import argparse
+import contextlib
 import difflib
 import errno
 import os
@@ -347,11 +348,9 @@ def _internal_error(exc: Exception) -> int:
 
 def _quiet_stdout() -> None:
     """Point stdout at /dev/null, so the interpreter's own flush at exit cannot fail a second time."""
-    try:
+    with contextlib.suppress(OSError, ValueError):  # no stdout to point anywhere: nothing to quiet
         devnull = os.open(os.devnull, os.O_WRONLY)
         os.dup2(devnull, sys.stdout.fileno())
-    except (OSError, ValueError):
-        pass
 
 
 def _closed_pipe() -> int:

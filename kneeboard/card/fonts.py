@@ -16,6 +16,7 @@ Text widths come from the same files the PDF embeds, so the layout measures exac
 the fonts cannot draw is measured and drawn as `substitute()`, so the card marks where one was replaced.
 """
 
+import contextlib
 import io
 import os
 import threading
@@ -126,17 +127,13 @@ def _load(name: str) -> tuple[TTFont, bytes]:
     from kneeboard.fileio import FileProblem, write_atomic
 
     cached = cached_file(name)
-    try:
+    with contextlib.suppress(OSError, TTFError):  # no cache yet, or a damaged one: built again below
         data = cached.read_bytes()
         return TTFont(name, io.BytesIO(data), validate=1), data  # checksums: a damaged file is rebuilt
-    except (OSError, TTFError):
-        pass
     data = _build(source_file(name))
-    try:
+    with contextlib.suppress(OSError, FileProblem):  # a read-only home or cache: the fonts live in memory
         cached.parent.mkdir(parents=True, exist_ok=True)
         write_atomic(cached, data)
-    except (OSError, FileProblem):
-        pass  # a read-only home or cache: the fonts live in memory for this process
     return TTFont(name, io.BytesIO(data)), data
 
 
