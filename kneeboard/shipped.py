@@ -8,6 +8,7 @@ The installed package is never written to: a person who opens the samples works 
 """
 
 import os
+import re
 import shutil
 from importlib.resources import files
 from pathlib import Path
@@ -32,13 +33,18 @@ def template_path(category: str) -> Path:
     return _path("kneeboard.resources.templates", f"{category}.toml")
 
 
+#: An optional key a template shows as a commented example: "# best_glide_speed = ..."
+_EXAMPLE = re.compile(r"^# ([a-z_]+ = )", re.MULTILINE)
+
+
 def template_data(category: str) -> dict | None:
-    """The plain data of a category's template, or None when there is no such template."""
+    """The plain data of a category's template, its commented examples included (a value left as the example is
+    a placeholder too), or None when there is no such template."""
     import tomllib
 
     if category not in CATEGORIES_WITH_TEMPLATES:
         return None
-    return tomllib.loads(template_path(category).read_text(encoding="utf-8"))
+    return tomllib.loads(_EXAMPLE.sub(r"\1", template_path(category).read_text(encoding="utf-8")))
 
 
 def samples_folder() -> Path:

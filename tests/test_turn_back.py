@@ -142,3 +142,26 @@ def test_glide_data_needs_both_figures_and_one_kind_of_ratio():
     both = checked(MINIMAL.replace('max_weight = "750 kg"', 'max_weight = "750 kg"\nbest_glide_speed = "60 kt"\n'
                                    'glide_ratio = 9\nbest_glide_sink = "700 fpm"'))
     assert [e.path for e in both.errors] == ["aircraft"]
+
+
+@pytest.mark.parametrize("category", ["normal", "utility", "acrobatic", "glider"])
+def test_each_template_shows_the_turn_back_fields_and_they_read_as_written(category):
+    """The templates name the turn-back inputs (commented: optional); uncommented, they give a turn-back table."""
+    from kneeboard.pipeline import prepare_text
+    from kneeboard.shipped import template_path
+
+    text = template_path(category).read_text(encoding="utf-8")
+    keys = ("best_glide_speed", "glide_ratio", "turn_back_degrees", "reaction_time")
+    assert all(f"# {key} = " in text for key in keys)
+    for key in keys:
+        text = text.replace(f"# {key} = ", f"{key} = ")
+    from kneeboard.card.style import load_style
+
+    style, _ = load_style()
+    prepared = prepare_text(text, style)
+    assert prepared.table is not None, prepared.errors
+    assert prepared.table.turn_back is not None
+    # an example left as written is a placeholder like the template's other figures; the defaults are not
+    flagged = {p.path for p in prepared.warnings if "placeholder" in p.message}
+    assert {"aircraft.best_glide_speed", "aircraft.glide_ratio"} <= flagged
+    assert not flagged & {"card.turn_back_degrees", "card.reaction_time"}
