@@ -3,6 +3,7 @@
 from pathlib import Path
 
 from PySide6.QtCore import Qt, QTimer, Signal
+from PySide6.QtGui import QIcon
 from PySide6.QtWidgets import (
     QHBoxLayout,
     QLabel,
@@ -103,6 +104,15 @@ class FleetPanel(QWidget):
         else:
             self.checked.emit()
 
+    def recheck(self) -> None:
+        """Check every listed profile again (the card style changed, and with it what a profile's card can be)."""
+        for item in self._items.values():
+            item.setIcon(0, QIcon())
+            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, None)
+            item.setToolTip(0, "")
+        self._unchecked = list(self._items)
+        self._check_timer.start(0)
+
     def check_all(self) -> None:
         """Give every listed profile its mark now (a test, or before a whole-fleet action)."""
         self._check_timer.stop()
@@ -120,7 +130,7 @@ class FleetPanel(QWidget):
         prepared = self._prepare(read_source(Path(path)))
         style = self.style()
         if prepared.fingerprint:  # what a printed card of this aircraft carries beside its date
-            item.setToolTip(1, f"{item.toolTip(1)}\nfingerprint {prepared.fingerprint}")
+            item.setToolTip(1, f"{path}\nfingerprint {prepared.fingerprint}")
         if prepared.errors:
             item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxCritical))
             item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in prepared.errors[:8]))

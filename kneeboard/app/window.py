@@ -256,7 +256,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         self._update_title()
 
     def _forget_prepared(self) -> None:
-        """The style may have changed: every figure is prepared again."""
+        """The style may have changed: every figure is prepared again, and every profile of the fleet checked."""
+        self.fleet.recheck()
         if self.doc is not None:
             self.doc.forget()
             if self.editor is not None:

@@ -415,3 +415,20 @@ def test_a_sink_rate_converts_to_the_cards_sink_unit(qtbot, window, fleet):
     field = window.editor.fields["aircraft.best_glide_sink"]
     type_into(qtbot, field, "780 fpm")
     assert field.beside.text() == "= 4.0 m/s"  # 780 ft/min = 3.96 m/s
+
+
+def test_another_style_checks_the_fleet_again(qtbot, window, fleet, tmp_path):
+    (fleet / "zz_broken.toml").write_text("[aircraft\n")
+    window.fleet.reload.click()
+    window.fleet.check_all()
+    assert {Path(r[2]).name: r[0] for r in window.fleet.rows()}["zz_broken.toml"] == "error"
+    style = tmp_path / "other.style.toml"
+    style.write_text('style = 1\nspeed_unit = "km/h"\n')
+    window.ask_open_path = lambda *_: style
+    window.act_pick_style.trigger()
+    assert all(mark == "" for mark, _, _ in window.fleet.rows())  # every mark is being made again ...
+    window.fleet.check_all()
+    marks = {Path(r[2]).name: r[0] for r in window.fleet.rows()}
+    assert marks["zz_broken.toml"] == "error" and marks["demo_trainer.toml"] == ""  # ... under the new style
+    item = window.fleet.tree.topLevelItem(0)
+    assert item.toolTip(1).count("fingerprint") <= 1
