@@ -1,9 +1,9 @@
 """A glider's circling figures at minimum-sink angle of attack, at the card weight with ballast."""
 
 from kneeboard import terms
-from kneeboard.card.blocks.grid import Cell, grid, heading, sub_headers
+from kneeboard.card.blocks.grid import Cell, column_headers, even_columns, grid, heading
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import INK, Context, Draw, figure, weight_text
+from kneeboard.card.draw import Context, Draw, figure, weight_text
 from kneeboard.card.ops import HIGHER_IS_WORSE, SMALL
 
 NAME = "circling"
@@ -27,10 +27,8 @@ def draw(ctx: Context, width: float, _height=None):
                 (tag(terms.label(straight, terms.SPEED), g.min_sink_speed, su),
                  tag(terms.label(straight, terms.SINK), g.min_sink_rate, sink, HIGHER_IS_WORSE)))
     names = ["bank", f"{su} IAS", f"sink {sink}", f"radius {du}", "circle s", f"180° loss {du}"]
-    col_w = width / len(names)
-    columns = [(i * col_w, col_w) for i in range(len(names))]
-    y = sub_headers(d, NAME, y, [(n, x, w) for n, (x, w) in zip(names, columns)])
-    d.line(0, y, width, y, INK, 0.6)
+    columns = even_columns(width, len(names))
+    y = column_headers(d, NAME, y, names, columns, width)
     rows = []
     for r in g.rows:
         if r.turn_radius is None:

@@ -105,3 +105,29 @@ def heading(d: Draw, width: float, top: float, title: str, detail: str = "", fig
             d.text(0, y + ctx.size(LABEL) * 0.25, line, LABEL, color=GREY, figures=figures if k == 0 else ())
         y -= ctx.size(LABEL) * 0.2
     return y
+
+
+def even_columns(width: float, count: int) -> list[tuple[float, float]]:
+    """`count` columns of equal width across `width` [(x, w)]."""
+    w = width / count
+    return [(i * w, w) for i in range(count)]
+
+
+def column_headers(d: Draw, block: str, top: float, names, columns, width: float) -> float:
+    """The columns' small labels (`sub_headers`) over a rule across `width`; returns the rule's height."""
+    y = sub_headers(d, block, top, [(n, x, w) for n, (x, w) in zip(names, columns)])
+    d.line(0, y, width, y, INK, 0.6)
+    return y
+
+
+def named_row(d: Draw, block: str, top: float, name: str, name_w: float, columns, cells) -> float:
+    """One configuration's row: its name (up to two lines) in the first `name_w` and `cells` in `columns`, as one
+    grid row tall enough for both; returns the row's height."""
+    fs, ls = d.ctx.secondary_figure, d.ctx.size(LABEL)
+    lines = fit_lines(block, name, fonts.BOLD, ls, name_w - 4, 2)
+    row_h = max(fs * 1.45, len(lines) * ls * 1.15 + ls * 0.6)
+    grid(d, block, top, columns, [cells], row_h, fs, shade=False)
+    first = top - (row_h - len(lines) * ls * 1.15) / 2 - ls * 0.85
+    for k, line in enumerate(lines):
+        d.text(2, first - k * ls * 1.15, line, LABEL, True)
+    return row_h

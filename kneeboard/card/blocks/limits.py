@@ -7,10 +7,9 @@ text itself not retrieved).
 """
 
 from kneeboard import terms
-from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NO_VALUE, Cell, grid, heading, sub_headers
+from kneeboard.card.blocks.grid import NO_VALUE, Cell, column_headers, heading, named_row
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import INK, Context, Draw, figure, fit_lines, weight_text
+from kneeboard.card.draw import Context, Draw, figure, weight_text
 from kneeboard.card.ops import HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, SMALL
 
 NAME = "limits"
@@ -20,8 +19,6 @@ NORMAL_CATEGORY_BANK = 60  #: [deg] 14 CFR 23.3(a) before amendment 23-64
 def draw(ctx: Context, width: float, _height=None):
     t = ctx.table
     d = Draw(ctx)
-    fs = ctx.secondary_figure
-    ls = ctx.size(LABEL)
     su = t.speed_unit
     detail = (f"Structure: limit load factor {t.limit_load_factor.text} g; a level turn reaches it at "
               f"{t.limit_bank.text}° (limit bank: a structural figure, not a bank to fly).")
@@ -42,12 +39,9 @@ def draw(ctx: Context, width: float, _height=None):
     for weight in weights:
         columns.append((x, unit * weight))
         x += unit * weight
-    y = sub_headers(d, NAME, y, [(n, x, w) for n, (x, w) in zip(names, columns)])
-    d.line(0, y, width, y, INK, 0.6)
+    y = column_headers(d, NAME, y, names, columns, width)
     y_row = y
     for c in t.configurations:
-        name = fit_lines(NAME, c.name, fonts.BOLD, ls, name_w - 4, 2)
-        row_h = max(fs * 1.45, len(name) * ls * 1.15 + ls * 0.6)
         limit = f"{c.limit_load_factor.text}/{c.limit_bank.text}°"
         row = [
             Cell(c.stall_speed.text, figure=figure(terms.label(c.name, terms.STALL), c.stall_speed, su,
@@ -65,11 +59,7 @@ def draw(ctx: Context, width: float, _height=None):
             Cell(limit, figure=figure(terms.label(c.name, terms.LIMIT_LOAD), f"{c.limit_load_factor.text} g / "
                                       f"{c.limit_bank.text}°", worse=None)),
         ]
-        grid(d, NAME, y_row, columns[1:], [row], row_h, fs, shade=False)
-        first = y_row - (row_h - len(name) * ls * 1.15) / 2 - ls * 0.85
-        for k, line in enumerate(name):
-            d.text(2, first - k * ls * 1.15, line, LABEL, True)
-        y_row -= row_h
+        y_row -= named_row(d, NAME, y_row, c.name, name_w, columns[1:], row)
     bottom = y_row
     return d.block(NAME, -(bottom - ctx.size(SMALL) * 0.8))
 

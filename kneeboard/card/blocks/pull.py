@@ -4,10 +4,10 @@ stalls the wing in any attitude. Marked where the structure's limit load comes b
 
 from kneeboard import terms
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import Cell, grid, heading, sub_headers
+from kneeboard.card.blocks.grid import Cell, column_headers, heading, named_row
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, INK, Context, Draw, figure, fit_lines
-from kneeboard.card.ops import HIGHER_IS_WORSE, LABEL, SMALL
+from kneeboard.card.draw import GREY, Context, Draw, figure, fit_lines
+from kneeboard.card.ops import HIGHER_IS_WORSE, SMALL
 
 NAME = "pull"
 
@@ -16,31 +16,22 @@ def draw(ctx: Context, width: float, _height=None):
     t = ctx.table
     d = Draw(ctx)
     su = t.speed_unit
-    fs = ctx.secondary_figure
-    ls = ctx.size(LABEL)
     loads = [n for n, _ in t.configurations[0].stall_at_load]
     names = ["", "pattern stalls at"] + [f"stall {n} g" for n in loads]
     name_w = width * 0.2
     col_w = (width - name_w) / (len(names) - 1)
     columns = [(0, name_w)] + [(name_w + i * col_w, col_w) for i in range(len(names) - 1)]
     y = heading(d, width, 0.0, "PULL AT THE PATTERN SPEED")
-    y = sub_headers(d, NAME, y, [(n, x, w) for n, (x, w) in zip(names, columns)])
-    d.line(0, y, width, y, INK, 0.6)
+    y = column_headers(d, NAME, y, names, columns, width)
     first_limit = False
     for c in t.configurations:
-        name = fit_lines(NAME, c.name, fonts.BOLD, ls, name_w - 4, 2)
-        row_h = max(fs * 1.45, len(name) * ls * 1.15 + ls * 0.6)
         structure_first = not c.stalls_before_limit
         first_limit |= structure_first
         row = [Cell(f"{c.available_load_factor.text} g", bold=True, note="!" if structure_first else "",
                     figure=figure(terms.label(c.name, terms.AVAILABLE_LOAD), c.available_load_factor, "g"))]
         row += [Cell(v.text, figure=figure(terms.label(c.name, f"{n} g", terms.STALL), v, su, HIGHER_IS_WORSE))
                 for n, v in c.stall_at_load]
-        grid(d, NAME, y, columns[1:], [row], row_h, fs, shade=False)
-        first = y - (row_h - len(name) * ls * 1.15) / 2 - ls * 0.85
-        for k, line in enumerate(name):
-            d.text(2, first - k * ls * 1.15, line, LABEL, True)
-        y -= row_h
+        y -= named_row(d, NAME, y, c.name, name_w, columns[1:], row)
     note = (f"pattern stalls at: the load factor that stalls the wing at the pattern speed, wings level; stall "
             f"speeds {su} IAS." + (" ! the structure's limit load comes before the stall." if first_limit else ""))
     ss = ctx.size(SMALL)

@@ -5,7 +5,7 @@ of the reaction time; the bank of least loss in bold. The figures are `aero.glid
 
 from kneeboard import terms
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import Cell, grid, heading, sub_headers
+from kneeboard.card.blocks.grid import Cell, column_headers, even_columns, grid, heading
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, figure, fit_lines
 from kneeboard.card.ops import CAUTION, HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, SMALL
@@ -34,10 +34,8 @@ def draw(ctx: Context, width: float, _height=None):
                  figure(terms.label(at, terms.REACTION, terms.HEIGHT_LOSS), tb.reaction_height_loss, du,
                         HIGHER_IS_WORSE)))
     names = ["bank", f"speed {su} IAS", f"margin {su}"] + [f"{h}° loss {du}" for h in tb.headings]
-    col_w = width / len(names)
-    columns = [(i * col_w, col_w) for i in range(len(names))]
-    y = sub_headers(d, NAME, y, [(n, x, w) for n, (x, w) in zip(names, columns)])
-    d.line(0, y, width, y, INK, 0.6)
+    columns = even_columns(width, len(names))
+    y = column_headers(d, NAME, y, names, columns, width)
     rows = []
     for r in tb.rows:
         bank = terms.at_bank(r.bank_text)
