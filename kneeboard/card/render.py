@@ -143,23 +143,59 @@ def _embed(canvas: Canvas, files) -> None:
     doc.Catalog.Names = PDFDictionary({"EmbeddedFiles": PDFDictionary({"Names": PDFArray(names)})})
 
 
+class _Pen:
+    """The graphics state a part has set so far: each colour, width and dash is written into the page only when it
+    changes (reportlab writes every call), so a table of a hundred lines sets its colour once, not a hundred times.
+    None means not known, so the first use always writes it."""
+
+    __slots__ = ("c", "stroke", "fill", "width", "dash", "join")
+
+    def __init__(self, c: Canvas):
+        self.c = c
+        self.stroke = self.fill = self.width = self.dash = self.join = None
+
+    def saved(self) -> tuple:
+        return self.stroke, self.fill, self.width, self.dash, self.join
+
+    def restore(self, state: tuple) -> None:
+        """After the canvas's restoreState: the pen is again what it was when `saved`."""
+        self.stroke, self.fill, self.width, self.dash, self.join = state
+
+    def stroke_with(self, color: str, width: float, dash=()) -> None:
+        if color != self.stroke:
+            self.c.setStrokeColor(colour(color))
+            self.stroke = color
+        if width != self.width:
+            self.c.setLineWidth(width)
+            self.width = width
+        if dash != self.dash:
+            self.c.setDash(list(dash))
+            self.dash = dash
+
+    def fill_with(self, color: str) -> None:
+        if color != self.fill:
+            self.c.setFillColor(colour(color))
+            self.fill = color
+
+
 def draw_ops(c: Canvas, ops, dx: float = 0.0, dy: float = 0.0) -> None:
     """Draw layout ops on a reportlab canvas, shifted by (dx, dy) [pt]."""
     if not ops:
         return
     c.saveState()
     c.translate(dx, dy)
+    pen = _Pen(c)
     run: list[Text] = []
     for op in ops:
         if type(op) is Text:
             run.append(op)
             continue
         if run:
-            _texts(c, run)
+            _texts(c, run, pen)
             run = []
-        _DRAW[type(op)](c, op)
+        _DRAW[type(op)](pen, op)
     if run:
-        _texts(c, run)
+        _texts(c, run, pen)
     c.restoreState()
 
 
@@ -168,10 +204,11 @@ def colour(hex_text: str) -> HexColor:
     return HexColor(hex_text)
 
 
-def _texts(c: Canvas, texts: list[Text]) -> None:
+def _texts(c: Canvas, texts: list[Text], pen: _Pen) -> None:
     """A run of strings in one PDF text object: font and colour are set only when they change."""
     t = c.beginText()
-    font = fill = None
+    font = None
+    fill = pen.fill
     for op in texts:
         if (op.font, op.size) != font:
             t.setFont(op.font, op.size)
@@ -187,41 +224,41 @@ def _texts(c: Canvas, texts: list[Text]) -> None:
         # the same substitution fonts.width measured with, so a replaced character is marked, not lost
         t.textOut(fonts.printable(op.text))
     c.drawText(t)
+    pen.fill = fill  # a colour set inside a text object stays in the graphics state after it
 
 
-def _line(c: Canvas, op: Line) -> None:
-    c.setStrokeColor(colour(op.color))
-    c.setLineWidth(op.width)
-    c.setDash(list(op.dash) if op.dash else [])
-    c.line(op.x1, op.y1, op.x2, op.y2)
-    c.setDash([])
+def _line(pen: _Pen, op: Line) -> None:
+    pen.stroke_with(op.color, op.width, op.dash)
+    pen.c.line(op.x1, op.y1, op.x2, op.y2)
 
 
-def _rect(c: Canvas, r: Rect) -> None:
+def _rect(pen: _Pen, r: Rect) -> None:
+    c = pen.c
     if r.fill:
-        c.setFillColor(colour(r.fill))
+        pen.fill_with(r.fill)
         c.rect(r.x, r.y, r.w, r.h, stroke=0, fill=1)
     if r.hatch:
         c.saveState()
+        before = pen.saved()
         clip = c.beginPath()
         clip.rect(r.x, r.y, r.w, r.h)
         c.clipPath(clip, stroke=0, fill=0)
-        c.setStrokeColor(colour(r.hatch))
-        c.setLineWidth(0.6)
+        pen.stroke_with(r.hatch, 0.6, ())
         k = -r.h
         while k < r.w:
             c.line(r.x + k, r.y, r.x + k + r.h, r.y + r.h)
             k += HATCH_SPACING
         c.restoreState()
+        pen.restore(before)
     if r.stroke:
-        c.setStrokeColor(colour(r.stroke))
-        c.setLineWidth(r.width)
+        pen.stroke_with(r.stroke, r.width, ())
         c.rect(r.x, r.y, r.w, r.h, stroke=1, fill=0)
 
 
-def _path(c: Canvas, p: Path) -> None:
+def _path(pen: _Pen, p: Path) -> None:
     if len(p.points) < 2:
         return
+    c = pen.c
     path = c.beginPath()
     path.moveTo(*p.points[0])
     for x, y in p.points[1:]:
@@ -230,31 +267,31 @@ def _path(c: Canvas, p: Path) -> None:
         path.close()
     if p.fill:
         c.saveState()
-        c.setFillColor(colour(p.fill))
+        before = pen.saved()
+        pen.fill_with(p.fill)
         c.setFillAlpha(p.fill_alpha)
         c.drawPath(path, stroke=0, fill=1)
         c.restoreState()
+        pen.restore(before)
     if p.color:
-        c.setStrokeColor(colour(p.color))
-        c.setLineWidth(p.width)
-        c.setLineJoin(1)
-        c.setDash(list(p.dash) if p.dash else [])
+        pen.stroke_with(p.color, p.width, p.dash)
+        if pen.join != 1:
+            c.setLineJoin(1)
+            pen.join = 1
         c.drawPath(path, stroke=1, fill=0)
-        c.setDash([])
 
 
-def _circle(c: Canvas, op: Circle) -> None:
+def _circle(pen: _Pen, op: Circle) -> None:
     if op.fill:
-        c.setFillColor(colour(op.fill))
+        pen.fill_with(op.fill)
     if op.stroke:
-        c.setStrokeColor(colour(op.stroke))
-        c.setLineWidth(op.width)
-    c.circle(op.x, op.y, op.r, stroke=1 if op.stroke else 0, fill=1 if op.fill else 0)
+        pen.stroke_with(op.stroke, op.width, ())
+    pen.c.circle(op.x, op.y, op.r, stroke=1 if op.stroke else 0, fill=1 if op.fill else 0)
 
 
-def _image(c: Canvas, op: Image) -> None:
-    c.drawImage(ImageReader(io.BytesIO(op.png)), op.x, op.y, op.w, op.h, mask="auto", preserveAspectRatio=True,
-                anchor="e")
+def _image(pen: _Pen, op: Image) -> None:
+    pen.c.drawImage(ImageReader(io.BytesIO(op.png)), op.x, op.y, op.w, op.h, mask="auto",
+                    preserveAspectRatio=True, anchor="e")
 
 
 _DRAW = {Line: _line, Rect: _rect, Path: _path, Circle: _circle, Image: _image}
