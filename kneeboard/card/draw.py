@@ -75,10 +75,14 @@ class Draw:
 
     def text(self, x, y, s, role=LABEL, bold=False, align="left", color=INK, size=None, figures=()):
         """A line of text; `figures` tags it with the printed figures it shows (`ops.Figure`, one or several)."""
-        size = self.ctx.size(role) if size is None else size
-        if figures is None or isinstance(figures, Figure):
-            figures = () if figures is None else (figures,)
-        tags = tuple(f for f in figures if f is not None)
+        if size is None:
+            size = self.ctx.size(role)
+        if not figures:
+            tags = ()
+        elif type(figures) is Figure:
+            tags = (figures,)
+        else:
+            tags = tuple(f for f in figures if f is not None)
         self.ops.append(Text(x, y, s, fonts.BOLD if bold else fonts.REGULAR, size, color, align, role, tags))
 
     def line(self, x1, y1, x2, y2, color=INK, width=0.5, dash=()):
