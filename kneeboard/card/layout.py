@@ -127,11 +127,17 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
     # landscape pages flow in two columns when each is still wide enough for a table
     columns = 2 if two_columns and (box.content_width - gap) / 2 >= MIN_COLUMN else 1
     col_w = (box.content_width - (columns - 1) * gap) / columns
-    caution_h = caution(ctx, box.content_width, 1, 2).height
-    bottom = box.bottom + caution_h + gap * 0.6
     specs = {name: blocks.get(name) for name in dict.fromkeys(front + back)}
     # blocks of natural height are drawn once here; blocks that grow are drawn once their room is known
     memo = {} if memo is None else memo
+
+    def closing(side: int, total: int):
+        key = ("caution", ctx.scale, box.content_width, side, total)
+        if key not in memo:
+            memo[key] = caution(ctx, box.content_width, side, total)
+        return memo[key]
+
+    bottom = box.bottom + closing(1, 2).height + gap * 0.6
 
     def drawn(name, width, height=None):
         key = (name, ctx.scale, width, height)
@@ -201,8 +207,8 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
                 parts.append(Part(box.left + c * (col_w + gap), y, b.ops))
                 placed.append(name)
                 y -= b.height + gap
-        closing = caution(ctx, box.content_width, side, total)
-        parts.append(Part(box.left, box.bottom + closing.height, closing.ops))
+        notice = closing(side, total)
+        parts.append(Part(box.left, box.bottom + notice.height, notice.ops))
         parts.append(Part(0.0, 0.0, tuple(_binding_marks(box, ctx.style.binding))))
         result.append(Page(box.width, box.height, tuple(parts), tuple(placed) + ("caution",)))
     return Flowed(tuple(result), chart_area, back_fill)
