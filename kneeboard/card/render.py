@@ -223,8 +223,10 @@ def _texts(c: Canvas, texts: list[Text], pen: _Pen) -> None:
             w = fonts.width(op.text, op.font, op.size)
             x -= w if op.align == "right" else w / 2
         t.setTextOrigin(x, op.y)
-        # the same substitution fonts.width measured with, so a replaced character is marked, not lost
-        t.textOut(fonts.printable(op.text))
+        # the same substitution fonts.width measured with, so a replaced character is marked, not lost.
+        # `_textOut` is `textOut` without measuring the string to move reportlab's cursor past it: each string
+        # sets its own origin, and the measuring was a twentieth of the PDF's time
+        t._textOut(fonts.printable(op.text))
     c.drawText(t)
     pen.fill = fill  # a colour set inside a text object stays in the graphics state after it
 
