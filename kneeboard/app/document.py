@@ -177,17 +177,23 @@ class ProfileDocument(QObject):
         return self.session.prepare_text(self.saved_text, self.path)
 
     def get(self, key: Key, default=None):
+        """The value at `key` (a copy of a table or list, which the caller may change), else `default`."""
+        node = self.peek(key, default)
+        return copy.deepcopy(node) if isinstance(node, (dict, list)) else node
+
+    def count(self, key: Key) -> int:
+        value = self.peek(key)  # only counted: not copied (the editor counts every list on every edit)
+        return len(value) if isinstance(value, list) else 0
+
+    def peek(self, key: Key, default=None):
+        """The value at `key` itself, not a copy, else `default`: read it, never change it (as `plain`)."""
         node = self.plain()
         for part in key:
             try:
                 node = node[part]
             except (KeyError, IndexError, TypeError):
                 return default
-        return copy.deepcopy(node) if isinstance(node, (dict, list)) else node
-
-    def count(self, key: Key) -> int:
-        value = self.get(key)
-        return len(value) if isinstance(value, list) else 0
+        return node
 
     # --- editing -------------------------------------------------------------------------------
     def set(self, key: Key, value, label: str | None = None, merge: bool = True) -> None:

@@ -254,11 +254,11 @@ class ProfileEditor(QScrollArea):
         self.doc.apply(change, "Change how the weight is given")
 
     def _set_glider(self, on: bool):
-        if on and self.doc.get(("glider",)) is None:
+        if on and self.doc.peek(("glider",)) is None:
             unit = self.card_units()[2]
             weight = self.doc.get(("aircraft", "max_weight")) or f"400 {unit}"
             self.doc.set(("glider", "polar_weight"), weight, "Add polar", merge=False)
-        elif not on and self.doc.get(("glider",)) is not None:
+        elif not on and self.doc.peek(("glider",)) is not None:
             self.doc.remove(("glider",), "Remove polar")
 
     # --- showing the document ------------------------------------------------------------------
@@ -279,7 +279,7 @@ class ProfileEditor(QScrollArea):
         for path, field in self.fields.items():
             key = self.keys.get(path)
             if key is not None:
-                field.set_value(self.doc.get(key))
+                field.set_value(self.doc.peek(key))  # every field only reads what it shows
         self._sync_modes()
         self._show_conversions()
         self._show_problems(list(self.doc.loaded.problems))
@@ -306,7 +306,7 @@ class ProfileEditor(QScrollArea):
         self.config_buttons["Remove"].setEnabled(n > 1)
 
     def _sync_modes(self):
-        w = self.doc.get(("weight",))
+        w = self.doc.peek(("weight",))
         mode = "reference" if not isinstance(w, dict) else ("total" if "total" in w else "build-up")
         self.weight_mode.set_value(mode)
         form = self.weight_form
@@ -319,7 +319,7 @@ class ProfileEditor(QScrollArea):
             page = self.config_tabs.widget(i)
             page.layout().setRowVisible(self.fields[f"{CONFIG}[{i + 1}].pattern_factor"], not fixed)
             page.layout().setRowVisible(self.fields[f"{CONFIG}[{i + 1}].pattern_speed"], fixed)
-        glider = self.doc.get(("glider",)) is not None
+        glider = self.doc.peek(("glider",)) is not None
         self.is_glider.setChecked(glider)
         for path in ("glider.polar_weight", "glider.polar"):
             self.fields[path].setEnabled(glider)
