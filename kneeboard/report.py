@@ -13,7 +13,7 @@ import numpy as np
 
 from kneeboard import units
 from kneeboard.tables import BUFFER, STALL, CardTable
-from kneeboard.texts import CAUTION
+from kneeboard.texts import CAUTION, CAUTION_TURN_BACK
 
 JSON_SCHEMA = 1
 
@@ -190,6 +190,7 @@ def to_text(table: CardTable) -> str:
             f"zero-margin bank {c.zero_margin_bank.text} deg, buffer bank {buffer_bank}, "
             f"limit load factor {c.limit_load_factor.text} g"
             + (f", flap limit speed VFE {c.flap_limit_speed.text} {su}" if c.flap_limit_speed else ""),
+            _pull_line(c, su),
             f"{'bank':>5} {'n':>5} {'stall':>6} {'margin':>7} {'radius':>7} {'180':>5} {'360':>5}",
             f"{'deg':>5} {'':>5} {su:>6} {su:>7} {du:>7} {'s':>5} {'s':>5}",
         ]
@@ -211,8 +212,35 @@ def to_text(table: CardTable) -> str:
         for row in g.rows:
             lines.append(f"{row.bank_text:>5} {row.speed.text:>6} {row.sink_rate.text:>5} "
                          f"{_text(row.turn_radius):>7} {_text(row.circle_time):>7} {_text(row.height_loss_180):>9}")
+    if table.turn_back is not None and table.turn_back.rows:
+        lines += ["", *_turn_back_lines(table)]
     if table.notes:
         lines += ["", f"notes: {table.notes}"]
     lines += ["", "marks: " + "; ".join(f"{mark} {meaning}" for mark, meaning in MARKS.items())]
     lines += table.warnings
     return "\n".join(lines) + "\n"
+
+
+def _pull_line(c, su: str) -> str:
+    """The card's pull block for one configuration: the load factor that stalls the wing at the pattern speed."""
+    first = "" if c.stalls_before_limit else " (the structure's limit load comes before the stall)"
+    stalls = ", ".join(f"{v.text} {su} at {n} g" for n, v in c.stall_at_load)
+    return f"  pattern stalls at {c.available_load_factor.text} g wings level{first}; stall speed {stalls}"
+
+
+def _turn_back_lines(table: CardTable) -> list[str]:
+    """The card's turn-back block: per bank the speed to fly, its margin and the height each heading change costs."""
+    tb, su, du = table.turn_back, table.speed_unit, table.distance_unit
+    what = "a launch failure" if table.category == "glider" else "engine failure"
+    heads = [f"{h} deg" for h in tb.headings]
+    lines = [
+        f"turn back after {what}: best glide {tb.best_glide_speed.text} {su} IAS, ratio {tb.glide_ratio.text}; "
+        f"{tb.reaction_time.text} s of reaction: {tb.reaction_height_loss.text} {du} first; height lost in the turn "
+        f"alone, least at the bank marked; margin over {tb.clean}'s stall speed",
+        f"{'bank':>5} {'speed':>6} {'margin':>7}" + "".join(f" {h:>8}" for h in heads),
+        f"{'deg':>5} {su + ' IAS':>6} {su:>7}" + "".join(f" {du + ' loss':>8}" for _ in heads),
+    ]
+    for r in tb.rows:
+        lines.append(f"{r.bank_text:>5} {r.speed.text:>6} {r.margin.text:>7}"
+                     + "".join(f" {loss.text:>8}" for loss in r.height_loss) + ("  least" if r.least else ""))
+    return lines + [CAUTION_TURN_BACK]

@@ -17,6 +17,12 @@ CAUTION = (
     "instruction by a qualified flight instructor."
 )
 
+#: Under the turn-back figures, on the card and in the text table
+CAUTION_TURN_BACK = (
+    "Coordinated gliding turn, still air, after the reaction time, without roll-in and roll-out. Wind, the runway's "
+    "position and the pilot's practice govern; a turn back is a decision for the flight manual, operator and training."
+)
+
 #: The formulas behind every figure, and where each comes from (the README's table), for the app's help.
 FORMULAS_HTML = """\
 <h3>Where each figure comes from</h3>

@@ -140,3 +140,48 @@ def test_each_commands_usage_names_the_command_and_the_main_usage_names_every_co
     with pytest.raises(SystemExit):
         main(["--help"])
     assert "check | table | card | compare" in capsys.readouterr().out
+
+
+def _text_rows(section: list[str]) -> dict[str, list[str]]:
+    """The rows of a text table under its two header lines, by their first column (the bank)."""
+    return {line.split()[0]: line.split()[1:] for line in section[3:] if line[:5].strip().isdigit()}
+
+
+@pytest.mark.parametrize("name", ["demo_trainer", "demo_tourer"])
+def test_table_text_prints_the_turn_back_and_pull_figures_of_the_card(capsys, name):
+    """The terminal's table carries the card's turn-back and pull blocks, figure for figure (the card's own
+    printed figures, read from its layout), so the command line and the card never disagree."""
+    from kneeboard import terms
+    from kneeboard.pipeline import Styles, make_card, prepare_file
+
+    path = SAMPLES / f"{name}.toml"
+    card = make_card(prepare_file(path, Styles()), made_on="2026-12-01")
+    code, out, _ = run(capsys, "table", str(path))
+    assert code == 0
+    lines = out.splitlines()
+    start = next(i for i, line in enumerate(lines) if line.startswith("turn back after"))
+    section = lines[start:lines.index("", start)]
+    rows = _text_rows(section)
+    headings = [h.split()[0] for h in section[1].split()[3:] if h != "deg"]
+    checked = 0
+    for f in card.figures().values():
+        parts = f.label.split(terms.SEP)
+        number = f.text.split()[0]
+        if parts[0] == terms.TURN_BACK and parts[1].endswith("°"):
+            row = rows[parts[1].rstrip("°")]
+            kind = parts[2]
+            column = 0 if kind == terms.SPEED else 1 if kind == terms.MARGIN else 2 + headings.index(
+                kind.split("°")[0])
+            assert row[column] == number, f.label
+            checked += 1
+        elif parts[0] == terms.TURN_BACK:
+            assert f" {number} " in f" {section[0]} ".replace(";", " "), f.label
+            checked += 1
+        elif parts[-1] == terms.AVAILABLE_LOAD:
+            assert f"  pattern stalls at {number} g" in out, f.label
+            checked += 1
+    rows_on_card = len(card.table.turn_back.rows)
+    assert rows_on_card and len(rows) == rows_on_card
+    # every row's speed, margin and losses, the three heading figures, one pull figure per configuration
+    assert checked == rows_on_card * (2 + len(headings)) + 3 + len(card.table.configurations)
+    assert "a turn back is a decision" in out  # its own caution travels with it

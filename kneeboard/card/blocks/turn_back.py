@@ -9,12 +9,9 @@ from kneeboard.card.blocks.grid import Cell, column_headers, even_columns, grid,
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, figure, fit_lines
 from kneeboard.card.ops import CAUTION, HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, SMALL
+from kneeboard.texts import CAUTION_TURN_BACK
 
 NAME = "turn-back"
-CAUTION_TURN_BACK = (
-    "Coordinated gliding turn, still air, after the reaction time, without roll-in and roll-out. Wind, the runway's "
-    "position and the pilot's practice govern; a turn back is a decision for the flight manual, operator and training."
-)
 
 
 def draw(ctx: Context, width: float, _height=None):
