@@ -131,19 +131,19 @@ def _flow(ctx: Context, box: PageBox, front: list[str], back: list[str], two_col
     # blocks of natural height are drawn once here; blocks that grow are drawn once their room is known
     memo = {} if memo is None else memo
 
-    def closing(side: int, total: int):
-        key = ("caution", ctx.scale, box.content_width, side, total)
+    def once(key, make):
         if key not in memo:
-            memo[key] = caution(ctx, box.content_width, side, total)
+            memo[key] = make()
         return memo[key]
+
+    def closing(side: int, total: int):
+        return once(("caution", ctx.scale, box.content_width, side, total),
+                    lambda: caution(ctx, box.content_width, side, total))
 
     bottom = box.bottom + closing(1, 2).height + gap * 0.6
 
     def drawn(name, width, height=None):
-        key = (name, ctx.scale, width, height)
-        if key not in memo:
-            memo[key] = specs[name].draw(ctx, width, height)
-        return memo[key]
+        return once((name, ctx.scale, width, height), lambda: specs[name].draw(ctx, width, height))
 
     built = {name: drawn(name, box.content_width if spec.full_width else col_w)
              for name, spec in specs.items() if spec.sizes is None}
