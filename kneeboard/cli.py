@@ -198,6 +198,9 @@ def cmd_card(args) -> int:
         for line in failure.lines:
             print(printable(line), file=sys.stderr)
         print(f"{printable(failure.path)}: skipped", file=sys.stderr)
+    for registration, cards, faces in made.made:
+        print(printable(f"{registration}: {cards} card{'s' if cards != 1 else ''} ({faces} "
+                        f"face{'s' if faces != 1 else ''})"))
     if made.cards:
         pngs = [p for p in made.written if p.suffix == ".png"]
         if out is not None:

@@ -125,7 +125,8 @@ def write_each(cards: list[Card], folder: Path) -> list[Path]:
 
 
 def write_pngs(cards: list[Card], folder: Path, prefix: str, dpi: int) -> list[Path]:
-    """Each card page as a PNG at `dpi`, named PREFIX<name>-front.png / -back.png (the names of `write_each`)."""
+    """Each card page as a PNG at `dpi`, named PREFIX<name>-front.png / -back.png (the names of `write_each`); a
+    card set's faces PREFIX<name>-card1-front.png, -card1-back.png, -card2-front.png..."""
     written = []
     for card, stem in zip(cards, unique_names(c.registration for c in cards)):
         written += _pngs(card, folder, f"{prefix}{stem}", dpi)
@@ -136,8 +137,10 @@ def _pngs(card: Card, folder: Path, stem: str, dpi: int, guard=lambda path: path
     from kneeboard.card.raster import pdf_to_pngs
 
     written = []
-    for side, png in zip(("front", "back"), pdf_to_pngs(card_pdf(card), dpi)):
-        path = guard(folder / f"{stem}-{side}.png")
+    pngs = pdf_to_pngs(card_pdf(card), dpi)
+    for face, png in enumerate(pngs):
+        side = ("front", "back")[face % 2]
+        path = guard(folder / (f"{stem}-{side}.png" if len(pngs) <= 2 else f"{stem}-card{face // 2 + 1}-{side}.png"))
         write_atomic(path, png)
         written.append(path)
     return written
@@ -158,8 +161,9 @@ def _make_folder(folder: Path) -> None:
 class Export:
     """What `export_cards` made: counts and files match what was written, failures name their files."""
 
-    cards: int = 0
+    cards: int = 0  #: aircraft whose card was made
     pages: int = 0  #: pages (or sheets) of the one PDF
+    made: list[tuple[str, int, int]] = field(default_factory=list)  #: (registration, cards, faces) per aircraft
     written: list[Path] = field(default_factory=list)  #: every file written, PDFs and PNGs
     failures: list[Failure] = field(default_factory=list)
     warnings: list[Problem] = field(default_factory=list)
@@ -192,7 +196,7 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
     `progress(done, total, name)` may return False to cancel; then the one PDF is not written.
     """
     from kneeboard.card.render import PdfWriter
-    from kneeboard.card.sheets import grid_for, impose
+    from kneeboard.card.sheets import grid_for, impose, physical_cards
 
     result = Export()
     ordered = registration_order(paths)
@@ -216,10 +220,10 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
     group: list = []  # cards waiting to fill a sheet
     grid = None
 
-    def flush() -> None:
-        if group:
-            writer.add(impose(group, sheet))
-            group.clear()
+    def flush(full_only: bool = False) -> None:
+        while group and (len(group) >= grid.per_sheet or not full_only):
+            writer.add(impose(group[:grid.per_sheet], sheet))
+            del group[:grid.per_sheet]
 
     for i, path in enumerate(ordered):
         if progress is not None and progress(i, len(ordered), path.name) is False:
@@ -244,9 +248,8 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
                     result.failures.append(Failure(path, [f"{printable(path)}: its card is not the size of the "
                                                           "others on the sheet; print it on its own"]))
                     continue
-                group.append(card.pages)
-                if len(group) == grid.per_sheet:
-                    flush()
+                group.extend(physical_cards([card.pages]))  # a card set fills a slot per physical card
+                flush(full_only=True)
         if each is not None:
             target = guard(each / f"{stem}.pdf")
             write_atomic(target, card_pdf(card))
@@ -255,6 +258,7 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
             folder, prefix = (each, "") if each is not None else (out.parent, f"{out.stem}-")
             result.written += _pngs(card, folder, f"{prefix}{stem}", png_dpi, guard)
         result.cards += 1
+        result.made.append((card.registration, card.layout.cards, card.layout.faces))
     if progress is not None:
         progress(len(ordered), len(ordered), "")
     if writer is not None and result.cards:

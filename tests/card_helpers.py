@@ -12,7 +12,7 @@ from kneeboard.profile_io import load_profile, read_source, source_from_text
 
 MADE_ON = "2026-12-01"
 #: The blocks a 4x6 card holds for the powered samples (every block would not fit: the layout says so by name).
-SMALL_CARD = ("header", "margin-table", "margin-chart", "limits", "turns", "notes")
+SMALL_CARD = ("header", "margin-table", "limits", "turns", "margin-chart", "notes")
 
 
 @cache

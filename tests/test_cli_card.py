@@ -33,7 +33,7 @@ def test_fleet_on_letter_sheets(capsys, tmp_path):
 def test_one_card_4x6_and_registration_order(capsys, tmp_path):
     out = tmp_path / "one.pdf"
     small = tmp_path / "small.style.toml"  # a 4x6 card holds the essential blocks; every block would not fit
-    small.write_text('front = ["header", "margin-table", "margin-chart", "limits", "turns", "notes"]\n')
+    small.write_text('front = ["header", "margin-table", "limits", "turns", "margin-chart", "notes"]\n')
     code, _, err = run(capsys, "card", SAMPLES / "demo_trainer.toml", "-o", out, "--size", "4x6", "--style", small)
     assert code == 0, err
     p = pages(out)

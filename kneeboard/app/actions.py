@@ -241,7 +241,7 @@ class CardActions:
         style, problems = self.session.style_for(self.doc.path if self.doc is not None else None)
         if style is None:
             style, _ = load_style(None)
-        dialog = StyleDialog(style, self)
+        dialog = StyleDialog(style, self, faces=self._faces_with(style, target.parent))
         if not self.ask_style(dialog):
             return None
         try:
@@ -254,6 +254,29 @@ class CardActions:
         self.session.reload_styles()
         self._forget_prepared()
         return target
+
+    def _faces_with(self, style, folder: Path):
+        """For the style dialog: the open profile's card with the dialog's values, as "1 card, 2 faces"."""
+        prepared = self.doc.loaded if self.doc is not None else None
+        if prepared is None or prepared.table is None:
+            return None
+
+        def faces(values: dict) -> str:
+            from kneeboard.card import LayoutError, layout_card
+            from kneeboard.card.style import style_from_data
+            from kneeboard.pipeline import today
+
+            trial, problems = style_from_data({**values, "back": list(style.back), "logo": ""}, folder)
+            if any(p.is_error for p in problems):
+                return "not known: " + "; ".join(str(p) for p in problems if p.is_error)
+            try:
+                layout = layout_card(prepared.table, trial, prepared.fingerprint, today(), style.logo_png)
+            except LayoutError as exc:
+                return f"cannot be made: {exc}"
+            n, f = layout.cards, layout.faces
+            return f"{n} card{'s' if n != 1 else ''}, {f} face{'s' if f != 1 else ''} ({prepared.table.registration})"
+
+        return faces
 
     def ask_style(self, dialog) -> bool:
         """Show the style dialog; True when the person saved it (a test replaces this)."""

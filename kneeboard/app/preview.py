@@ -38,6 +38,8 @@ from PySide6.QtPdf import QPdfDocument
 from PySide6.QtPdfWidgets import QPdfView
 from PySide6.QtWidgets import QComboBox, QGridLayout, QLabel, QSizePolicy, QToolBar, QVBoxLayout, QWidget
 
+from kneeboard.app.pages import page_labels
+
 __all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
 
 log = logging.getLogger(__name__)
@@ -70,13 +72,6 @@ def open_pdf(pdf: bytes, parent: QObject | None = None) -> QPdfDocument:
         doc.deleteLater()
         raise ValueError(f"the PDF could not be read ({reason})")
     return doc
-
-
-def page_labels(count: int) -> list[str]:
-    """Names of the pages in the page selector: a card's two sides, or plain numbers."""
-    if count <= 2:
-        return ["Front", "Back"][:count]
-    return [f"Page {i + 1} of {count}" for i in range(count)]
 
 
 def _failure_text(exc: Exception) -> str:
@@ -332,7 +327,7 @@ class CardPreview(QWidget):
             self._pages.blockSignals(False)
 
     def _fill_page_selector(self, count: int, current: int) -> None:
-        labels = page_labels(count)
+        labels = page_labels(count, self.mode())
         self._pages.blockSignals(True)
         if [self._pages.itemText(i) for i in range(self._pages.count())] != labels:
             self._pages.clear()

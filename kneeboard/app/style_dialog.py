@@ -35,7 +35,9 @@ SIZE_LABELS = {"a5": "A5 (148 x 210 mm)", "half-letter": "Half letter (5.5 x 8.5
 class StyleDialog(QDialog):
     """Shows a style; `save(path)` writes it, keeping the file's comments and other keys."""
 
-    def __init__(self, style: CardStyle, parent=None):
+    def __init__(self, style: CardStyle, parent=None, faces=None):
+        """`faces(values)`, when given, says how many cards and faces the open profile's card takes with the
+        dialog's values (a line the dialog shows and keeps up to date)."""
         super().__init__(parent)
         self.setWindowTitle("Card style")
         self.style_in = style
@@ -74,12 +76,26 @@ class StyleDialog(QDialog):
         form.addRow("Binding edge", self.binding)
         form.addRow(QLabel("Blocks, in order (drag to reorder; the caution is always printed):"))
         form.addRow(self.blocks)
+        self.faces = QLabel()
+        self.faces.setObjectName("faces")
+        self._faces_of = faces
+        if faces is not None:
+            form.addRow("This profile's card", self.faces)
+            for signal in (self.scale.valueChanged, self.size.currentIndexChanged,
+                           self.orientation.currentIndexChanged, self.binding.currentIndexChanged,
+                           self.organization.textChanged, self.blocks.itemChanged, self.blocks.model().rowsMoved):
+                signal.connect(self.show_faces)
+            self.show_faces()
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Save | QDialogButtonBox.StandardButton.Cancel)
         buttons.accepted.connect(self.accept)
         buttons.rejected.connect(self.reject)
         box = QVBoxLayout(self)
         box.addLayout(form)
         box.addWidget(buttons)
+
+    def show_faces(self, *_args) -> None:
+        """How many cards and faces the open profile's card takes with what the dialog shows now."""
+        self.faces.setText(self._faces_of(self.values()))
 
     def _show_colour(self, colour: str):
         self.accent.setText(colour)

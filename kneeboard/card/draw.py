@@ -45,6 +45,7 @@ class Context:
     fingerprint: str
     made_on: str
     logo_png: bytes | None = None
+    split: bool = False  #: a table too wide for its column may break into groups of configurations
 
     def size(self, role: str) -> float:
         size = BASE_SIZE[role] * self.scale
@@ -64,6 +65,88 @@ class Block:
     name: str
     height: float
     ops: tuple
+
+
+# --- measuring before drawing ----------------------------------------------------------------------------------
+#
+# A block is planned at a type size and width (its text wrapped, its columns sized, its rows counted) without a
+# single drawing operation: the plan's `measure` says how tall each of its parts is, and where it may break. The
+# layout chooses the type size and the placement from these measures alone, then asks each plan to draw the
+# pieces it placed, once.
+
+
+@dataclass(frozen=True)
+class Section:
+    """A part of a block with its own column heads: a table (or one group of a table too wide for one), a chart."""
+
+    head: float  #: drawn atop every piece of this section [pt]; the whole section when it has no rows
+    rows: tuple[float, ...] = ()  #: the rows between which the section may break, each its height [pt]
+    grow: float = 0.0  #: more height the section would use where its column has room left (a chart) [pt]
+
+
+@dataclass(frozen=True)
+class Measure:
+    """How tall a block's parts are at one type size and width, and where it may break."""
+
+    sections: tuple[Section, ...]
+    lead: float = 0.0  #: printed once, above the first section (a title and its detail), kept with the first row
+    foot: float = 0.0  #: printed once, below the last row (a legend, a note), kept with the last row
+    again: float = 0.0  #: the title line atop a piece that continues the block in a new column or on a new face
+    gap: float = 0.0  #: between two sections that share a column
+
+    @property
+    def height(self) -> float:
+        """The whole block in one piece per section, sections one under the other."""
+        return (self.lead + self.foot + sum(s.head + sum(s.rows) for s in self.sections)
+                + self.gap * (len(self.sections) - 1))
+
+
+@dataclass(frozen=True)
+class Piece:
+    """The part of a block placed in one column: rows `start:stop` of one section, with what surrounds them."""
+
+    section: int
+    start: int = 0
+    stop: int = 0
+    lead: bool = False  #: the block's first piece: its title and detail above
+    again: bool = False  #: continues the block at the top of a column: its title line, "continued"
+    foot: bool = False  #: the block's last piece: its legend or note below
+    extra: float = 0.0  #: room given to a section that grows [pt]
+
+    def height(self, m: Measure) -> float:
+        s = m.sections[self.section]
+        return ((m.lead if self.lead else 0.0) + (m.again if self.again else 0.0) + s.head
+                + sum(s.rows[self.start:self.stop]) + (m.foot if self.foot else 0.0) + self.extra)
+
+    @staticmethod
+    def whole(m: Measure) -> list["Piece"]:
+        """The block unbroken: one piece per section."""
+        last = len(m.sections) - 1
+        return [Piece(i, 0, len(s.rows), lead=i == 0, foot=i == last) for i, s in enumerate(m.sections)]
+
+
+class Plan:
+    """A block planned at one type size and width: `measure` without drawing, then `draw(piece)` for each piece.
+
+    A plan that cannot break is one section without rows; `draw` ignores the piece's rows.
+    """
+
+    name: str
+    measure: Measure
+
+    def draw(self, piece: Piece) -> Block:
+        raise NotImplementedError
+
+
+class Whole(Plan):
+    """A block drawn in one piece by a plain `draw(ctx, width)` (a block that declares no plan of its own)."""
+
+    def __init__(self, block: Block):
+        self.name, self.block = block.name, block
+        self.measure = Measure((Section(block.height),))
+
+    def draw(self, piece: Piece) -> Block:
+        return self.block
 
 
 class Draw:
@@ -121,7 +204,7 @@ def baseline(top: float, row_height: float, size: float) -> float:
 
 def fit_lines(block: str, text: str, font: str, size: float, max_width: float, max_lines: int) -> list[str]:
     """Wrap `text`; raise DoesNotFit when it needs more lines, or a word is wider, than allowed."""
-    lines = fonts.wrap(text, font, size, max_width)
+    lines = fonts.wrap(text, font, size, max_width, hyphenate=False)
     if len(lines) > max_lines or any(fonts.width(line, font, size) > max_width + 0.01 for line in lines):
         raise DoesNotFit(block, f"{text!r} does not fit in {max_width:.0f} pt")
     return lines

@@ -19,6 +19,7 @@ the fonts cannot draw is measured and drawn as `substitute()`, so the card marks
 import contextlib
 import io
 import os
+import re
 import threading
 import unicodedata
 import zlib
@@ -271,17 +272,79 @@ def ascent(size: float) -> float:
     return _cap_height() * size
 
 
-def wrap(text: str, font: str, size: float, max_width: float) -> list[str]:
-    """Break `text` into lines no wider than `max_width`; a single word wider than that stays whole."""
+#: Unit symbols and speed bases a number is never parted from at a line break ("100 kt IAS", "1.25 x").
+UNIT_WORDS = frozenset({"kt", "kts", "mph", "km/h", "ft", "m", "s", "g", "IAS", "CAS", "TAS", "kg", "lb", "°C", "°F",
+                        "degC", "degF", "m/s", "fpm", "L", "gal", "%", "x", "km", "NM", "nm", "min", "h", "hPa",
+                        "inHg", "kg/L", "deg"})
+_NUMBER = re.compile(r"[^\w]*[-+−]?\d[\d.,/:]*[^\w]*\Z")
+_TRAILING = ",.;:)]"
+
+
+def _is_number(word: str) -> bool:
+    return bool(_NUMBER.match(word))
+
+
+def _is_unit(word: str) -> bool:
+    return word.rstrip(_TRAILING) in UNIT_WORDS
+
+
+def glued(words: list[str]) -> list[list[str]]:
+    """Words in the groups a line never breaks inside: a number with the unit symbols after it ("100 kt IAS"), and
+    a number without a unit with the word before it ("flaps 15", "at 45°")."""
+    groups: list[list[str]] = []
+    i = 0
+    while i < len(words):
+        word = words[i]
+        group = [word]
+        if _is_number(word):
+            while i + 1 < len(words) and _is_unit(words[i + 1]) and not group[-1].endswith(tuple(_TRAILING)):
+                i += 1
+                group.append(words[i])
+            if len(group) == 1 and groups and not _is_number(groups[-1][-1]) \
+                    and not groups[-1][-1].endswith(tuple(",.;:")):
+                groups[-1].append(word)
+                i += 1
+                continue
+        groups.append(group)
+        i += 1
+    return groups
+
+
+def wrap(text: str, font: str, size: float, max_width: float, hyphenate: bool = True) -> list[str]:
+    """Break `text` into lines no wider than `max_width`, at spaces, never between a number and its unit or the
+    word it numbers (`glued`). A word wider than the line is broken with a hyphen when `hyphenate`, else it stays
+    whole (and the caller sees a line too wide)."""
     lines: list[str] = []
     for paragraph in text.splitlines() or [""]:
         line = ""
-        for word in paragraph.split():
-            candidate = f"{line} {word}" if line else word
-            if line and width(candidate, font, size) > max_width:
-                lines.append(line)
-                line = word
+        for group in glued(paragraph.split()):
+            chunk = " ".join(group)
+            if len(group) > 1 and width(chunk, font, size) > max_width:  # a group wider than a line: word by word
+                pieces = group
             else:
-                line = candidate
+                pieces = [chunk]
+            for piece in pieces:
+                candidate = f"{line} {piece}" if line else piece
+                if line and width(candidate, font, size) > max_width:
+                    lines.append(line)
+                    line = piece
+                else:
+                    line = candidate
+                if hyphenate and width(line, font, size) > max_width and " " not in line:
+                    broken = _hyphenated(line, font, size, max_width)
+                    lines.extend(broken[:-1])
+                    line = broken[-1]
         lines.append(line)
     return lines
+
+
+def _hyphenated(word: str, font: str, size: float, max_width: float) -> list[str]:
+    """A word too wide for a line, in pieces that fit, each but the last ending in a hyphen."""
+    pieces, rest = [], word
+    while width(rest, font, size) > max_width and len(rest) > 1:
+        cut = len(rest) - 1
+        while cut > 1 and width(rest[:cut] + "-", font, size) > max_width:
+            cut -= 1
+        pieces.append(rest[:cut] + "-")
+        rest = rest[cut:]
+    return pieces + [rest]

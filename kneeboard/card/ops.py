@@ -51,6 +51,20 @@ class Text(NamedTuple):
         return self._replace(x=self.x + dx, y=self.y + dy)
 
 
+class SideText(NamedTuple):
+    """A line of text turned a quarter to the left (read from bottom to top): a sheet's note in a narrow margin."""
+
+    x: float
+    y: float  #: the start of its baseline
+    text: str
+    font: str
+    size: float
+    color: str = "#000000"
+
+    def moved(self, dx, dy):
+        return self._replace(x=self.x + dx, y=self.y + dy)
+
+
 class Line(NamedTuple):
     x1: float
     y1: float

@@ -14,7 +14,7 @@ from reportlab.pdfgen.canvas import Canvas
 
 from kneeboard import __version__
 from kneeboard.card import fonts
-from kneeboard.card.ops import Circle, Image, Line, Path, Rect, Text
+from kneeboard.card.ops import Circle, Image, Line, Path, Rect, SideText, Text
 
 HATCH_SPACING = 2.8  #: distance between hatch lines [pt]
 
@@ -298,5 +298,15 @@ def _image(pen: _Pen, op: Image) -> None:
                     preserveAspectRatio=True, anchor="e")
 
 
-_DRAW = {Line: _line, Rect: _rect, Path: _path, Circle: _circle, Image: _image}
+def _side_text(pen: _Pen, op: SideText) -> None:
+    t = pen.c.beginText()
+    t.setFont(op.font, op.size)
+    t.setFillColor(colour(op.color))
+    t.setTextTransform(0, 1, -1, 0, op.x, op.y)  # a quarter turn to the left
+    t._textOut(fonts.printable(op.text))
+    pen.c.drawText(t)
+    pen.fill = op.color
+
+
+_DRAW = {Line: _line, Rect: _rect, Path: _path, Circle: _circle, Image: _image, SideText: _side_text}
 

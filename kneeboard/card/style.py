@@ -36,6 +36,7 @@ _COLOUR = re.compile(r"#[0-9A-Fa-f]{6}\Z")
 MAX_ORGANIZATION = 60  #: characters
 LEGACY_ORGANIZATION = "organisation"  #: the key's British spelling, accepted with a warning
 MAX_LOGO_NAME = 200  #: characters of the logo's file name as written
+MAX_FACES = 24  #: the most faces a style may allow (twelve cards)
 
 
 @dataclass(frozen=True)
@@ -49,6 +50,7 @@ class CardStyle:
     binding: str = "none"  #: "none" | "left" | "top": a wider edge for a punch or ring binder
     front: tuple[str, ...] | None = None  #: blocks in order (None: every registered block); overflow goes back
     back: tuple[str, ...] = ()  #: blocks always printed on a back page
+    max_faces: int | None = None  #: the most faces a card may take (two a card); None: as many as it needs
     bank_angles_deg: tuple[float, ...] | None = None  #: overrides the profiles' when set
     speed_unit: str | None = None
     distance_unit: str | None = None
@@ -99,7 +101,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
             data = {**data, "organization": data[LEGACY_ORGANIZATION]}
         data = {k: v for k, v in data.items() if k != LEGACY_ORGANIZATION}
     known = {"style", "organization", "logo", "accent", "font_scale", "size", "orientation", "binding", "front",
-             "back", "bank_angles", "speed_unit", "distance_unit"}
+             "back", "max_faces", "bank_angles", "speed_unit", "distance_unit"}
     for key in data:
         if key not in known:
             bad(key_text(key), "unknown key, not used", "", data[key], WARNING)
@@ -131,6 +133,12 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     back = _blocks(data, "back", (), bad) or ()
     for name in set(front or ()) & set(back):
         bad("back", f"{name!r} is listed on both the front and the back", "each block once", name)
+    max_faces = data.get("max_faces")
+    if max_faces is not None and (isinstance(max_faces, bool) or not isinstance(max_faces, int)
+                                  or not 1 <= max_faces <= MAX_FACES):
+        bad("max_faces", "is not accepted", f"a whole number of faces from 1 to {MAX_FACES} (two to a card)",
+            max_faces)
+        max_faces = None
     logo, logo_bytes = _logo(data.get("logo"), folder, bad)
     banks = data.get("bank_angles")
     if banks is not None and not (
@@ -158,6 +166,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
         binding=binding,
         front=front,
         back=back,
+        max_faces=max_faces,
         bank_angles_deg=None if banks is None else tuple(sorted({float(b) for b in banks})),
         speed_unit=speed_unit,
         distance_unit=distance_unit,
@@ -235,7 +244,7 @@ def organization_problems(style: CardStyle) -> list[Problem]:
     if not text:
         return []
     room = organization_room(style.size, style.landscape, style.binding, style.logo is not None)
-    lines = fonts.wrap(text, fonts.BOLD, MIN_TEXT, max(room, 1.0))
+    lines = fonts.wrap(text, fonts.BOLD, MIN_TEXT, max(room, 1.0), hyphenate=False)
     if len(lines) <= 2 and all(fonts.width(line, fonts.BOLD, MIN_TEXT) <= room for line in lines):
         return []
     card = style.size + (" landscape" if style.landscape else "")

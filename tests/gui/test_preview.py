@@ -43,9 +43,10 @@ def tourer_job(weight: float | None = None, **changes):
 
 
 def layout_error() -> LayoutError:
-    """The real error of a card that cannot be laid out: two dozen bank angles on a 4x6 card."""
+    """The real error of a card that cannot be laid out: two dozen bank angles on a 4x6 card capped at 2 faces."""
     try:
-        card_of("demo_tourer", style().with_changes(size="4x6"), bank_angles=tuple(float(b) for b in range(0, 72, 3)))
+        card_of("demo_tourer", style().with_changes(size="4x6", max_faces=2),
+                bank_angles=tuple(float(b) for b in range(0, 72, 3)))
     except LayoutError as exc:
         return exc
     raise AssertionError("this card was expected not to fit")
@@ -188,12 +189,13 @@ def test_zoom_steps_stop_at_their_limits(qtbot, preview):
     assert not control(preview, QAction, "fitWidth").isChecked()
 
 
-def test_pages_are_named_front_and_back_or_numbered(qtbot, preview):
+def test_pages_are_named_front_and_back_or_by_card_and_face(qtbot, preview):
     pages = control(preview, QComboBox, "pageSelector")
     cards = [tourer_card(), tourer_card(1000.0), tourer_card(1100.0)]
-    show(qtbot, preview, lambda: fleet_pdf(cards))
+    show(qtbot, preview, lambda: fleet_pdf(cards))  # six faces: three cards, as a card set of three shows them
     assert preview.page_count() == 6
-    assert [pages.itemText(i) for i in range(pages.count())] == [f"Page {i} of 6" for i in range(1, 7)]
+    assert [pages.itemText(i) for i in range(pages.count())] == [
+        f"Card {i // 2 + 1} of 3 · {('front', 'back')[i % 2]} (face {i + 1} of 6)" for i in range(6)]
     pages.setCurrentIndex(4)
     assert preview.current_page() == 4
 

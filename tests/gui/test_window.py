@@ -9,7 +9,7 @@ import pytest
 from pypdf import PdfReader
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QKeySequence
-from PySide6.QtWidgets import QMenu, QMessageBox
+from PySide6.QtWidgets import QLabel, QMenu, QMessageBox
 
 from kneeboard import terms
 from kneeboard.app.dialogs import CompareDialog
@@ -297,6 +297,15 @@ def test_edit_the_fleet_style_from_the_menu(qtbot, window, fleet):
         dialog.organization.setText("Aeroklub Říčany (invented)")
         sizes = [dialog.size.itemText(i) for i in range(dialog.size.count())]
         assert "5 x 8 in" in sizes and "4 x 6 in" in sizes  # sizes say inches
+        # the open profile's card, counted with the dialog's values as they change
+        layout = window.session.card(window.doc.loaded).layout
+        faces = dialog.findChild(QLabel, "faces")
+        assert faces.text().startswith(f"{layout.cards} card{'s' if layout.cards > 1 else ''}, {layout.faces} face")
+        dialog.size.setCurrentIndex(dialog.size.findData("4x6"))
+        dialog.orientation.setCurrentIndex(dialog.orientation.findData("landscape"))
+        cards = int(faces.text().split()[0])
+        assert cards > layout.cards and "faces" in faces.text()  # a 4x6 landscape card takes a card set
+        dialog.orientation.setCurrentIndex(dialog.orientation.findData("portrait"))
         dialog.size.setCurrentIndex(dialog.size.findData("5x8"))
         return True
 

@@ -14,7 +14,7 @@ from kneeboard.card.blocks import (
 from kneeboard.card.blocks.registry import BlockSpec, get, labels, names, register, unregister
 
 #: The built-in blocks in the order a card shows them when a style lists none.
-BUILT_IN = (header, margin_table, margin_chart, limits, pull, turns, circling, turn_back, notes)
+BUILT_IN = (header, margin_table, limits, pull, turns, circling, turn_back, margin_chart, notes)
 
 for _module in BUILT_IN:
     register(_module.SPEC)

@@ -6,23 +6,41 @@ from kneeboard.card.draw import GREY, INK, WHITE, Context, DoesNotFit, Draw, wei
 from kneeboard.card.ops import CAUTION, SMALL
 from kneeboard.texts import CAUTION_CARD
 
+SHORT_WARNINGS = 2  #: warnings of at most this many lines are printed in full on every face, more on the first
+
+
+def face_label(face: int, faces: int) -> str:
+    """Which face of the card (or of the card set) this is, as its footer says: "" for a one-face card."""
+    if faces <= 1:
+        return ""
+    side = "front" if face % 2 == 1 else "back"
+    if faces <= 2:
+        return f"{side} {face}/{faces}"
+    return f"card {(face + 1) // 2} of {(faces + 1) // 2} · {side}"
+
 
 def caution(ctx: Context, width: float, page: int, pages: int):
-    """Every warning about this card, then the caution, on every page, with a footer line naming the card.
+    """Every warning about this card, then the caution, on every face, with a footer line naming the card.
 
     A card never prints silently under a warning: each one is a line beginning with WARNING, in bold, on a
-    white-on-black lead so it is not mistaken for a note.
+    white-on-black lead so it is not mistaken for a note. The first face carries every warning in full; a later
+    face too when they take at most SHORT_WARNINGS lines, else one WARNING line saying how many and where.
     """
     t = ctx.table
     d = Draw(ctx)
     cs, ss = ctx.size(CAUTION), ctx.size(SMALL)
     bar = 2.5
     y = -cs * 0.3
-    for warning in t.warnings:
-        text = warning.removeprefix("WARNING").strip()
-        lead = "WARNING"
-        lead_w = fonts.width(lead, fonts.BOLD, cs) + cs * 0.6
-        wrapped = fonts.wrap(text, fonts.BOLD, cs, width - lead_w - cs * 0.4)
+    lead = "WARNING"
+    lead_w = fonts.width(lead, fonts.BOLD, cs) + cs * 0.6
+    warnings = [fonts.wrap(w.removeprefix("WARNING").strip(), fonts.BOLD, cs, width - lead_w - cs * 0.4)
+                for w in t.warnings]
+    if page > 1 and sum(len(lines) for lines in warnings) > SHORT_WARNINGS:
+        # the first face carries every warning in full; the others say how many and where, in the same black lead
+        count = f"{len(warnings)} warnings" if len(warnings) > 1 else "a warning"
+        warnings = [fonts.wrap(f"this card carries {count}: read them on the front of card 1", fonts.BOLD, cs,
+                               width - lead_w - cs * 0.4)]
+    for wrapped in warnings:
         for k, line in enumerate(wrapped):
             y -= cs * 1.2
             if k == 0:
@@ -41,7 +59,7 @@ def caution(ctx: Context, width: float, page: int, pages: int):
             d.text(bar + 4, y, line, CAUTION)
     d.rect(0, top, bar, top - y + cs * 0.35, fill=INK)
     items = [t.registration, weight_text(t), f"fingerprint {ctx.fingerprint}", ctx.made_on]
-    side = f"{'front' if page == 1 else 'back'} {page}/{pages}" if pages > 1 else ""
+    side = face_label(page, pages)
     room = width - (fonts.width(side, fonts.BOLD, ss) + ss if side else 0)
     lines = [""]
     for item in items:
@@ -50,7 +68,7 @@ def caution(ctx: Context, width: float, page: int, pages: int):
             lines.append(item)
         else:
             lines[-1] = candidate
-    if len(lines) > 2 or any(fonts.width(line, fonts.REGULAR, ss) > room for line in lines):
+    if len(lines) > 3 or any(fonts.width(line, fonts.REGULAR, ss) > room for line in lines):
         raise DoesNotFit("caution", "the footer line is wider than the card")
     y -= ss * 0.3
     for k, line in enumerate(lines):

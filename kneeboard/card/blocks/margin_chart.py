@@ -22,8 +22,9 @@ import numpy as np
 
 from kneeboard import terms
 from kneeboard.card import fonts
+from kneeboard.card.blocks.grid import groups_of
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, figure
+from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, figure
 from kneeboard.card.ops import LOWER_IS_WORSE, SMALL, Circle, Path, Text
 
 NAME = "margin-chart"
@@ -43,26 +44,20 @@ def _nice_step(span: float, most: int) -> float:
     return 500.0
 
 
-def preferred_height(ctx: Context, width: float) -> float:
-    return min(width * 0.62, 250.0 * ctx.scale) + _legend_height(ctx, width)
+GROUP = len(SHAPES)  #: configurations per chart: each its own marker shape; more make a second chart
 
 
-def minimum_height(ctx: Context, width: float) -> float:
-    return MIN_PLOT + _axes_height(ctx) + _legend_height(ctx, width)
-
-
-def sizes(ctx: Context, width: float) -> tuple[float, float]:
-    return minimum_height(ctx, width), preferred_height(ctx, width)
+def _plot_preferred(ctx: Context, width: float) -> float:
+    return min(width * 0.62, 250.0 * ctx.scale)
 
 
 def _axes_height(ctx: Context) -> float:
     return ctx.size(SMALL) * (PLOT_TOP + PLOT_BOTTOM)
 
 
-def _legend_height(ctx: Context, width: float) -> float:
-    ss = ctx.size(SMALL)
-    key_lines = len(fonts.wrap(_key_text(ctx), fonts.REGULAR, ss, width))
-    return ss * 1.45 * (sum(len(row) for row in _legend_rows(ctx, width)) + key_lines) + ss * 0.9
+def _key_text(ctx: Context) -> str:
+    t = ctx.table
+    return f"filled marker: zero-margin bank; open: buffer bank ({t.buffer.text} {t.speed_unit})"
 
 
 def _legend_items(ctx: Context, i: int) -> list[tuple[str, str | None, str]]:
@@ -75,21 +70,16 @@ def _legend_items(ctx: Context, i: int) -> list[tuple[str, str | None, str]]:
     return items
 
 
-def _key_text(ctx: Context) -> str:
-    t = ctx.table
-    return f"filled marker: zero-margin bank; open: buffer bank ({t.buffer.text} {t.speed_unit})"
-
-
 def _piece_width(ss: float, kind: str, text: str) -> float:
     lead = ss * 3.0 if kind == "line" else ss * 1.3 if kind == "marker" else 0.0
     return lead + fonts.width(text, fonts.BOLD if kind == "line" else fonts.REGULAR, ss) + ss * 1.2
 
 
-def _legend_rows(ctx: Context, width: float) -> list[list[list[tuple]]]:
+def _legend_rows(ctx: Context, width: float, configurations) -> list[list[list[tuple]]]:
     """Per configuration, its pieces in lines: a row wraps where the width runs out, never mid-piece."""
     ss = ctx.size(SMALL)
     out = []
-    for i in range(len(ctx.table.configurations)):
+    for i in configurations:
         lines, x = [[]], 0.0
         for piece in _legend_items(ctx, i):
             w = _piece_width(ss, piece[0], piece[2])
@@ -100,6 +90,32 @@ def _legend_rows(ctx: Context, width: float) -> list[list[list[tuple]]]:
             x += w
         out.append(lines)
     return out
+
+
+class MarginChart(Plan):
+    """The chart planned: one chart per group of at most four configurations (one marker shape each), each with
+    its legend rows; the key to the markers once, under the last."""
+
+    name = NAME
+
+    def __init__(self, ctx: Context, width: float):
+        self.ctx, self.width = ctx, width
+        ss = ctx.size(SMALL)
+        n = len(ctx.table.configurations)
+        self.groups = groups_of(n, GROUP)
+        self.legends = [_legend_rows(ctx, width, g) for g in self.groups]
+        self.key = fonts.wrap(_key_text(ctx), fonts.REGULAR, ss, width)
+        sections = []
+        for legend in self.legends:
+            rows_h = ss * 1.45 * sum(len(lines) for lines in legend)
+            least = MIN_PLOT + _axes_height(ctx) + rows_h
+            sections.append(Section(least, grow=max(_plot_preferred(ctx, width) + rows_h - least, 0.0)))
+        self.measure = Measure(tuple(sections), foot=ss * 1.45 * len(self.key) + ss * 0.9, gap=ss)
+
+    def draw(self, piece: Piece):
+        height = self.measure.sections[piece.section].head + piece.extra
+        return _draw(self.ctx, self.width, height, self.groups[piece.section], self.legends[piece.section],
+                     self.key if piece.foot else ())
 
 
 def marker(d: Draw, shape: str, x: float, y: float, r: float, fill: str | None, stroke: str | None = INK) -> None:
@@ -117,16 +133,16 @@ def marker(d: Draw, shape: str, x: float, y: float, r: float, fill: str | None, 
     d.path(pts, color=stroke, width=0.9, closed=True, fill=fill)
 
 
-def draw(ctx: Context, width: float, height: float | None = None):
-    if height is None:
-        height = preferred_height(ctx, width)
+def _draw(ctx: Context, width: float, height: float, group, legend, key):
+    """One chart of the configurations in `group` in `height` (plot and legend rows), then the `key` lines."""
     t = ctx.table
-    curves = t.curves
+    curves = [t.curves[i] for i in group]
+    printed_configurations = [t.configurations[i] for i in group]
     d = Draw(ctx)
     ss = ctx.size(SMALL)
     accent = ctx.style.accent
     su = t.speed_unit
-    plot_h = height - _legend_height(ctx, width)
+    plot_h = height - ss * 1.45 * sum(len(lines) for lines in legend)
 
     limit = math.degrees(t.results.limit_bank)
     banks_max = max(max(r.bank_deg for r in t.configurations[0].rows), max(c.zero_margin_bank_deg for c in curves),
@@ -140,7 +156,7 @@ def draw(ctx: Context, width: float, height: float | None = None):
     y_hi = math.ceil(y_hi / step) * step
 
     label_w = fonts.width(f"{y_hi:.0f}", fonts.REGULAR, ss) + ss * 0.6
-    pattern_w = max(fonts.width(f"pattern {c.pattern_speed.text}", fonts.BOLD, ss) for c in t.configurations)
+    pattern_w = max(fonts.width(f"pattern {c.pattern_speed.text}", fonts.BOLD, ss) for c in printed_configurations)
     px0, px1 = label_w, width - pattern_w - ss * 0.6
     py1, py0 = -ss * PLOT_TOP, -plot_h + ss * PLOT_BOTTOM  # top and bottom of the plot area
     if px1 - px0 < 80 or py1 - py0 < MIN_PLOT - 0.01:
@@ -189,7 +205,7 @@ def draw(ctx: Context, width: float, height: float | None = None):
         d.path(shade, color=None, closed=True, fill=colour, fill_alpha=0.08 if i == 0 else 0.05)
         d.line(X(0), Y(c.pattern_speed), px1, Y(c.pattern_speed), colour, 0.9, dash)
         d.path([(X(b), Y(s)) for b, s in stall], colour, 2.0, dash)
-        printed = t.configurations[i]
+        printed = printed_configurations[i]
         d.line(px1, Y(c.pattern_speed), px1 + ss * 0.25, pattern_ys[i] + ss * 0.35, colour, 0.6)
         d.text(px1 + ss * 0.3, pattern_ys[i], f"pattern {printed.pattern_speed.text}", SMALL, True, color=colour,
                figures=figure(terms.label(c.name, terms.PATTERN), printed.pattern_speed, su))
@@ -200,12 +216,15 @@ def draw(ctx: Context, width: float, height: float | None = None):
             yb = Y(float(np.interp(c.buffer_bank_deg, c.bank_deg, c.stall_speed)))
             markers.append((shape, X(c.buffer_bank_deg), yb, WHITE))
     r = ss * 0.45
-    for shape, x, y, fill in markers:
-        marker(d, shape, x, y, r, fill)
+    for shape, x, y, fill, (mx, my) in _apart(markers, r, py0, py1):
+        if (mx, my) != (x, y):  # moved off a marker it would merge with: a leader back to the point it marks
+            d.line(x, y, mx, my, INK, 0.5)
+            d.circle(x, y, 0.9, fill=INK)
+        marker(d, shape, mx, my, r, fill)
 
     y = -plot_h
-    for i, lines in enumerate(_legend_rows(ctx, width)):
-        printed = t.configurations[i]
+    for i, lines in enumerate(legend):
+        printed = printed_configurations[i]
         colour = COLOURS[i % len(COLOURS)] or accent
         shape = SHAPES[i % len(SHAPES)]
         for k, line in enumerate(lines):
@@ -226,10 +245,29 @@ def draw(ctx: Context, width: float, height: float | None = None):
                 bold = kind == "line"
                 d.text(x, y, text, SMALL, bold, color=INK if kind != "text" else GREY, figures=tag)
                 x += fonts.width(text, fonts.BOLD if bold else fonts.REGULAR, ss) + ss * 1.2
-    for line in fonts.wrap(_key_text(ctx), fonts.REGULAR, ss, width):
+    for line in key:
         y -= ss * 1.45
         d.text(0, y, line, SMALL, color=GREY)
-    return d.block(NAME, -(y - ss * 0.6))
+    return d.block(NAME, height + (ss * 1.45 * len(key) + ss * 0.9 if key else 0.0))
+
+
+def _apart(markers, r: float, low: float, high: float):
+    """Each marker with where it is drawn: at its point, or, where it would touch a marker already placed, the
+    nearest place above or below that touches none (the chart's legend repeats every bank in figures)."""
+    reach = r * 1.25  # half the size of the largest shape
+    step = reach * 2 + 1.0
+    placed, out = [], []
+    for shape, x, y, fill in markers:
+        spot = (x, y)
+        for k in range(0, 12):
+            dy = (k + 1) // 2 * step * (1 if k % 2 else -1)
+            candidate = (x, min(max(y + dy, low + reach), high - reach))
+            if all(abs(candidate[0] - px) >= step or abs(candidate[1] - py) >= step for px, py in placed):
+                spot = candidate
+                break
+        placed.append(spot)
+        out.append((shape, x, y, fill, spot))
+    return out
 
 
 def label_boxes(block) -> list[tuple[float, float, float, float]]:
@@ -280,4 +318,4 @@ def _clip(banks, speeds, x_max, y_hi):
     return points
 
 
-SPEC = BlockSpec(NAME, "Margin chart", draw, sizes=sizes)
+SPEC = BlockSpec(NAME, "Margin chart", plan=MarginChart)

@@ -1,24 +1,40 @@
-"""Notes: the profile's own words, wrapped to the column."""
+"""Notes: the profile's own words, wrapped to the column; a long note continues line by line on the next face."""
 
 from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import Context, DoesNotFit, Draw
+from kneeboard.card.draw import Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import HEADING, LABEL
 
 NAME = "notes"
+TITLE = "NOTES"
 
 
-def draw(ctx: Context, width: float, _height=None):
-    d = Draw(ctx)
-    hs, ls = ctx.size(HEADING), ctx.size(LABEL)
-    d.text(0, -hs, "NOTES", HEADING, True, color=ctx.style.accent)
-    y = -hs * 1.3
-    for line in fonts.wrap(ctx.table.notes, fonts.REGULAR, ls, width):
-        if fonts.width(line, fonts.REGULAR, ls) > width:
+class Notes(Plan):
+    name = NAME
+
+    def __init__(self, ctx: Context, width: float):
+        self.ctx = ctx
+        self.hs, self.ls = hs, ls = ctx.size(HEADING), ctx.size(LABEL)
+        self.lines = fonts.wrap(ctx.table.notes, fonts.REGULAR, ls, width)
+        if any(fonts.width(line, fonts.REGULAR, ls) > width for line in self.lines):
             raise DoesNotFit(NAME, "a word is wider than the card")
-        y -= ls * 1.25
-        d.text(0, y, line, LABEL)
-    return d.block(NAME, -y + ls * 0.6)
+        self.measure = Measure((Section(0.0, (ls * 1.25,) * len(self.lines)),), lead=hs * 1.3, foot=ls * 0.6,
+                               again=hs * 1.3)
+
+    def draw(self, piece: Piece):
+        d = Draw(self.ctx)
+        hs, ls = self.hs, self.ls
+        y = 0.0
+        if piece.lead or piece.again:
+            d.text(0, -hs, TITLE if piece.lead else f"{TITLE} (continued)", HEADING, True,
+                   color=self.ctx.style.accent)
+            y = -hs * 1.3
+        for line in self.lines[piece.start:piece.stop]:
+            y -= ls * 1.25
+            d.text(0, y, line, LABEL)
+        if piece.foot:
+            y -= ls * 0.6
+        return d.block(NAME, -y)
 
 
-SPEC = BlockSpec(NAME, "Notes", draw, applies=lambda table: bool(table.notes.strip()))
+SPEC = BlockSpec(NAME, "Notes", plan=Notes, applies=lambda table: bool(table.notes.strip()))

@@ -10,6 +10,8 @@ Adding a block is adding one module (and importing it in `kneeboard/card/blocks/
 from collections.abc import Callable
 from dataclasses import dataclass
 
+from kneeboard.card.draw import Plan, Whole
+
 
 def always(_table) -> bool:
     return True
@@ -19,19 +21,25 @@ def always(_table) -> bool:
 class BlockSpec:
     """One kind of block on a card.
 
-    `draw(ctx, width, height)` returns the block (`draw.Block`) laid out in `width` [pt]; `height` is None for a
-    block of natural height, or the height it is given when it can grow (then `sizes(ctx, width)` says its least
-    readable and its preferred height [pt]). `draw` raises `draw.DoesNotFit` when it cannot be printed legibly in
-    the room offered.
+    `plan(ctx, width)` returns the block planned at the context's type size in `width` [pt] (`draw.Plan`): its
+    measure, taken without drawing, says how tall its parts are and where it may break; the layout then asks the
+    plan to draw the pieces it placed. A simple block may give `draw(ctx, width)` instead, returning the whole
+    block (`draw.Block`) in one piece. Either raises `draw.DoesNotFit` when the block cannot be printed legibly in
+    `width`.
     """
 
     name: str  #: as a style lists it: "margin-table"
     label: str  #: what the style dialog shows
-    draw: Callable
+    draw: Callable | None = None  #: draw(ctx, width) -> Block, for a block without a plan of its own
     applies: Callable = always  #: applies(table) -> whether this card has anything to show in the block
-    sizes: Callable | None = None  #: sizes(ctx, width) -> (minimum, preferred) for a block that grows
-    front_only: bool = False  #: a card without it on its front page is no card
     full_width: bool = False  #: spans the whole page width above the columns (the header)
+    plan: Callable | None = None  #: plan(ctx, width) -> Plan
+
+    def planned(self, ctx, width: float) -> Plan:
+        """The block planned at `ctx`'s type size in `width`."""
+        if self.plan is not None:
+            return self.plan(ctx, width)
+        return Whole(self.draw(ctx, width))
 
 
 _BLOCKS: dict[str, BlockSpec] = {}
@@ -41,6 +49,8 @@ def register(spec: BlockSpec) -> BlockSpec:
     """Add a block (after those already registered); a name can be registered once."""
     if spec.name in _BLOCKS:
         raise ValueError(f"a block named {spec.name!r} is registered already")
+    if spec.plan is None and spec.draw is None:
+        raise ValueError(f"the block {spec.name!r} has neither a plan nor a draw")
     _BLOCKS[spec.name] = spec
     return spec
 

@@ -2,67 +2,111 @@
 
 from kneeboard import terms
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NO_VALUE, Cell, grid, group_headers, heading, sub_headers
+from kneeboard.card.blocks.grid import NO_VALUE, Cell, Grid, GroupHeads, Heading, SubHeads, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, INK, RULE, Context, Draw, figure
+from kneeboard.card.draw import GREY, INK, RULE, Context, Draw, Measure, Piece, Plan, Section, figure
 from kneeboard.card.ops import LABEL, SMALL
 from kneeboard.tables import STALL
 
 NAME = "turns"
+TITLE = "TURNS AT PATTERN SPEED"
 
 
-def draw(ctx: Context, width: float, _height=None):
-    t = ctx.table
-    d = Draw(ctx)
-    fs = ctx.secondary_figure
-    du = t.distance_unit
-    y = heading(d, width, 0.0, "TURNS AT PATTERN SPEED",
-                f"density altitude {t.density_altitude.text} {du} (pressure altitude "
-                f"{t.pressure_altitude.text} {du}, {t.temperature_c.text} °C)",
-                (figure(terms.DENSITY_ALTITUDE, t.density_altitude, du),
-                 figure(terms.PRESSURE_ALTITUDE, t.pressure_altitude, du),
-                 figure(terms.TEMPERATURE, t.temperature_c, "°C")))
-    configs = t.configurations
-    bank_w = fonts.width("88°", fonts.BOLD, fs) + fs
-    group_w = (width - bank_w) / len(configs)
-    groups = [(c.name, bank_w + i * group_w, group_w) for i, c in enumerate(configs)]
-    y = group_headers(d, y, groups, ctx.size(LABEL), NAME)
-    labels = [("bank", 0, bank_w)]
-    for _, x, w in groups:
-        labels += [(f"radius {du}", x, w * 0.5), ("180°/360° s", x + w * 0.5, w * 0.5)]
-    y = sub_headers(d, NAME, y, labels)
-    d.line(0, y, width, y, INK, 0.6)
-    columns = [(0, bank_w)]
-    for _, x, w in groups:
-        columns += [(x, w * 0.5), (x + w * 0.5, w * 0.5)]
-    rows = []
-    for i, first in enumerate(configs[0].rows):
-        if first.turn_radius is None or all(c.rows[i].state == STALL for c in configs):
-            continue
-        bank = terms.at_bank(first.bank_text)
-        row = [Cell(f"{first.bank_text}°", bold=True)]
-        for c in configs:
-            r = c.rows[i]
-            if r.state == STALL:
-                row += [Cell(NO_VALUE, role=LABEL), Cell(NO_VALUE, role=LABEL)]
-            else:
-                times = f"{r.time_180.text}/{r.time_360.text}"
-                row += [Cell(r.turn_radius.text, figure=figure(terms.label(c.name, bank, terms.TURN_RADIUS),
-                                                               r.turn_radius, du)),
-                        Cell(times, figure=figure(terms.label(c.name, bank, terms.TURN_TIMES), times, "s"))]
-        rows.append(row)
-    if not rows:  # every bank above 0 stalls (or none was asked for): say so rather than show an empty table
-        y -= ctx.size(SMALL) * 1.3
-        d.text(0, y, "no turn figures: no bank above 0° with margin left", SMALL, color=GREY)
-        return d.block(NAME, -(y - ctx.size(SMALL) * 0.6))
-    top = y
-    y = grid(d, NAME, y, columns, rows, fs * 1.45, fs)
-    for _, x, _w in groups:
-        d.line(x, top, x, y, RULE, 0.6)
-    if any(cell.text == NO_VALUE for row in rows for cell in row):
-        y -= ctx.size(SMALL) * 1.3
-        d.text(0, y, f"{NO_VALUE} stalled at that bank", SMALL, color=GREY)
-    return d.block(NAME, -(y - ctx.size(SMALL) * 0.6))
+class _Group:
+    """The turn table of some configurations."""
+
+    def __init__(self, ctx: Context, width: float, bank_w: float, configs):
+        t = ctx.table
+        fs, ss = ctx.secondary_figure, ctx.size(SMALL)
+        du = t.distance_unit
+        group_w = (width - bank_w) / len(configs)
+        self.groups = [(c.name, bank_w + i * group_w, group_w) for i, c in enumerate(configs)]
+        self.heads = GroupHeads(ctx, self.groups, NAME)
+        labels = [("bank", 0, bank_w)]
+        for _, x, w in self.groups:
+            labels += [(f"radius {du}", x, w * 0.5), ("180°/360° s", x + w * 0.5, w * 0.5)]
+        self.subs = SubHeads(ctx, NAME, labels)
+        columns = [(0, bank_w)]
+        for _, x, w in self.groups:
+            columns += [(x, w * 0.5), (x + w * 0.5, w * 0.5)]
+        rows = []
+        for i, first in enumerate(configs[0].rows):
+            if first.turn_radius is None or all(c.rows[i].state == STALL for c in configs):
+                continue
+            bank = terms.at_bank(first.bank_text)
+            row = [Cell(f"{first.bank_text}°", bold=True)]
+            for c in configs:
+                r = c.rows[i]
+                if r.state == STALL:
+                    row += [Cell(NO_VALUE, role=LABEL), Cell(NO_VALUE, role=LABEL)]
+                else:
+                    times = f"{r.time_180.text}/{r.time_360.text}"
+                    row += [Cell(r.turn_radius.text, figure=figure(terms.label(c.name, bank, terms.TURN_RADIUS),
+                                                                   r.turn_radius, du)),
+                            Cell(times, figure=figure(terms.label(c.name, bank, terms.TURN_TIMES), times, "s"))]
+            rows.append(row)
+        self.rows = rows
+        self.grid = Grid(NAME, columns, rows, fs * 1.45, fs) if rows else None
+        self.stalled = any(cell.text == NO_VALUE for row in rows for cell in row)
+        self.head = self.heads.height + self.subs.height if rows else ss * 1.3 + ss * 0.6
+        self.row_h = fs * 1.45
+
+    def draw(self, d: Draw, width: float, y: float, start: int, stop: int) -> float:
+        ss = d.ctx.size(SMALL)
+        if not self.rows:  # every bank above 0 stalls (or none was asked for): say so rather than an empty table
+            y -= ss * 1.3
+            d.text(0, y, "no turn figures: no bank above 0° with margin left", SMALL, color=GREY)
+            return y - ss * 0.6
+        y = self.heads.draw(d, y)
+        y = self.subs.draw(d, y)
+        d.line(0, y, width, y, INK, 0.6)
+        top = y
+        y = self.grid.draw(d, y, start, stop)
+        for _, x, _w in self.groups:
+            d.line(x, top, x, y, RULE, 0.6)
+        return y
 
 
-SPEC = BlockSpec(NAME, "Turns at pattern speed", draw)
+class Turns(Plan):
+    name = NAME
+
+    def __init__(self, ctx: Context, width: float):
+        t = ctx.table
+        self.ctx, self.width = ctx, width
+        fs, ss = ctx.secondary_figure, ctx.size(SMALL)
+        du = t.distance_unit
+        self.heading = Heading(ctx, width, TITLE,
+                               f"density altitude {t.density_altitude.text} {du} (pressure altitude "
+                               f"{t.pressure_altitude.text} {du}, {t.temperature_c.text} °C)",
+                               (figure(terms.DENSITY_ALTITUDE, t.density_altitude, du),
+                                figure(terms.PRESSURE_ALTITUDE, t.pressure_altitude, du),
+                                figure(terms.TEMPERATURE, t.temperature_c, "°C")))
+        bank_w = fonts.width("88°", fonts.BOLD, fs) + fs
+        configs = t.configurations
+        self.parts = split_configurations(ctx, len(configs),
+                                          lambda g: _Group(ctx, width, bank_w, [configs[i] for i in g]))
+        self.stalled = any(p.stalled for p in self.parts)
+        foot = (ss * 1.3 if self.stalled else 0.0) + (ss * 0.6 if any(p.rows for p in self.parts) else 0.0)
+        self.measure = Measure(tuple(Section(p.head, (p.row_h,) * len(p.rows)) for p in self.parts),
+                               lead=self.heading.height, foot=foot, again=self.heading.again, gap=fs * 0.6)
+
+    def draw(self, piece: Piece):
+        d = Draw(self.ctx)
+        ss = self.ctx.size(SMALL)
+        y = 0.0
+        if piece.lead:
+            y = self.heading.draw(d, y)
+        elif piece.again:
+            y = self.heading.draw_again(d, y)
+        part = self.parts[piece.section]
+        y = part.draw(d, self.width, y, piece.start, piece.stop)
+        if piece.foot:
+            if self.stalled:
+                y -= ss * 1.3
+                d.text(0, y, f"{NO_VALUE} stalled at that bank", SMALL, color=GREY)
+            if any(p.rows for p in self.parts):
+                y -= ss * 0.6
+        return d.block(NAME, -y)
+
+
+SPEC = BlockSpec(NAME, "Turns at pattern speed", plan=Turns)
