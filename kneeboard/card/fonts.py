@@ -300,7 +300,7 @@ def glued(words: list[str]) -> list[list[str]]:
             while i + 1 < len(words) and _is_unit(words[i + 1]) and not group[-1].endswith(tuple(_TRAILING)):
                 i += 1
                 group.append(words[i])
-            if len(group) == 1 and groups and not _is_number(groups[-1][-1]) \
+            if len(group) == 1 and groups and not any(_is_number(w) for w in groups[-1]) \
                     and not groups[-1][-1].endswith(tuple(",.;:")):
                 groups[-1].append(word)
                 i += 1
@@ -319,10 +319,11 @@ def wrap(text: str, font: str, size: float, max_width: float, hyphenate: bool = 
         line = ""
         for group in glued(paragraph.split()):
             chunk = " ".join(group)
-            if len(group) > 1 and width(chunk, font, size) > max_width:  # a group wider than a line: word by word
-                pieces = group
-            else:
-                pieces = [chunk]
+            pieces = [chunk]
+            if len(group) > 1 and width(chunk, font, size) > max_width:  # wider than a line: a number keeps its
+                pieces = group  # first unit where the two fit, every other word goes on its own
+                if len(group) > 2 and _is_number(group[0]) and width(" ".join(group[:2]), font, size) <= max_width:
+                    pieces = [" ".join(group[:2]), *group[2:]]
             for piece in pieces:
                 candidate = f"{line} {piece}" if line else piece
                 if line and width(candidate, font, size) > max_width:

@@ -17,6 +17,7 @@ for any text; table figures 10 pt on A5 and half letter, 8 pt on the smaller car
 a style that caps its faces gets a LayoutError naming the blocks left out and what would fit.
 """
 
+import math
 from dataclasses import dataclass, field, replace
 
 from kneeboard.card import blocks
@@ -80,15 +81,20 @@ def block_order(style: CardStyle) -> tuple[list[str], list[str]]:
 
 
 def scales_for(style: CardStyle) -> list[float]:
-    """The type scales to try, largest first: from the style's (or the floor, if it asks for less) down to the
-    floor by steps of SHRINK, the floor itself last."""
+    """The type scales to try, largest first: the card size's own scale in steps of SHRINK, from the largest step
+    at or under the style's `font_scale` down to the floor, the floor itself last.
+
+    Every font_scale draws from the same steps, so a larger one can only add larger sizes to try: it never gets
+    smaller type than a smaller one.
+    """
     floor = floor_scale(style.size)
-    scale = max(style.font_scale * SIZE_SCALE[style.size], floor)
+    k = math.ceil(math.log(style.font_scale) / math.log(SHRINK) - 1e-9)
+    scale = SIZE_SCALE[style.size] * SHRINK ** k
     out = []
     while scale >= floor - 1e-9:
         out.append(scale)
         scale *= SHRINK
-    if out[-1] > floor + 1e-9:
+    if not out or out[-1] > floor + 1e-9:
         out.append(floor)
     return out
 
