@@ -4,7 +4,7 @@ Blocks draw top-down in local coordinates: the block's top edge is y = 0 and eve
 below it (negative y); the layout then moves the block into place on the page.
 """
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from kneeboard.card import fonts
 from kneeboard.card.ops import CAUTION, FIGURE, HEADING, LABEL, SMALL, TITLE, Circle, Figure, Line, Path, Rect, Text
@@ -46,6 +46,14 @@ class Context:
     made_on: str
     logo_png: bytes | None = None
     split: bool = False  #: a table too wide for its column may break into groups of configurations
+    #: what a block makes the same at every type size (its cells and their figures), kept across the sizes tried
+    memo: dict = field(default_factory=dict, compare=False, repr=False)
+
+    def once(self, key, make):
+        """`make()` the first time `key` is asked for in this layout, the same object after."""
+        if key not in self.memo:
+            self.memo[key] = make()
+        return self.memo[key]
 
     def size(self, role: str) -> float:
         size = BASE_SIZE[role] * self.scale

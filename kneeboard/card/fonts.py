@@ -256,9 +256,14 @@ def printable(text: str) -> str:
 
 @lru_cache(maxsize=8192)
 def width(text: str, font: str, size: float) -> float:
-    """Advance width of `text` as printed [pt]."""
+    """Advance width of `text` as printed [pt]: proportional to the size, so measured once per text and font."""
+    return _unit_width(text, font) * size
+
+
+@lru_cache(maxsize=8192)
+def _unit_width(text: str, font: str) -> float:
     register()
-    return pdfmetrics.stringWidth(printable(text), font, size)
+    return pdfmetrics.stringWidth(printable(text), font, 1000.0) / 1000.0
 
 
 @cache
@@ -281,7 +286,7 @@ _TRAILING = ",.;:)]"
 
 
 def _is_number(word: str) -> bool:
-    return bool(_NUMBER.match(word))
+    return any(c.isdigit() for c in word) and bool(_NUMBER.match(word))
 
 
 def _is_unit(word: str) -> bool:
@@ -314,6 +319,13 @@ def wrap(text: str, font: str, size: float, max_width: float, hyphenate: bool = 
     """Break `text` into lines no wider than `max_width`, at spaces, never between a number and its unit or the
     word it numbers (`glued`). A word wider than the line is broken with a hyphen when `hyphenate`, else it stays
     whole (and the caller sees a line too wide)."""
+    if "\n" not in text and "\r" not in text and width(text, font, size) <= max_width:
+        return [" ".join(text.split())]  # the common case: it fits on one line
+    return list(_wrapped(text, font, size, max_width, hyphenate))
+
+
+@lru_cache(maxsize=4096)
+def _wrapped(text: str, font: str, size: float, max_width: float, hyphenate: bool) -> tuple[str, ...]:
     lines: list[str] = []
     for paragraph in text.splitlines() or [""]:
         line = ""
@@ -336,7 +348,7 @@ def wrap(text: str, font: str, size: float, max_width: float, hyphenate: bool = 
                     lines.extend(broken[:-1])
                     line = broken[-1]
         lines.append(line)
-    return lines
+    return tuple(lines)
 
 
 def _hyphenated(word: str, font: str, size: float, max_width: float) -> list[str]:

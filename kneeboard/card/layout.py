@@ -107,26 +107,44 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
     back = [b for b in back if blocks.get(b).applies(table)]
     scales = scales_for(style)
     unfit: DoesNotFit | None = None
+    cap = style.max_faces
     for split in (False, True):  # groups of configurations only when a table is too wide even at the floor
         tries = _Tries(Context(table, style, 1.0, fingerprint, made_on, logo_png, split), box, front, back)
-        least = tries.at(scales[-1])
-        unfit = unfit or tries.unfit
-        if least is None:
-            continue
-        cap = style.max_faces
-        if cap is not None and least.faces > cap:
-            raise _too_many_faces(style, least, cap)
-        for i, scale in enumerate(scales):
-            flowed = tries.at(scale)
-            if flowed is None or flowed.cards > least.cards or (cap is not None and flowed.faces > cap):
+        top = tries.at(scales[0])
+        if top is not None and top.cards == 1 and (cap is None or top.faces <= cap):
+            chosen = 0  # one card at the largest type asked for: nothing smaller can do better
+        else:
+            least = tries.at(scales[-1])  # the fewest cards any legible type gives
+            unfit = unfit or tries.unfit
+            if least is None:
                 continue
-            # a back page that would hold little earns no paper: one page if two smaller steps of type allow it
-            if flowed.faces == 2 and not back and flowed.back_fill < LIGHT_BACK:
-                for smaller in scales[i + 1:i + 3]:
-                    one = tries.at(smaller)
-                    if one is not None and one.faces == 1:
-                        return one.draw(smaller)
-            return flowed.draw(scale)
+            if cap is not None and least.faces > cap:
+                raise _too_many_faces(style, least, cap)
+
+            def enough(i: int, cards: int = least.cards, tries: _Tries = tries) -> bool:
+                flowed = tries.at(scales[i])
+                return flowed is not None and flowed.cards <= cards and (cap is None or flowed.faces <= cap)
+
+            # the largest type that still gives the fewest cards: halving the ladder between a size that does
+            # not and one that does (more type needs more room, so the sizes that do are all below those that
+            # do not)
+            lo, chosen = 0, len(scales) - 1
+            if enough(0):
+                chosen = 0
+            while chosen - lo > 1:
+                mid = (lo + chosen) // 2
+                if enough(mid):
+                    chosen = mid
+                else:
+                    lo = mid
+        flowed = tries.at(scales[chosen])
+        # a back page that would hold little earns no paper: one page if two smaller steps of type allow it
+        if flowed.faces == 2 and not back and flowed.back_fill < LIGHT_BACK:
+            for smaller in scales[chosen + 1:chosen + 3]:
+                one = tries.at(smaller)
+                if one is not None and one.faces == 1:
+                    return one.draw(smaller)
+        return flowed.draw(scales[chosen])
     block = unfit.block if unfit else "card"
     raise LayoutError(
         block,

@@ -20,6 +20,12 @@ def face_label(face: int, faces: int) -> str:
 
 
 def caution(ctx: Context, width: float, page: int, pages: int):
+    """The closing block of face `page` of `pages` (see `_caution`), made once per type size and footer."""
+    return ctx.once(("caution", ctx.scale, width, page == 1, face_label(page, pages)),
+                    lambda: _caution(ctx, width, page, pages))
+
+
+def _caution(ctx: Context, width: float, page: int, pages: int):
     """Every warning about this card, then the caution, on every face, with a footer line naming the card.
 
     A card never prints silently under a warning: each one is a line beginning with WARNING, in bold, on a

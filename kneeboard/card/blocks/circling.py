@@ -32,20 +32,24 @@ class Circling(Plan):
         names = ["bank", f"{su} IAS", f"sink {sink}", f"radius {du}", "circle s", f"180° loss {du}"]
         columns = even_columns(width, len(names))
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        rows = []
-        for r in g.rows:
-            if r.turn_radius is None:
-                continue  # wings level: printed above as the straight-flight figures
-            at = terms.label(terms.CIRCLING, terms.at_bank(r.bank_text))
-            rows.append([
-                Cell(f"{r.bank_text}°", bold=True),
-                Cell(r.speed.text, bold=True, figure=tag(terms.label(at, terms.SPEED), r.speed, su)),
-                Cell(r.sink_rate.text, figure=tag(terms.label(at, terms.SINK), r.sink_rate, sink, HIGHER_IS_WORSE)),
-                Cell(r.turn_radius.text, figure=tag(terms.label(at, terms.TURN_RADIUS), r.turn_radius, du)),
-                Cell(r.circle_time.text, figure=tag(terms.label(at, terms.CIRCLE_TIME), r.circle_time, "s")),
-                Cell(r.height_loss_180.text, figure=tag(terms.label(at, terms.LOSS_180), r.height_loss_180, du,
-                                                        HIGHER_IS_WORSE)),
-            ])
+        def cells():  # the same at every type size
+            out = []
+            for r in g.rows:
+                if r.turn_radius is None:
+                    continue  # wings level: printed above as the straight-flight figures
+                at = terms.label(terms.CIRCLING, terms.at_bank(r.bank_text))
+                out.append([
+                    Cell(f"{r.bank_text}°", bold=True),
+                    Cell(r.speed.text, bold=True, figure=tag(terms.label(at, terms.SPEED), r.speed, su)),
+                    Cell(r.sink_rate.text, figure=tag(terms.label(at, terms.SINK), r.sink_rate, sink, HIGHER_IS_WORSE)),
+                    Cell(r.turn_radius.text, figure=tag(terms.label(at, terms.TURN_RADIUS), r.turn_radius, du)),
+                    Cell(r.circle_time.text, figure=tag(terms.label(at, terms.CIRCLE_TIME), r.circle_time, "s")),
+                    Cell(r.height_loss_180.text, figure=tag(terms.label(at, terms.LOSS_180), r.height_loss_180, du,
+                                                            HIGHER_IS_WORSE)),
+                ])
+            return out
+
+        rows = ctx.once((NAME,), cells)
         self.grid = Grid(NAME, columns, rows, fs * 1.45, fs)
         self.measure = Measure((Section(self.heads.height, (fs * 1.45,) * len(rows)),),
                                lead=self.heading.height, foot=ctx.size(SMALL), again=self.heading.again)

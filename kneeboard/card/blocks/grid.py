@@ -9,6 +9,7 @@ table builder; nothing is re-rounded here.
 """
 
 from dataclasses import dataclass
+from functools import lru_cache
 
 from kneeboard.card import fonts
 from kneeboard.card.draw import GREY, HATCH, INK, SHADE, WHITE, DoesNotFit, Draw, baseline, fit_lines
@@ -41,7 +42,7 @@ class Grid:
         self.columns, self.rows, self.row_h, self.size, self.shade = columns, rows, row_h, size, shade
         self.edges = []
         for j, (x, w) in enumerate(columns):
-            widest = max((fonts.width(r[j].text, fonts.BOLD, size) for r in rows), default=0.0)
+            widest = _widest(tuple(r[j].text for r in rows)) * size
             if widest > w - 2:
                 raise DoesNotFit(block, f"column {j + 1} needs {widest:.0f} pt, has {w:.0f}")
             self.edges.append(x + (w + widest) / 2)
@@ -79,6 +80,12 @@ class Grid:
                     d.text(edge + 1, base + size * 0.35, cell.note, SMALL, True, color=color)
             y -= row_h
         return y
+
+
+@lru_cache(maxsize=1024)
+def _widest(texts: tuple[str, ...]) -> float:
+    """The widest of `texts` in bold at 1 pt (widths are proportional to the size)."""
+    return max((fonts.width(text, fonts.BOLD, 1.0) for text in texts), default=0.0)
 
 
 def grid(d: Draw, block: str, top: float, columns, rows, row_h: float, size: float, shade=True) -> float:

@@ -43,27 +43,32 @@ class Limits(Plan):
             columns.append((x, unit * weight))
             x += unit * weight
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        self.rows = []
-        for c in t.configurations:
-            limit = f"{c.limit_load_factor.text}/{c.limit_bank.text}°"
-            row = [
-                Cell(c.stall_speed.text, figure=figure(terms.label(c.name, terms.STALL), c.stall_speed, su,
-                                                       HIGHER_IS_WORSE)),
-                Cell(c.pattern_speed.text, bold=True,
-                     figure=figure(terms.label(c.name, terms.PATTERN), c.pattern_speed, su)),
-                Cell(f"{c.buffer_bank.text}°", bold=True,
-                     figure=figure(terms.label(c.name, terms.BUFFER_BANK), c.buffer_bank, "°", LOWER_IS_WORSE))
-                if c.buffer_bank else Cell(NO_VALUE, role=LABEL),
-                Cell(f"{c.zero_margin_bank.text}°", bold=True,
-                     figure=figure(terms.label(c.name, terms.ZERO_MARGIN_BANK), c.zero_margin_bank, "°",
-                                   LOWER_IS_WORSE)),
-                Cell(c.flap_limit_speed.text,
-                     figure=figure(terms.label(c.name, terms.FLAP_LIMIT), c.flap_limit_speed, su))
-                if c.flap_limit_speed else Cell(NO_VALUE, role=LABEL),
-                Cell(limit, figure=figure(terms.label(c.name, terms.LIMIT_LOAD), f"{c.limit_load_factor.text} g / "
-                                          f"{c.limit_bank.text}°", worse=None)),
-            ]
-            self.rows.append(NamedRow(ctx, NAME, c.name, name_w, columns[1:], row))
+        def cells():  # the same at every type size
+            out = []
+            for c in t.configurations:
+                limit = f"{c.limit_load_factor.text}/{c.limit_bank.text}°"
+                row = [
+                    Cell(c.stall_speed.text, figure=figure(terms.label(c.name, terms.STALL), c.stall_speed, su,
+                                                           HIGHER_IS_WORSE)),
+                    Cell(c.pattern_speed.text, bold=True,
+                         figure=figure(terms.label(c.name, terms.PATTERN), c.pattern_speed, su)),
+                    Cell(f"{c.buffer_bank.text}°", bold=True,
+                         figure=figure(terms.label(c.name, terms.BUFFER_BANK), c.buffer_bank, "°", LOWER_IS_WORSE))
+                    if c.buffer_bank else Cell(NO_VALUE, role=LABEL),
+                    Cell(f"{c.zero_margin_bank.text}°", bold=True,
+                         figure=figure(terms.label(c.name, terms.ZERO_MARGIN_BANK), c.zero_margin_bank, "°",
+                                       LOWER_IS_WORSE)),
+                    Cell(c.flap_limit_speed.text,
+                         figure=figure(terms.label(c.name, terms.FLAP_LIMIT), c.flap_limit_speed, su))
+                    if c.flap_limit_speed else Cell(NO_VALUE, role=LABEL),
+                    Cell(limit, figure=figure(terms.label(c.name, terms.LIMIT_LOAD), f"{c.limit_load_factor.text} g / "
+                                              f"{c.limit_bank.text}°", worse=None)),
+                ]
+                out.append(row)
+            return out
+
+        self.rows = [NamedRow(ctx, NAME, c.name, name_w, columns[1:], row)
+                     for c, row in zip(t.configurations, ctx.once((NAME,), cells))]
         self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
                                lead=self.heading.height, foot=ctx.size(SMALL) * 0.8, again=self.heading.again)
 

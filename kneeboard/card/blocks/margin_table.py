@@ -52,23 +52,7 @@ class _Group:
         columns = [(0, bank_w), (bank_w, n_w)]
         for _, x, w in self.groups:
             columns += [(x, w / 2), (x + w / 2, w / 2)]
-        su = t.speed_unit
-        rows = []
-        for i in range(len(configs[0].rows)):
-            first = configs[0].rows[i]
-            bank = terms.at_bank(first.bank_text)
-            row = [Cell(f"{first.bank_text}°", bold=True),
-                   Cell(first.load_factor.text,
-                        figure=figure(terms.label(bank, terms.LOAD_FACTOR), first.load_factor, "g"))]
-            for c in configs:
-                r = c.rows[i]
-                mark = {BUFFER: HATCHED, STALL: BLACK}.get(r.state)
-                row += [Cell(r.stall_speed.text, framed=r.over_limit,
-                             figure=figure(terms.label(c.name, bank, terms.STALL), r.stall_speed, su,
-                                           HIGHER_IS_WORSE)),
-                        Cell(r.margin.text, bold=True, mark=mark, framed=r.over_limit,
-                             figure=figure(terms.label(c.name, bank, terms.MARGIN), r.margin, su, LOWER_IS_WORSE))]
-            rows.append(row)
+        rows = ctx.once((NAME, tuple(c.name for c in configs)), lambda: _rows(t, configs))
         self.rows = rows
         row_h = fs * 1.5
         # the load-factor column in the secondary size, the rest at full figure size, on the same rows
@@ -94,6 +78,28 @@ class _Group:
             d.line(x, top, x, y, RULE, 0.6)
         d.line(0, y, width, y, INK, 0.8)
         return y
+
+
+def _rows(t, configs) -> list[list[Cell]]:
+    """The table's cells (with the figures they show) for `configs`: the same at every type size."""
+    su = t.speed_unit
+    rows = []
+    for i in range(len(configs[0].rows)):
+        first = configs[0].rows[i]
+        bank = terms.at_bank(first.bank_text)
+        row = [Cell(f"{first.bank_text}°", bold=True),
+               Cell(first.load_factor.text,
+                    figure=figure(terms.label(bank, terms.LOAD_FACTOR), first.load_factor, "g"))]
+        for c in configs:
+            r = c.rows[i]
+            mark = {BUFFER: HATCHED, STALL: BLACK}.get(r.state)
+            row += [Cell(r.stall_speed.text, framed=r.over_limit,
+                         figure=figure(terms.label(c.name, bank, terms.STALL), r.stall_speed, su,
+                                       HIGHER_IS_WORSE)),
+                    Cell(r.margin.text, bold=True, mark=mark, framed=r.over_limit,
+                         figure=figure(terms.label(c.name, bank, terms.MARGIN), r.margin, su, LOWER_IS_WORSE))]
+        rows.append(row)
+    return rows
 
 
 class MarginTable(Plan):

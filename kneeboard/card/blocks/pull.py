@@ -27,16 +27,20 @@ class Pull(Plan):
         columns = [(0, name_w)] + [(name_w + i * col_w, col_w) for i in range(len(names) - 1)]
         self.heading = Heading(ctx, width, TITLE)
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        first_limit = False
-        self.rows = []
-        for c in t.configurations:
-            structure_first = not c.stalls_before_limit
-            first_limit |= structure_first
-            row = [Cell(f"{c.available_load_factor.text} g", bold=True, note="!" if structure_first else "",
-                        figure=figure(terms.label(c.name, terms.AVAILABLE_LOAD), c.available_load_factor, "g"))]
-            row += [Cell(v.text, figure=figure(terms.label(c.name, f"{n} g", terms.STALL), v, su, HIGHER_IS_WORSE))
-                    for n, v in c.stall_at_load]
-            self.rows.append(NamedRow(ctx, NAME, c.name, name_w, columns[1:], row))
+        def cells():  # the same at every type size
+            out = []
+            for c in t.configurations:
+                structure_first = not c.stalls_before_limit
+                row = [Cell(f"{c.available_load_factor.text} g", bold=True, note="!" if structure_first else "",
+                            figure=figure(terms.label(c.name, terms.AVAILABLE_LOAD), c.available_load_factor, "g"))]
+                row += [Cell(v.text, figure=figure(terms.label(c.name, f"{n} g", terms.STALL), v, su, HIGHER_IS_WORSE))
+                        for n, v in c.stall_at_load]
+                out.append(row)
+            return out
+
+        self.rows = [NamedRow(ctx, NAME, c.name, name_w, columns[1:], row)
+                     for c, row in zip(t.configurations, ctx.once((NAME,), cells))]
+        first_limit = any(not c.stalls_before_limit for c in t.configurations)
         note = (f"pattern stalls at: the load factor that stalls the wing at the pattern speed, wings level; stall "
                 f"speeds {su} IAS." + (" ! the structure's limit load comes before the stall." if first_limit else ""))
         ss = ctx.size(SMALL)

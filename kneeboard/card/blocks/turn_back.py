@@ -37,18 +37,22 @@ class TurnBack(Plan):
         names = ["bank", f"speed {su} IAS", f"margin {su}"] + [f"{h}° loss {du}" for h in tb.headings]
         columns = even_columns(width, len(names))
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        rows = []
-        for r in tb.rows:
-            bank = terms.at_bank(r.bank_text)
-            row = [Cell(f"{r.bank_text}°", bold=True),
-                   Cell(r.speed.text, bold=r.least, figure=figure(terms.label(at, bank, terms.SPEED), r.speed, su)),
-                   Cell(r.margin.text, bold=r.least,
-                        figure=figure(terms.label(at, bank, terms.MARGIN), r.margin, su, LOWER_IS_WORSE))]
-            for h, loss in zip(tb.headings, r.height_loss):
-                row.append(Cell(loss.text, bold=r.least,
-                                figure=figure(terms.label(at, bank, f"{h}° {terms.HEIGHT_LOSS}"), loss, du,
-                                              HIGHER_IS_WORSE)))
-            rows.append(row)
+        def cells():  # the same at every type size
+            out = []
+            for r in tb.rows:
+                bank = terms.at_bank(r.bank_text)
+                row = [Cell(f"{r.bank_text}°", bold=True),
+                       Cell(r.speed.text, bold=r.least, figure=figure(terms.label(at, bank, terms.SPEED), r.speed, su)),
+                       Cell(r.margin.text, bold=r.least,
+                            figure=figure(terms.label(at, bank, terms.MARGIN), r.margin, su, LOWER_IS_WORSE))]
+                for h, loss in zip(tb.headings, r.height_loss):
+                    row.append(Cell(loss.text, bold=r.least,
+                                    figure=figure(terms.label(at, bank, f"{h}° {terms.HEIGHT_LOSS}"), loss, du,
+                                                  HIGHER_IS_WORSE)))
+                out.append(row)
+            return out
+
+        rows = ctx.once((NAME,), cells)
         self.grid = Grid(NAME, columns, rows, fs * 1.3, fs)
         cs = ctx.size(CAUTION)
         self.caution = fit_lines(NAME, CAUTION_TURN_BACK, fonts.REGULAR, cs, width, 4)

@@ -29,23 +29,7 @@ class _Group:
         columns = [(0, bank_w)]
         for _, x, w in self.groups:
             columns += [(x, w * 0.5), (x + w * 0.5, w * 0.5)]
-        rows = []
-        for i, first in enumerate(configs[0].rows):
-            if first.turn_radius is None or all(c.rows[i].state == STALL for c in configs):
-                continue
-            bank = terms.at_bank(first.bank_text)
-            row = [Cell(f"{first.bank_text}°", bold=True)]
-            for c in configs:
-                r = c.rows[i]
-                if r.state == STALL:
-                    row += [Cell(NO_VALUE, role=LABEL), Cell(NO_VALUE, role=LABEL)]
-                else:
-                    times = f"{r.time_180.text}/{r.time_360.text}"
-                    row += [Cell(r.turn_radius.text, figure=figure(terms.label(c.name, bank, terms.TURN_RADIUS),
-                                                                   r.turn_radius, du)),
-                            Cell(times, figure=figure(terms.label(c.name, bank, terms.TURN_TIMES), times, "s"))]
-            rows.append(row)
-        self.rows = rows
+        self.rows = rows = ctx.once((NAME, tuple(c.name for c in configs)), lambda: _rows(configs, du))
         self.grid = Grid(NAME, columns, rows, fs * 1.45, fs) if rows else None
         self.stalled = any(cell.text == NO_VALUE for row in rows for cell in row)
         self.head = self.heads.height + self.subs.height if rows else ss * 1.3 + ss * 0.6
@@ -65,6 +49,27 @@ class _Group:
         for _, x, _w in self.groups:
             d.line(x, top, x, y, RULE, 0.6)
         return y
+
+
+def _rows(configs, du: str) -> list[list[Cell]]:
+    """The cells (with the figures they show) of the banks with a turn: the same at every type size."""
+    rows = []
+    for i, first in enumerate(configs[0].rows):
+        if first.turn_radius is None or all(c.rows[i].state == STALL for c in configs):
+            continue
+        bank = terms.at_bank(first.bank_text)
+        row = [Cell(f"{first.bank_text}°", bold=True)]
+        for c in configs:
+            r = c.rows[i]
+            if r.state == STALL:
+                row += [Cell(NO_VALUE, role=LABEL), Cell(NO_VALUE, role=LABEL)]
+            else:
+                times = f"{r.time_180.text}/{r.time_360.text}"
+                row += [Cell(r.turn_radius.text, figure=figure(terms.label(c.name, bank, terms.TURN_RADIUS),
+                                                               r.turn_radius, du)),
+                        Cell(times, figure=figure(terms.label(c.name, bank, terms.TURN_TIMES), times, "s"))]
+        rows.append(row)
+    return rows
 
 
 class Turns(Plan):
