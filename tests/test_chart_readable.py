@@ -74,38 +74,31 @@ def test_each_configuration_has_its_own_marker_shape_and_its_legend_row(name):
 
 
 @pytest.mark.parametrize("name", SAMPLE_NAMES)
-def test_the_limit_bank_is_on_the_chart_even_beyond_its_axis(name):
+def test_each_configurations_limit_bank_is_on_the_chart_even_beyond_its_axis(name):
     c = card(name)
     (part,) = chart_blocks(c)
     labels = [op.text for op in part.ops if hasattr(op, "text")]
-    assert any(text.startswith(f"limit bank {c.table.limit_bank.text}°") for text in labels)
+    tagged = {f.label: f.text for op in part.ops if hasattr(op, "figures") for f in op.figures}
+    for cfg in c.table.configurations:  # in its legend row, and as a labelled line (or an edge note) on the plot
+        assert tagged[f"{cfg.name} · limit bank"] == f"{cfg.limit_bank.text}°"
+        assert any(f"limit {cfg.limit_bank.text}°" in text or f"limit bank {cfg.limit_bank.text}°" in text
+                   for text in labels if "(" in text)
 
 
-def test_hatched_cells_keep_a_clear_area_behind_their_digits():
-    # the demo tourer's 60 degree rows are under the buffer: hatched, with the figure on a clear patch
-    import pypdfium2 as pdfium
-
-    from kneeboard.card import fonts
-    from kneeboard.card.draw import HATCH, WHITE
-    from kneeboard.card.ops import Rect, Text
-
+def test_no_marker_lies_at_or_past_its_configurations_own_limit_bank():
+    # the tourer's Flaps 30 (a triangle) has its buffer bank 64 and zero-margin bank 68 past its own limit of 60;
+    # Flaps 10 (a square) its zero-margin bank 64; Flaps 0 (a circle) both banks inside its 74
     c = card("demo_tourer")
-    page = c.pages[0]
-    ops = page.ops
-    # the cells (wider than high), not the legend's square swatch
-    hatched = [i for i, op in enumerate(ops) if type(op) is Rect and op.hatch == HATCH and op.w > op.h * 1.5]
-    assert hatched
-    dpi = 200
-    image = pdfium.PdfDocument(card_pdf(c))[0].render(scale=dpi / 72).to_pil().convert("L")
-    for i in hatched:
-        clear = ops[i + 1]
-        text = next(op for op in ops[i + 2:] if type(op) is Text)  # after the patch (and a frame, if any)
-        assert type(clear) is Rect and clear.fill == WHITE
-        w = fonts.width(text.text, text.font, text.size)
-        # the digits' box lies inside the clear patch
-        assert clear.x <= text.x - w and text.x <= clear.x + clear.w
-        assert clear.y <= text.y and text.y + fonts.ascent(text.size) <= clear.y + clear.h
-        # and on paper: the ring between the digits and the patch's edge is white, no hatch line crosses it
-        k = dpi / 72
-        for x, y in ((clear.x + 0.6, clear.y + clear.h / 2), (clear.x + clear.w - 0.6, clear.y + clear.h / 2)):
-            assert image.getpixel((round(x * k), round((page.height - y) * k))) > 240
+    assert [(cfg.buffer_bank.value, cfg.zero_margin_bank.value, cfg.limit_bank.value)
+            for cfg in c.table.configurations] == [(59, 63, 74), (59, 64, 60), (64, 68, 60)]
+    (part,) = chart_blocks(c)
+    axis = next(op.y for op in part.ops if hasattr(op, "text") and op.text == "bank angle")
+    plotted = [op for op in part.ops if getattr(op, "y", None) is not None and op.y > axis or
+               type(op) is Path and op.closed and min(y for _, y in op.points) > axis]
+    circles = [op for op in plotted if type(op) is Circle and op.r > 1.5]
+    shapes = [op for op in plotted if type(op) is Path and op.closed and op.fill is not None and op.color is not None]
+    squares = [op for op in shapes if len(op.points) == 4 and len({round(y, 3) for _, y in op.points}) == 2]
+    triangles = [op for op in shapes if len(op.points) == 3]
+    assert len(circles) == 2  # Flaps 0: 59 and 63
+    assert len(squares) == 1 and squares[0].fill == "#ffffff"  # Flaps 10: the buffer bank 59 only
+    assert triangles == []  # Flaps 30: both past 60

@@ -18,8 +18,6 @@ The curves are full-precision data plotted as lines; every number printed is the
 
 import math
 
-import numpy as np
-
 from kneeboard import terms
 from kneeboard.card import fonts
 from kneeboard.card.blocks.grid import groups_of
@@ -67,11 +65,12 @@ def _legend_items(ctx: Context, i: int) -> list[tuple[str, str | None, str]]:
     items.append(("marker", INK, f"{c.zero_margin_bank.text}°"))
     if c.buffer_bank is not None:
         items.append(("marker", WHITE, f"{c.buffer_bank.text}°"))
+    items.append(("limit", None, f"limit {c.limit_bank.text}°"))
     return items
 
 
 def _piece_width(ss: float, kind: str, text: str) -> float:
-    lead = ss * 3.0 if kind == "line" else ss * 1.3 if kind == "marker" else 0.0
+    lead = ss * 3.0 if kind == "line" else ss * 1.3 if kind == "marker" else ss * 1.0 if kind == "limit" else 0.0
     return lead + fonts.width(text, fonts.BOLD if kind == "line" else fonts.REGULAR, ss) + ss * 1.2
 
 
@@ -144,11 +143,12 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
     su = t.speed_unit
     plot_h = height - ss * 1.45 * sum(len(lines) for lines in legend)
 
-    limit = math.degrees(t.results.limit_bank)
-    banks_max = max(max(r.bank_deg for r in t.configurations[0].rows), max(c.zero_margin_bank_deg for c in curves),
-                    limit if limit <= MAX_AXIS else 0.0)
+    limits = [c.limit_bank.value for c in printed_configurations]  # each configuration's own, as printed
+    banks_max = max(max(r.bank_deg for r in t.configurations[0].rows),
+                    max(c.zero_margin_bank.value for c in printed_configurations),
+                    max((b for b in limits if b <= MAX_AXIS), default=0.0))
     x_max = float(min(MAX_AXIS, max(40, math.ceil((banks_max + 3) / 10) * 10)))
-    top_speed = max(c.pattern_speed for c in curves)
+    top_speed = max(c.pattern_speed.value for c in printed_configurations)
     y_lo = min(c.stall_speed[0] for c in curves) * 0.85
     y_hi = top_speed * 1.12
     step = _nice_step(y_hi - y_lo, 6)
@@ -183,38 +183,36 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
     d.text(0, py1 + ss * 1.85, f"stall speed, {su} IAS", SMALL, True)
     d.text(px1, py0 - ss * 2.3, "bank angle", SMALL, True, "right")
 
-    limit_text = f"limit bank {t.limit_bank.text}° ({t.limit_load_factor.text} g)"
-    limit_tag = figure(terms.LIMIT_BANK, t.limit_bank, "°", LOWER_IS_WORSE)
-    if limit <= x_max:
-        d.line(X(limit), py0, X(limit), py1, INK, 0.8, (3, 2))
-        d.text(min(X(limit) + ss * 0.3, width), py1 + ss * 0.6, limit_text, SMALL, True, "right", figures=limit_tag)
-    else:  # beyond the axis: an edge note with an arrow, so the limit is never silently off the chart
-        d.text(px1, py1 + ss * 0.6, limit_text + " \u2192", SMALL, True, "right", figures=limit_tag)
+    _limit_lines(d, ctx, printed_configurations, X, x_max, px1, py0, py1, width)
 
     markers = []  # drawn after every curve, so they sit on top
-    pattern_ys = _spread([Y(c.pattern_speed) - ss * 0.35 for c in curves], ss * 1.2, py0, py1 - ss * 0.8)
+    # lines and markers at the printed figures (the table's rounded pattern speeds and banks); the curves are the
+    # full-precision stall speeds
+    pattern = [Y(p.pattern_speed.value) for p in printed_configurations]
+    pattern_ys = _spread([y - ss * 0.35 for y in pattern], ss * 1.2, py0, py1 - ss * 0.8)
     for i, c in enumerate(curves):
+        printed = printed_configurations[i]
         colour = COLOURS[i % len(COLOURS)] or accent
         dash = DASHES[i % len(DASHES)]
         stall = _clip(c.bank_deg, c.stall_speed, x_max, y_hi)
-        zero = c.zero_margin_bank_deg
+        zero = printed.zero_margin_bank.value
         # the margin: between the pattern-speed line and the stall curve, up to the zero-margin bank
         inside = [(b, s) for b, s in zip(c.bank_deg, c.stall_speed) if b <= zero]
-        shade = [(X(0), Y(c.pattern_speed)), (X(min(zero, x_max)), Y(c.pattern_speed))]
+        shade = [(X(0), pattern[i]), (X(min(zero, x_max)), pattern[i])]
         shade += [(X(b), Y(s)) for b, s in reversed(inside) if b <= x_max]
         d.path(shade, color=None, closed=True, fill=colour, fill_alpha=0.08 if i == 0 else 0.05)
-        d.line(X(0), Y(c.pattern_speed), px1, Y(c.pattern_speed), colour, 0.9, dash)
+        d.line(X(0), pattern[i], px1, pattern[i], colour, 0.9, dash)
         d.path([(X(b), Y(s)) for b, s in stall], colour, 2.0, dash)
-        printed = printed_configurations[i]
-        d.line(px1, Y(c.pattern_speed), px1 + ss * 0.25, pattern_ys[i] + ss * 0.35, colour, 0.6)
+        d.line(px1, pattern[i], px1 + ss * 0.25, pattern_ys[i] + ss * 0.35, colour, 0.6)
         d.text(px1 + ss * 0.3, pattern_ys[i], f"pattern {printed.pattern_speed.text}", SMALL, True, color=colour,
                figures=figure(terms.label(c.name, terms.PATTERN), printed.pattern_speed, su))
         shape = SHAPES[i % len(SHAPES)]
-        if zero <= x_max:
-            markers.append((shape, X(zero), Y(c.pattern_speed), INK))
-        if c.buffer_bank_deg is not None and c.buffer_bank_deg <= x_max and printed.buffer_bank is not None:
-            yb = Y(float(np.interp(c.buffer_bank_deg, c.bank_deg, c.stall_speed)))
-            markers.append((shape, X(c.buffer_bank_deg), yb, WHITE))
+        limit = printed.limit_bank.value  # no marker at or past the configuration's own limit bank
+        if zero <= x_max and zero < limit:
+            markers.append((shape, X(zero), pattern[i], INK))
+        buffer = printed.buffer_bank
+        if buffer is not None and buffer.value <= x_max and buffer.value < limit:
+            markers.append((shape, X(buffer.value), Y(printed.pattern_speed.value - t.buffer.value), WHITE))
     r = ss * 0.45
     for shape, x, y, fill, (mx, my) in _apart(markers, r, py0, py1):
         if (mx, my) != (x, y):  # moved off a marker it would merge with: a leader back to the point it marks
@@ -235,6 +233,11 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
                 if kind == "line":
                     d.line(x, y + ss * 0.3, x + ss * 2.4, y + ss * 0.3, colour, 2.0, DASHES[i % len(DASHES)])
                     x += ss * 3.0
+                elif kind == "limit":  # a short upright stroke in the configuration's line, as its limit is drawn
+                    d.line(x + ss * 0.4, y - ss * 0.15, x + ss * 0.4, y + ss * 0.85, colour, 1.0,
+                           DASHES[i % len(DASHES)] and (2, 1.2))
+                    x += ss * 1.0
+                    tag = figure(terms.label(printed.name, terms.LIMIT_BANK), printed.limit_bank, "°", LOWER_IS_WORSE)
                 elif kind == "marker":
                     marker(d, shape, x + ss * 0.45, y + ss * 0.33, ss * 0.42, fill)
                     x += ss * 1.3
@@ -249,6 +252,43 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
         y -= ss * 1.45
         d.text(0, y, line, SMALL, color=GREY)
     return d.block(NAME, height + (ss * 1.45 * len(key) + ss * 0.9 if key else 0.0))
+
+
+def _limit_lines(d: Draw, ctx: Context, configurations, X, x_max: float, px1: float, py0: float, py1: float,
+                 width: float) -> None:
+    """Each configuration's limit bank: a vertical line in that configuration's colour and dash (one line for
+    configurations that share it), labelled above the plot; an edge note with an arrow when it lies beyond the
+    axis. Labels that would touch go to a second line above, or, with no room there either, are left to the
+    legend, which gives every configuration's limit beside its name."""
+    t = ctx.table
+    ss = ctx.size(SMALL)
+    shared: dict[float, list[int]] = {}
+    for i, c in enumerate(configurations):
+        shared.setdefault(c.limit_bank.value, []).append(i)
+    title = (0.0, fonts.width(f"stall speed, {t.speed_unit} IAS", fonts.BOLD, ss) + ss)  # on the second line
+    taken: list[list[tuple[float, float]]] = [[], [title]]
+    for bank, members in sorted(shared.items(), reverse=True):
+        first = configurations[members[0]]
+        i = members[0]
+        colour = COLOURS[i % len(COLOURS)] or ctx.style.accent
+        everyone = len(members) == len(configurations)
+        text = (f"limit bank {first.limit_bank.text}°" if everyone else f"limit {first.limit_bank.text}°") + \
+            f" ({first.limit_load_factor.text} g)"
+        tag = figure(terms.LIMIT_BANK, t.limit_bank, "°", LOWER_IS_WORSE) if everyone and \
+            first.limit_bank.text == t.limit_bank.text else None
+        if bank <= x_max:
+            d.line(X(bank), py0, X(bank), py1, colour if not everyone else INK, 0.8,
+                   (3, 2) if everyone else (DASHES[i % len(DASHES)] or (3, 2)))
+            right = min(X(bank) + ss * 0.3, width)
+        else:  # beyond the axis: an edge note with an arrow, so the limit is never silently off the chart
+            text += " \u2192"
+            right = px1
+        span = (right - fonts.width(text, fonts.BOLD, ss), right)
+        for row, y in ((0, py1 + ss * 0.6), (1, py1 + ss * 1.85)):
+            if span[0] >= 0 and all(span[1] + ss * 0.5 <= a or b + ss * 0.5 <= span[0] for a, b in taken[row]):
+                taken[row].append(span)
+                d.text(right, y, text, SMALL, True, "right", INK if everyone else colour, figures=tag)
+                break
 
 
 def _apart(markers, r: float, low: float, high: float):
