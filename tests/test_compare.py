@@ -23,7 +23,7 @@ def expected_count(table) -> int:
     top = 8 + (table.maneuvering_speed is not None) + table.over_max_weight
     n = top
     for c in table.configurations:
-        n += 4 + (c.buffer_bank is not None) + (c.flap_limit_speed is not None)  # with its limit
+        n += 5 + (c.buffer_bank is not None) + (c.flap_limit_speed is not None)  # with its limit g and bank
         for r in c.rows:
             n += 2
             if r.state != STALL and r.turn_radius is not None:
