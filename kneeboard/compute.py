@@ -149,6 +149,7 @@ class Results:
     glider: GliderResult | None
     curve_bank_deg: np.ndarray  #: banks of each configuration's curve_stall_speed [deg]
     turn_back: TurnBackResult | None = None  #: when the profile gives the best glide
+    buffer: float = 0.0  #: the least margin the pilot wants to keep [m/s]
 
     @property
     def over_max_weight(self) -> bool:
@@ -197,6 +198,7 @@ def compute(profile: Profile, weight: float | None = None, banks_deg=None) -> Re
         configurations=configs,
         glider=None if profile.glider is None else _glider(profile, bank, tas),
         curve_bank_deg=CURVE_BANKS_DEG,
+        buffer=card.buffer,
         turn_back=(_turn_back(profile, bank, k, tas, configs, glide_configuration(profile, configs))
                    if a.best_glide_speed is not None else None),
     )

@@ -106,8 +106,9 @@ class CardActions:
         try:
             self._refuse_inputs(path)
             from kneeboard import report
+            from kneeboard.pipeline import today
 
-            write_atomic(path, report.to_csv(table))
+            write_atomic(path, report.csv_file(table, self.doc.loaded.fingerprint, today()))
         except FileProblem as exc:
             self.show_problems("The table was not exported", f"{exc}\nNothing was written.")
             return None
