@@ -220,7 +220,9 @@ class CardActions:
         except FileProblem as exc:
             self.show_problems("Cannot read the card", str(exc))
             return None
-        mine = [d for d in found if str(d.get("registration", "")).casefold() == registration.casefold()]
+        from kneeboard.registrations import key
+
+        mine = [d for d in found if key(str(d.get("registration", ""))) == key(registration)]
         if not mine:
             self.show_problems("Not this aircraft's card",
                                f"{printable(path)} holds no kneeboard card of {registration}"

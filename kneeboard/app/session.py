@@ -12,6 +12,8 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING
 
+from kneeboard import registrations
+
 if TYPE_CHECKING:  # the pipeline loads numpy, pint and the card package: at the first profile, not at start-up
     from kneeboard.card.ops import Figure
     from kneeboard.pipeline import Prepared, Styles
@@ -35,7 +37,7 @@ class Session:
         self.folder: Path | None = None
         self.style_file: Path | None = None  #: chosen by the person; None: by the one rule
         self._styles: Styles | None = None
-        self.printed: dict[str, Printed] = {}  #: registration (case folded) -> the card last printed here
+        self.printed: dict[str, Printed] = {}  #: registration (`registrations.key`) -> the card last printed here
 
     # --- the fleet and its style ------------------------------------------------------------------
     def use_folder(self, folder: Path | None) -> None:
@@ -106,7 +108,7 @@ class Session:
     # --- what was printed -----------------------------------------------------------------------------
     def remember_printed(self, card, where: str) -> Printed:
         printed = Printed(card.figures(), card.made_on, card.fingerprint, where)
-        self.printed[card.registration.casefold()] = printed
+        self.printed[registrations.key(card.registration)] = printed
         return printed
 
     def remember_printed_data(self, data: dict, where: str) -> Printed:
@@ -114,11 +116,11 @@ class Session:
         from kneeboard.card.data import figures_of
 
         printed = Printed(figures_of(data), str(data.get("made_on", "")), str(data.get("fingerprint", "")), where)
-        self.printed[str(data.get("registration", "")).casefold()] = printed
+        self.printed[registrations.key(str(data.get("registration", "")))] = printed
         return printed
 
     def last_printed(self, registration: str) -> Printed | None:
-        return self.printed.get(registration.casefold())
+        return self.printed.get(registrations.key(registration))
 
     def changes_since_printed(self, printed: Printed, prepared: Prepared):
         """Every printed figure that reads differently on the card `prepared` makes now."""

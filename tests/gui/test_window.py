@@ -149,7 +149,8 @@ def test_broken_files_show_problems_and_keep_the_app(qtbot, window, fleet):
     assert window.problems_seen and "zz_broken.toml" in window.problems_seen[-1][0]
     assert window.doc.path.name == "demo_trainer.toml"  # what was open stays open
     bad_values = fleet / "zz_values.toml"
-    bad_values.write_text((fleet / "demo_trainer.toml").read_text().replace('"48 kt"', '"48 kg"'))
+    bad_values.write_text((fleet / "demo_trainer.toml").read_text().replace('"48 kt"', '"48 kg"')
+                          .replace('"DEMO-TRN"', '"DEMO-VAL"'))
     window.fleet.reload.click()
     window.fleet.check_all()
     marks = {Path(r[2]).name: r[0] for r in window.fleet.rows()}
