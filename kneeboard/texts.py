@@ -84,7 +84,8 @@ warning printed</td><td>the aircraft's flight manual</td></tr>
 <tr><td>density, density altitude</td><td>ICAO standard atmosphere to 20 km; &rho; = p / (R T) with the actual
 temperature</td><td>ICAO Doc 7488, U.S. Standard Atmosphere 1976</td></tr>
 <tr><td>turn radius and rate</td><td>R = V&sup2; / (g tan bank), rate = g tan bank / V, V true airspeed</td>
-<td>FAA-H-8083-15 (Instrument Flying Handbook)</td></tr>
+<td>FAA-H-8083-25 (Pilot's Handbook of Aeronautical Knowledge), &ldquo;Rate of Turn&rdquo; and &ldquo;Radius of
+Turn&rdquo; (its aviation-unit forms R[ft] = V[kt]&sup2; / (11.26 tan bank), rate = 1091 tan bank / V[kt])</td></tr>
 <tr><td>glider polar</td><td>least-squares quadratic; ballast &times; &radic;(W / Wpolar) on speed and sink; in a
 turn speed &times; &radic;n, sink &times; n<sup>1.5</sup></td>
 <td>common method; Welch, Welch &amp; Irving, <i>The Complete Soaring Pilot's Handbook</i></td></tr>
