@@ -8,7 +8,7 @@ import numpy as np
 
 from kneeboard import rounding, units
 from kneeboard.aero import atmosphere
-from kneeboard.compute import Airspeeds, Results
+from kneeboard.compute import Airspeeds, Results, glide_configuration
 from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import NOTHING, Profile
 
@@ -98,13 +98,13 @@ def _glider_checks(profile: Profile, results: Results, clean: Airspeeds) -> list
                         expected)]
     if not g.min_sink_speed > 0:
         return [_speed_at_or_below_zero("aircraft.calibration", "the minimum-sink speed")]
-    clean_stall = results.configurations[0]
+    clean_stall = results.configurations[glide_configuration(profile, results.configurations)]
     if not g.min_sink_cas > clean_stall.level_stall_cas:
         unit = profile.card.speed_unit
         return [Problem(
             "glider.polar", f"the minimum-sink speed at the card weight ({_speed(g.min_sink_cas, unit)} CAS) is not "
             f"above the stall speed of {clean_stall.name} ({_speed(clean_stall.level_stall_cas, unit)} CAS)",
-            "a polar whose minimum sink lies above the first configuration's stall speed")]
+            "a polar whose minimum sink lies above the clean configuration's stall speed")]
     return []
 
 

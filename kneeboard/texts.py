@@ -71,7 +71,9 @@ speed V<sub>bg</sub> &times; &radic;n (IAS), sink rate V / ((L/D) cos bank), hei
 V<sub>bg</sub> the true best-glide airspeed at 1 g at the card weight (best-glide speed &times; &radic;(W / Wref),
 through the calibration and the density). Before the turn, a straight glide for the reaction time:
 V<sub>bg</sub> t / (L/D). A best-glide sink rate given instead of the ratio: L/D = V<sub>bg</sub> / sink. Margin:
-the speed in the turn &minus; the first configuration's stall speed at that bank. Still air, no roll-in or roll-out.
+the speed in the turn &minus; the stall speed at that bank of the configuration it glides in: the one the profile
+names, else the clean one (nothing extended; of several, the one that stalls fastest). Banks at or past that
+configuration's limit bank are marked. Still air, no roll-in or roll-out.
 Heading changes 180&deg; and 270&deg; by default (regaining the runway needs more than 180&deg;; 270&deg;: common
 practice); reaction time 4 s by default (common practice)</td>
 <td>derived from the lift equation; the published analyses of the turn back after take-off reach the same result,
