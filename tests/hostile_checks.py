@@ -19,7 +19,7 @@ from hypothesis import HealthCheck, settings
 
 from kneeboard import report
 from kneeboard.cli import main
-from kneeboard.pipeline import Prepared
+from kneeboard.pipeline import PLACEHOLDER, Prepared
 from kneeboard.schema import KNOWN_KEYS
 from kneeboard.tables import LIMIT_MARK, Printed, build
 from kneeboard.texts import CAUTION
@@ -151,6 +151,9 @@ def assert_loaded(loaded) -> None:
         assert_one_line(str(p))
         if p.is_error:
             assert_field_path(p.path)
+        elif p.message != PLACEHOLDER:  # the placeholders are gathered into one plain line of their own
+            # the card and the app tell every warning in plain words: never a field path or an option name
+            assert p.plain and not re.search(r"--|\w\.\w+_|\[\d+\]", p.plain), p
     if loaded.profile is not None:
         assert_card_figures(loaded.profile)
 
