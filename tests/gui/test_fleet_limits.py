@@ -35,3 +35,21 @@ def test_the_key_figures_show_each_configurations_limit_and_mark_banks_past_it(q
     assert figures[f"Flaps 30 {terms.ZERO_MARGIN_BANK}"] == f"{LIMIT_MARK}60°"
     shown = window.readout.label.text()
     assert "limit g / bank" in shown and f"{LIMIT_MARK}: a bank at or past the configuration's own limit bank" in shown
+
+
+def test_the_apps_compare_makes_a_card_made_for_another_weight_again_at_that_weight(qtbot, window, fleet, tmp_path):
+    import subprocess
+    import sys
+
+    from kneeboard.app.dialogs import CompareDialog
+
+    out = tmp_path / "heavy.pdf"
+    cli = subprocess.run([sys.executable, "-m", "kneeboard", "card", str(fleet / "demo_trainer.toml"), "--weight",
+                          "1985 lb", "-o", str(out)], capture_output=True, text=True)
+    assert cli.returncode == 0, cli.stderr
+    window.ask_open_path = lambda *_: out
+    window.act_compare_printed.trigger()
+    (dialog,) = window.findChildren(CompareDialog)
+    # the profile is unchanged: at the card's own weight every figure reads the same, and the dialog says which
+    assert dialog.row_count() == 0
+    assert "at 1985 lb, the weight it was made for" in dialog.summary.text()
