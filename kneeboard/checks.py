@@ -33,8 +33,8 @@ def physics_checks(profile: Profile, results: Results) -> list[Problem]:
             found.append(_speed_at_or_below_zero("aircraft.calibration", "the maneuvering speed"))
         elif results.va_extrapolated:
             found.append(_beyond_table("aircraft.calibration", "the maneuvering speed VA",
-                                       "The airspeed calibration table does not reach VA: beyond the table its last "
-                                       "correction is carried on. Check VA against the flight manual's calibration"))
+                                       "The calibration table does not reach VA; its last correction is carried on. "
+                                       "Check VA in the flight manual"))
     unit = profile.card.speed_unit
     for i, (c, r) in enumerate(zip(profile.configurations, results.configurations), start=1):
         path = f"configuration[{i}]"
@@ -56,25 +56,23 @@ def physics_checks(profile: Profile, results: Results) -> list[Problem]:
             found.append(Problem(
                 f"{path}.{field}", f"the pattern speed is {ratio} x the stall speed at the card weight in CAS, less "
                 "than the least usual 1.3 (FAA-H-8083-3)", "1.3 x stall speed or more, in CAS", severity=WARNING,
-                plain=f"{c.name}: pattern speed {pattern:g} {unit} is {ratio} x the stall speed (CAS), under the 1.3 "
-                      "the Airplane Flying Handbook gives as the least on final: a small margin. Check the flight "
-                      "manual's approach speeds",
+                plain=f"{c.name}: pattern speed {pattern:g} {unit} is {ratio} x stall speed (CAS), under the "
+                      "least usual 1.3 (Airplane Flying Handbook). Check the flight manual's approach speeds",
             ))
         if r.flap_limit_speed is not None and r.pattern_speed > r.flap_limit_speed:
             vfe = rounding.down(float(units.from_si(r.flap_limit_speed, units.SPEED, unit)))
             found.append(Problem(f"{path}.flap_limit_speed", "the pattern speed is above the flap limit speed",
                                  "a pattern speed at or below VFE", severity=WARNING,
-                                 plain=f"{c.name}: pattern speed {pattern:g} {unit} is above the flap limit speed VFE "
-                                       f"{vfe:g} {unit}. Check both in the flight manual"))
+                                 plain=f"{c.name}: pattern speed {pattern:g} {unit} is above VFE {vfe:g} {unit}. "
+                                       "Check both in the flight manual"))
         if r.calibration_extrapolated:
             found.append(_beyond_table(table, f"the speeds of {c.name}",
-                                       f"{c.name}: the airspeed calibration table does not reach every speed of "
-                                       "this configuration: beyond the table its last correction is carried on. "
-                                       "Check its speeds against the flight manual's calibration"))
+                                       f"{c.name}: the calibration table does not reach all its speeds; its last "
+                                       "correction is carried on. Check them in the flight manual"))
         if c.limit_load_factor is not None and c.limit_load_factor > results.design_limit_load_factor:
             found.append(Problem(f"{path}.limit_load_factor", "is above the aircraft's limit load factor",
                                  f"at most {results.design_limit_load_factor:g}", c.limit_load_factor, WARNING,
-                                 plain=f"{c.name}: its limit load factor {c.limit_load_factor:g} is above the "
+                                 plain=f"{c.name}: limit load factor {c.limit_load_factor:g} is above the "
                                        f"aircraft's {results.design_limit_load_factor:g}. Check both in the flight "
                                        "manual"))
     found += _glide_checks(profile, results)
@@ -120,8 +118,8 @@ def _atmosphere_checks(profile: Profile, results: Results) -> list[Problem]:
                         "an outside air temperature as measured", severity=WARNING,
                         plain=f"Temperature {card.temperature - 273.15:.0f} °C is "
                               f"{abs(card.temperature - standard):.0f} °C "
-                              f"{'above' if card.temperature > standard else 'below'} the standard at this pressure "
-                              "altitude: check the temperature the turn figures are computed for")]
+                              f"{'above' if card.temperature > standard else 'below'} standard at this altitude: "
+                              "check the temperature of the turn figures")]
     return []
 
 
@@ -136,8 +134,8 @@ def _glide_checks(profile: Profile, results: Results) -> list[Problem]:
     return [Problem("aircraft.glide_configuration", f"no configuration has nothing extended, so the turn back's "
                     f"margins are taken over {name}'s stall speed, the highest", "the name of the configuration the "
                     "flight manual's best glide is flown in", severity=WARNING,
-                    plain=f"No configuration is clean (nothing extended): the turn-back margins are taken over "
-                          f"{name}'s stall speed, the highest. Check the flight manual's best-glide configuration")]
+                    plain=f"No configuration is clean: turn-back margins are over {name}'s stall speed, the "
+                          "highest. Check the flight manual's best-glide configuration")]
 
 
 def _printed_speed(v: float, unit: str) -> float:

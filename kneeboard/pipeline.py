@@ -285,7 +285,7 @@ def glyph_problems(profile: Profile) -> list[Problem]:
             shown = ", ".join(missing[:8]) + (", ..." if len(missing) > 8 else "")
             found.append(Problem(path, f"holds characters the card's fonts cannot draw ({shown}); they print as "
                                  f"{fonts.substitute()}", "Latin, Greek or Cyrillic letters", severity=WARNING,
-                                 plain=f"Characters the card's fonts cannot draw are printed as {fonts.substitute()}"))
+                                 plain=f"Characters the card's fonts cannot draw print as {fonts.substitute()}"))
     return found
 
 

@@ -15,8 +15,7 @@ from kneeboard.profile import Calibration
 
 MAX_POLAR_POINTS = 40
 #: How the card tells of an entry of the profile that nothing reads (gathered into one line with their count)
-UNKNOWN_ENTRY = ("The profile holds an entry this program does not read; this card is made without it: check that "
-                 "no figure from the flight manual is missing")
+UNKNOWN_ENTRY = "An entry of the profile is not read; the card is made without it: check no figure is missing"
 
 
 class Reader:
@@ -59,8 +58,8 @@ class Reader:
                 self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",
                              value=data[key], severity=WARNING,
                              plain=UNKNOWN_ENTRY if near is None else
-                             f"The profile holds an entry this program does not read that looks like a misspelt "
-                             f"'{near.label}'; this card is made without it: check that figure")
+                             f"An entry of the profile looks like a misspelt '{near.label}' and is not read: check "
+                             "that figure")
             else:
                 self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING,
                              plain=UNKNOWN_ENTRY)
