@@ -161,3 +161,20 @@ def test_no_option_name_or_field_path_appears_among_a_cards_warnings():
     # the command line's own messages keep the field path for the person fixing the file
     assert "--weight (weight)" in {w.path for w in p.warnings}
     assert checked(text).table is not None
+
+
+def test_the_fingerprint_follows_the_style_choices_that_change_figures_and_no_other():
+    from card_helpers import default_style
+
+    text = TOURER
+    plain = prepare_text(text, default_style())
+    assert plain.fingerprint == checked(text).fingerprint
+    banks = default_style().with_changes(bank_angles_deg=(0.0, 30.0, 60.0))
+    mph = default_style().with_changes(speed_unit="mph")
+    small = default_style().with_changes(size="4x6")
+    assert len({plain.fingerprint, prepare_text(text, banks).fingerprint, prepare_text(text, mph).fingerprint}) == 3
+    assert prepare_text(text, small).fingerprint == plain.fingerprint  # the card size changes no figure
+    # a style writing what the file already says changes nothing
+    same = default_style().with_changes(bank_angles_deg=(0.0, 20.0, 45.0, 60.0, 70.0, 80.0))
+    assert prepare_text(text.replace("[card]", "[card]\nspeed_unit = \"kt\""), same).fingerprint == \
+        prepare_text(text.replace("[card]", "[card]\nspeed_unit = \"kt\""), default_style()).fingerprint
