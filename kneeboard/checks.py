@@ -6,11 +6,11 @@ figure it judges can never disagree. Checks that need only the file's values liv
 
 import numpy as np
 
-from kneeboard import units
+from kneeboard import rounding, units
 from kneeboard.aero import atmosphere
-from kneeboard.compute import Airspeeds, Results
+from kneeboard.compute import Airspeeds, Results, glide_configuration
 from kneeboard.problems import ERROR, WARNING, Problem
-from kneeboard.profile import Profile
+from kneeboard.profile import NOTHING, Profile
 
 LEAST_PATTERN_FACTOR = 1.3  #: 1.3 VS0 on final where the manufacturer gives no figure (FAA-H-8083-3, ch. 9)
 FAR_FROM_STANDARD = 40.0  #: a temperature this far from the standard at the altitude is worth a second look [K]
@@ -26,13 +26,16 @@ def physics_checks(profile: Profile, results: Results) -> list[Problem]:
     if results.limit_load_factor < 1.0:
         found.append(Problem(
             "weight", f"at {_mass(results.weight, weight_unit)} the structure's limit load is reached in level "
-            f"flight (equivalent limit load factor {results.limit_load_factor:.2f})",
+            f"flight (equivalent limit load factor {_ratio(results.limit_load_factor)})",
             "a weight at or below aircraft.max_weight"))
     if results.maneuvering_speed is not None:
         if not (clean.to_cas(a.maneuvering_speed)[0] > 0 and results.maneuvering_speed > 0):
             found.append(_speed_at_or_below_zero("aircraft.calibration", "the maneuvering speed"))
         elif results.va_extrapolated:
-            found.append(_beyond_table("aircraft.calibration", "the maneuvering speed VA"))
+            found.append(_beyond_table("aircraft.calibration", "the maneuvering speed VA",
+                                       "The calibration table does not reach VA; its last correction is carried on. "
+                                       "Check VA in the flight manual"))
+    unit = profile.card.speed_unit
     for i, (c, r) in enumerate(zip(profile.configurations, results.configurations), start=1):
         path = f"configuration[{i}]"
         table = f"{path}.calibration" if c.calibration is not None else "aircraft.calibration"
@@ -40,25 +43,39 @@ def physics_checks(profile: Profile, results: Results) -> list[Problem]:
             found.append(_speed_at_or_below_zero(table, f"the stall speed of {path}"))
             continue
         field = "pattern_speed" if c.pattern_speed is not None else "pattern_factor"
-        if not r.pattern_speed > r.level_stall_speed or not r.pattern_cas > r.level_stall_cas:
+        # as the card prints them: both rounded up, so a pattern speed a hair above the stall speed is refused too
+        pattern, stall = _printed_speed(r.pattern_speed, unit), _printed_speed(r.level_stall_speed, unit)
+        if not r.pattern_speed > r.level_stall_speed or not r.pattern_cas > r.level_stall_cas or pattern <= stall:
             found.append(Problem(
-                f"{path}.{field}", "the pattern speed is not above the stall speed at the card weight",
+                f"{path}.{field}", f"{c.name}: the pattern speed ({pattern:g} {unit}) is not above the stall speed "
+                f"at the card weight ({stall:g} {unit}) as the card prints them: no margin even wings level",
                 "a pattern speed above the wings-level stall speed", severity=ERROR,
             ))
         elif r.pattern_cas < LEAST_PATTERN_FACTOR * r.level_stall_cas * (1 - 1e-12):
+            ratio = _ratio(r.pattern_cas / r.level_stall_cas)
             found.append(Problem(
-                f"{path}.{field}", f"the pattern speed is {r.pattern_cas / r.level_stall_cas:.2f} x the stall speed "
-                "at the card weight in CAS, less than the least usual 1.3 (FAA-H-8083-3)",
-                "1.3 x stall speed or more, in CAS", severity=WARNING,
+                f"{path}.{field}", f"the pattern speed is {ratio} x the stall speed at the card weight in CAS, less "
+                "than the least usual 1.3 (FAA-H-8083-3)", "1.3 x stall speed or more, in CAS", severity=WARNING,
+                plain=f"{c.name}: pattern speed {pattern:g} {unit} is {ratio} x stall speed (CAS), under the "
+                      "least usual 1.3 (Airplane Flying Handbook). Check the flight manual's approach speeds",
             ))
         if r.flap_limit_speed is not None and r.pattern_speed > r.flap_limit_speed:
+            vfe = rounding.down(float(units.from_si(r.flap_limit_speed, units.SPEED, unit)))
             found.append(Problem(f"{path}.flap_limit_speed", "the pattern speed is above the flap limit speed",
-                                 "a pattern speed at or below VFE", severity=WARNING))
+                                 "a pattern speed at or below VFE", severity=WARNING,
+                                 plain=f"{c.name}: pattern speed {pattern:g} {unit} is above VFE {vfe:g} {unit}. "
+                                       "Check both in the flight manual"))
         if r.calibration_extrapolated:
-            found.append(_beyond_table(table, f"the speeds of {c.name}"))
+            found.append(_beyond_table(table, f"the speeds of {c.name}",
+                                       f"{c.name}: the calibration table does not reach all its speeds; its last "
+                                       "correction is carried on. Check them in the flight manual"))
         if c.limit_load_factor is not None and c.limit_load_factor > results.design_limit_load_factor:
             found.append(Problem(f"{path}.limit_load_factor", "is above the aircraft's limit load factor",
-                                 f"at most {results.design_limit_load_factor:g}", c.limit_load_factor, WARNING))
+                                 f"at most {results.design_limit_load_factor:g}", c.limit_load_factor, WARNING,
+                                 plain=f"{c.name}: limit load factor {c.limit_load_factor:g} is above the "
+                                       f"aircraft's {results.design_limit_load_factor:g}. Check both in the flight "
+                                       "manual"))
+    found += _glide_checks(profile, results)
     found += _atmosphere_checks(profile, results)
     if profile.glider is not None:
         found += _glider_checks(profile, results, clean)
@@ -79,13 +96,13 @@ def _glider_checks(profile: Profile, results: Results, clean: Airspeeds) -> list
                         expected)]
     if not g.min_sink_speed > 0:
         return [_speed_at_or_below_zero("aircraft.calibration", "the minimum-sink speed")]
-    clean_stall = results.configurations[0]
+    clean_stall = results.configurations[glide_configuration(profile, results.configurations)]
     if not g.min_sink_cas > clean_stall.level_stall_cas:
         unit = profile.card.speed_unit
         return [Problem(
             "glider.polar", f"the minimum-sink speed at the card weight ({_speed(g.min_sink_cas, unit)} CAS) is not "
             f"above the stall speed of {clean_stall.name} ({_speed(clean_stall.level_stall_cas, unit)} CAS)",
-            "a polar whose minimum sink lies above the first configuration's stall speed")]
+            "a polar whose minimum sink lies above the clean configuration's stall speed")]
     return []
 
 
@@ -98,8 +115,37 @@ def _atmosphere_checks(profile: Profile, results: Results) -> list[Problem]:
     if plausible and abs(card.temperature - standard) > FAR_FROM_STANDARD:
         return [Problem("card.temperature", f"is {card.temperature - standard:+.0f} degC from the standard "
                         f"temperature at this pressure altitude ({standard - 273.15:.0f} degC); check it",
-                        "an outside air temperature as measured", severity=WARNING)]
+                        "an outside air temperature as measured", severity=WARNING,
+                        plain=f"Temperature {card.temperature - 273.15:.0f} °C is "
+                              f"{abs(card.temperature - standard):.0f} °C "
+                              f"{'above' if card.temperature > standard else 'below'} standard at this altitude: "
+                              "check the temperature of the turn figures")]
     return []
+
+
+def _glide_checks(profile: Profile, results: Results) -> list[Problem]:
+    """The turn back glides in the configuration the profile names, else a clean one: with none clean, say so."""
+    tb = results.turn_back
+    if tb is None or profile.aircraft.glide_configuration is not None:
+        return []
+    if any(c.extended == NOTHING for c in profile.configurations):
+        return []
+    name = profile.configurations[tb.configuration].name
+    return [Problem("aircraft.glide_configuration", f"no configuration has nothing extended, so the turn back's "
+                    f"margins are taken over {name}'s stall speed, the highest", "the name of the configuration the "
+                    "flight manual's best glide is flown in", severity=WARNING,
+                    plain=f"No configuration is clean: turn-back margins are over {name}'s stall speed, the "
+                          "highest. Check the flight manual's best-glide configuration")]
+
+
+def _printed_speed(v: float, unit: str) -> float:
+    """A speed [m/s] as the card prints it: in its unit, rounded up (`kneeboard.tables`)."""
+    return rounding.up(float(units.from_si(v, units.SPEED, unit)))
+
+
+def _ratio(x: float) -> str:
+    """A ratio in a message, rounded down: every ratio the checks name is one whose lower values are worse."""
+    return f"{rounding.down(x, 0.01):.2f}"
 
 
 def _speed(v: float, unit: str) -> str:
@@ -110,9 +156,9 @@ def _mass(m: float, unit: str) -> str:
     return units.format_quantity(m, units.MASS, unit)
 
 
-def _beyond_table(path: str, what: str) -> Problem:
+def _beyond_table(path: str, what: str, plain: str) -> Problem:
     return Problem(path, f"does not cover {what}; beyond the table its end offset is held",
-                   "pairs reaching the speeds converted", severity=WARNING)
+                   "pairs reaching the speeds converted", severity=WARNING, plain=plain)
 
 
 def _speed_at_or_below_zero(path: str, what: str) -> Problem:

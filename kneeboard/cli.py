@@ -81,6 +81,8 @@ def _parser() -> argparse.ArgumentParser:
     compare.add_argument("card", metavar="CARD.pdf_OR_FOLDER", help="a card PDF, or a folder of them")
     compare.add_argument("profile", metavar="PROFILE_OR_FOLDER", help="its profile, or the fleet folder")
     compare.add_argument("--style", metavar="STYLE.toml", help=style_help)
+    compare.add_argument("--weight", metavar="QTY", help="compare at this weight, not at the weight the card was "
+                         'made for, e.g. "690 kg"')
     return p
 
 
@@ -102,9 +104,11 @@ def _print_problems(problems: list[Problem], stream) -> None:
         print(p, file=stream)  # Problem's text escapes what a file holds (newlines, escape sequences)
 
 
-def _styles(args, **overrides):
+def _styles(args, styles=None, **overrides):
     from kneeboard.pipeline import Overrides, Styles
 
+    if styles is not None:  # another run's overrides over the same style files
+        return Styles(styles.explicit, Overrides(**overrides))
     return Styles(Path(args.style) if getattr(args, "style", None) else None, Overrides(**overrides))
 
 
@@ -126,9 +130,12 @@ def cmd_check(args) -> int:
     if not files:
         print("kneeboard check: no profile files (*.toml) found", file=sys.stderr)
         return EXIT_PROBLEMS
+    from kneeboard import registrations
+
     styles = _styles(args)
     _print_style_problems(styles, files)
     failed = 0
+    duplicates = registrations.duplicates((registrations.of_file(path), path) for path in files)
     for path in files:
         prepared = _safely(prepare_file, path, styles)
         _print_problems(list(prepared.problems), sys.stdout)
@@ -141,8 +148,9 @@ def cmd_check(args) -> int:
         warned = f", {len(prepared.warnings)} warning(s)" if prepared.warnings else ""
         print(printable(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(prepared.profile.configurations)} "
                         f"configuration(s): {names}; fingerprint {prepared.fingerprint}"))
+    _print_problems(registrations.problems(duplicates), sys.stdout)  # every file of each duplicate, named
     print(CAUTION)
-    return EXIT_PROBLEMS if failed else EXIT_OK
+    return EXIT_PROBLEMS if failed or duplicates else EXIT_OK
 
 
 def cmd_table(args) -> int:
@@ -194,6 +202,7 @@ def cmd_card(args) -> int:
         print(CAUTION)
         return EXIT_PROBLEMS
     _print_problems(made.warnings, sys.stderr)
+    _print_problems(made.clashes, sys.stderr)  # each file of a duplicate named, instead of a numbered file name
     for failure in made.failures:
         for line in failure.lines:
             print(printable(line), file=sys.stderr)
@@ -213,7 +222,7 @@ def cmd_card(args) -> int:
     else:
         print("kneeboard card: no card could be made", file=sys.stderr)
     print(CAUTION)
-    return EXIT_PROBLEMS if made.failures or not made.cards else EXIT_OK
+    return EXIT_PROBLEMS if made.failures or made.clashes or not made.cards else EXIT_OK
 
 
 def _safely(prepare, path, styles):
@@ -232,8 +241,9 @@ def _safely(prepare, path, styles):
 
 def cmd_compare(args) -> int:
     """A printed card against its profile: every printed figure that reads differently, old and new."""
+    from kneeboard import registrations
     from kneeboard.card.data import figures_of, read_card_data
-    from kneeboard.compare import compare_figures
+    from kneeboard.compare import compare_figures, summary
     from kneeboard.fileio import read_bytes
     from kneeboard.pipeline import make_card, prepare_file
     from kneeboard.profile_io import expand_paths
@@ -253,11 +263,11 @@ def cmd_compare(args) -> int:
             return EXIT_PROBLEMS
         cards += [(pdf, data) for data in found]
     styles = _styles(args)
-    profiles = {}
+    profiles: dict[str, list] = {}
     for path in expand_paths([profile_path]):
         prepared = _safely(prepare_file, path, styles)
         if prepared.table is not None:
-            profiles.setdefault(prepared.table.registration.casefold(), prepared)
+            profiles.setdefault(registrations.key(prepared.table.registration), []).append(prepared)
         elif not profile_path.is_dir():
             _print_problems(list(prepared.errors), sys.stderr)
             print(f"{printable(path)}: {len(prepared.errors)} error(s); nothing to compare with", file=sys.stderr)
@@ -265,20 +275,35 @@ def cmd_compare(args) -> int:
     changed = problems = 0
     for pdf, data in cards:
         registration = str(data.get("registration", ""))
-        prepared = profiles.get(registration.casefold())
+        found = profiles.get(registrations.key(registration), [])
         where = printable(f"{pdf} ({registration}, printed {data.get('made_on', '?')})")
-        if prepared is None:
-            print(f"{where}: no profile of {printable(registration)} to compare with")
+        if len(found) != 1:
+            if found:  # a backup copy beside the profile: which one printed this card cannot be told
+                files = ", ".join(str(p.path) for p in found)
+                print(printable(f"kneeboard compare: {where}: {registration} is the registration of "
+                                f"{len(found)} profiles: {files}; remove the copies or give each its own "
+                                "registration"), file=sys.stderr)
+            else:
+                print(f"{where}: no profile of {printable(registration)} to compare with")
+            problems += 1
+            continue
+        prepared, weight = _at_weight(found[0], data, args, styles)
+        if prepared.table is None:
+            _print_problems(list(prepared.errors), sys.stderr)
             problems += 1
             continue
         changes = compare_figures(figures_of(data), make_card(prepared).figures())
         if not changes:
-            print(f"{where}: current: every printed figure reads the same (fingerprint {prepared.fingerprint})")
+            stamp = printable(str(data.get("fingerprint", "")))
+            why = (f"fingerprint {stamp}" if stamp == prepared.fingerprint else "the profile changed, not a figure "
+                   f"this card prints: fingerprint now {prepared.fingerprint}, the card's {stamp}")
+            print(f"{where}: current{weight}: every printed figure reads the same ({why})")
             continue
         changed += 1
         worse = sum(c.worse for c in changes)
-        print(f"{where}: OUT OF DATE: {len(changes)} printed figure(s) read differently"
+        print(f"{where}: OUT OF DATE{weight}: {len(changes)} printed figure(s) read differently"
               + (f", {worse} leaving less room" if worse else "") + "; print a new card")
+        print(printable(f"  summary: {summary(changes).line()}"))
         for c in changes:
             mark = "! less room: " if c.worse else ""
             print(printable(f"  {mark}{c.label}: {c.old or 'not printed'} -> {c.new or 'not printed'}"))
@@ -287,6 +312,18 @@ def cmd_compare(args) -> int:
         return EXIT_PROBLEMS
     print(CAUTION)
     return EXIT_PROBLEMS if problems else EXIT_CHANGED if changed else EXIT_OK
+
+
+def _at_weight(prepared, data: dict, args, styles):
+    """The profile as the card is compared with it: at `--weight` when given, else at the weight the card was made
+    for when one was given for it (`weight_given`), else at the profile's own; and the words that say which."""
+    from kneeboard.pipeline import prepare_file
+
+    weight = args.weight or data.get("weight_given")
+    if not isinstance(weight, str) or not weight:
+        return prepared, ""
+    said = f" at {weight} (--weight)" if args.weight else f" at {weight}, the weight the card was made for"
+    return _safely(prepare_file, prepared.path, _styles(args, weight=weight, styles=styles)), printable(said)
 
 
 HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare": cmd_compare}

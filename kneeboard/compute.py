@@ -23,7 +23,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from kneeboard.aero import airspeed, atmosphere, glide, glider, limits, turns
-from kneeboard.profile import AIR_BRAKES, FLAPS, Calibration, Configuration, Profile
+from kneeboard.profile import AIR_BRAKES, FLAPS, NOTHING, Calibration, Configuration, Profile, name_key
 
 #: Banks of the chart's curves [deg]: 1 degree steps, a smooth curve at card size. They are evaluated in the same
 #: vectorised call as the card's own banks, so a card computes its physics once.
@@ -125,9 +125,10 @@ class TurnBackResult:
     reaction_height_loss: float  #: straight glide during the reaction time [m]
     bank: np.ndarray  #: the card's banks above 0 [rad]
     speed: np.ndarray  #: IAS flown in the turn at each bank [m/s]
-    margin: np.ndarray  #: that speed minus the first configuration's stall speed at the bank, IAS [m/s]
+    margin: np.ndarray  #: that speed minus the glide configuration's stall speed at the bank, IAS [m/s]
     height_loss: np.ndarray  #: [bank, heading] height lost in the turn alone [m]
     extrapolated: bool  #: the best-glide speed's conversion went beyond the calibration table
+    configuration: int = 0  #: index of the configuration it glides in (`glide_configuration`)
 
 
 @dataclass(frozen=True)
@@ -148,6 +149,7 @@ class Results:
     glider: GliderResult | None
     curve_bank_deg: np.ndarray  #: banks of each configuration's curve_stall_speed [deg]
     turn_back: TurnBackResult | None = None  #: when the profile gives the best glide
+    buffer: float = 0.0  #: the least margin the pilot wants to keep [m/s]
 
     @property
     def over_max_weight(self) -> bool:
@@ -196,8 +198,32 @@ def compute(profile: Profile, weight: float | None = None, banks_deg=None) -> Re
         configurations=configs,
         glider=None if profile.glider is None else _glider(profile, bank, tas),
         curve_bank_deg=CURVE_BANKS_DEG,
-        turn_back=_turn_back(profile, bank, k, tas, configs[0]) if a.best_glide_speed is not None else None,
+        buffer=card.buffer,
+        turn_back=(_turn_back(profile, bank, k, tas, configs, glide_configuration(profile, configs))
+                   if a.best_glide_speed is not None else None),
     )
+
+
+def glide_configuration(profile: Profile, configs=None) -> int:
+    """Index of the configuration the turn back glides in: the one the profile names, else the clean one.
+
+    The best-glide speed is published clean (nothing extended). Of several configurations with nothing extended
+    (a retractable's gear down, a flap setting entered without its flap limit) the one that stalls fastest is taken,
+    so its margins err low; with none clean, the fastest-stalling of all (`checks` warns). `configs` are the
+    configurations' results; without them the published stall speeds are compared.
+    """
+    named = profile.aircraft.glide_configuration
+    configurations = profile.configurations
+    if named is not None:
+        for i, c in enumerate(configurations):
+            if name_key(c.name) == name_key(named):
+                return i
+    clean = [i for i, c in enumerate(configurations) if c.extended == NOTHING] or range(len(configurations))
+
+    def stall(i):
+        return configs[i].level_stall_speed if configs is not None else configurations[i].stall_speed
+
+    return max(clean, key=lambda i: (stall(i), -i))
 
 
 def design_limit_load_factor(aircraft) -> float:
@@ -283,8 +309,9 @@ def _configuration(profile: Profile, c: Configuration, bank, curve, k: float, ta
     )
 
 
-def _turn_back(profile: Profile, bank, k: float, tas, clean: ConfigurationResult) -> TurnBackResult:
+def _turn_back(profile: Profile, bank, k: float, tas, configs, index: int) -> TurnBackResult:
     a, card = profile.aircraft, profile.card
+    clean = configs[index]
     speeds = Airspeeds(a.calibration, a.speed_basis)
     v_cas, e1 = speeds.to_cas(a.best_glide_speed)
     v_ias, e2 = speeds.to_ias(a.best_glide_speed)
@@ -307,6 +334,7 @@ def _turn_back(profile: Profile, bank, k: float, tas, clean: ConfigurationResult
         margin=speed - turns.stall_speed_in_bank(clean.level_stall_speed, turning),
         height_loss=glide.turn_height_loss(v_tas, ratio, turning[:, None], headings[None, :]),
         extrapolated=bool(e1 | e2),
+        configuration=index,
     )
 
 

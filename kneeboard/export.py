@@ -11,6 +11,7 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 from pathlib import Path
 
+from kneeboard import registrations
 from kneeboard.card import Card, LayoutError, attachment
 from kneeboard.card.sheets import SheetError
 from kneeboard.fileio import FileProblem, refuse_overwrite_of_inputs, write_atomic
@@ -48,7 +49,7 @@ def make_cards(paths: list[Path], styles: Styles, made_on: str | None = None,
             break
         card = _card(path, styles, made_on, batch)
         if card is not None:
-            made.append((card.registration.casefold(), str(path), card))
+            made.append((registrations.key(card.registration), str(path), card))
             batch.sources[card.registration] = path
     if progress is not None and not batch.cancelled:
         progress(len(paths), len(paths), "")
@@ -99,9 +100,17 @@ def _kept(ch: str) -> bool:
 
 
 def unique_names(registrations) -> list[str]:
-    """One file stem per card, from its registration: collisions (ignoring case) get -2, -3, ..."""
-    used: set[str] = set()
-    return [_unique(safe_name(registration), used) for registration in registrations]
+    """One file stem per card, from its registration; raises FileProblem naming the registrations whose files would
+    be one (the same registration in other letters' case or accents, or characters a file name cannot hold)."""
+    names = [safe_name(registration) for registration in registrations]
+    seen: dict[str, tuple[str, str]] = {}
+    for name, registration in zip(names, registrations):
+        if name.casefold() in seen:
+            first, file = seen[name.casefold()]
+            raise FileProblem(printable(f"the cards of {first} and {registration} would both be written as "
+                                        f"{file}.pdf: give each aircraft its own registration"))
+        seen[name.casefold()] = (registration, name)
+    return names
 
 
 def write_fleet(cards: list[Card], out: Path, sheet: str | None = None) -> None:
@@ -115,9 +124,10 @@ def write_fleet(cards: list[Card], out: Path, sheet: str | None = None) -> None:
 
 def write_each(cards: list[Card], folder: Path) -> list[Path]:
     """One PDF per aircraft in `folder`, named by registration; returns the files written."""
+    names = unique_names([c.registration for c in cards])
     _make_folder(folder)
     written = []
-    for card, stem in zip(cards, unique_names(c.registration for c in cards)):
+    for card, stem in zip(cards, names):
         path = folder / f"{stem}.pdf"
         write_atomic(path, card_pdf(card))
         written.append(path)
@@ -128,7 +138,7 @@ def write_pngs(cards: list[Card], folder: Path, prefix: str, dpi: int) -> list[P
     """Each card page as a PNG at `dpi`, named PREFIX<name>-front.png / -back.png (the names of `write_each`); a
     card set's faces PREFIX<name>-card1-front.png, -card1-back.png, -card2-front.png..."""
     written = []
-    for card, stem in zip(cards, unique_names(c.registration for c in cards)):
+    for card, stem in zip(cards, unique_names([c.registration for c in cards])):
         written += _pngs(card, folder, f"{prefix}{stem}", dpi)
     return written
 
@@ -168,22 +178,43 @@ class Export:
     failures: list[Failure] = field(default_factory=list)
     warnings: list[Problem] = field(default_factory=list)
     cancelled: bool = False
+    clashes: list[Problem] = field(default_factory=list)  #: profiles whose own files would be one: not written
 
 
 def registration_order(paths: list[Path]) -> list[Path]:
-    """`paths` in the order their cards print: by registration (case ignored), then file name.
+    """`paths` in the order their cards print: by registration (`registrations.key`), then file name.
 
     Only the files' data is read (no validation, no physics), so ordering a fleet costs a fraction of making it.
     """
-    from kneeboard.profile_io import read_source
+    return [path for _, path in _registered(paths)]
 
-    def key(path: Path):
-        data = read_source(path).data or {}
-        aircraft = data.get("aircraft") if isinstance(data.get("aircraft"), dict) else {}
-        registration = aircraft.get("registration")
-        return (registration.strip().casefold() if isinstance(registration, str) else "", str(path))
 
-    return sorted(paths, key=key)
+def _registered(paths: list[Path]) -> list[tuple[str | None, Path]]:
+    """(registration or None, file) in registration order."""
+    found = [(registrations.of_file(path), Path(path)) for path in paths]
+    return sorted(found, key=lambda item: (registrations.key(item[0] or ""), str(item[1])))
+
+
+def file_clashes(registered: list[tuple[str | None, Path]], folder: Path) -> dict[Path, Problem]:
+    """The profiles whose cards would be written to one file in `folder` (one registration in two profiles, or two
+    registrations one file name cannot tell apart): each named with the others, none written there. A number
+    added to one name would hide which profile is the aircraft's."""
+    groups: dict[str, list[tuple[str, Path]]] = {}
+    for registration, path in registered:
+        if registration is not None:
+            groups.setdefault(safe_name(registration).casefold(), []).append((registration, path))
+    clashes = {}
+    for group in (g for g in groups.values() if len(g) > 1):
+        for registration, path in group:
+            others = ", ".join(f"{r} ({p})" for r, p in group if p != path)
+            same = all(registrations.key(r) == registrations.key(registration) for r, _ in group)
+            what = "is also the registration of" if same else "would have its card written to the same file as"
+            clashes[path] = Problem(
+                "aircraft.registration", f"{registration} {what} {others}: no card of either is written as "
+                f"{safe_name(registration)}.pdf in {folder}", "a registration no other profile of the fleet has "
+                "(a copy of a profile beside it is a duplicate: remove it or give it its own registration)",
+                file=str(path))
+    return clashes
 
 
 def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, sheet: str | None = None,
@@ -199,7 +230,10 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
     from kneeboard.card.sheets import grid_for, impose, physical_cards
 
     result = Export()
-    ordered = registration_order(paths)
+    registered = _registered(paths)
+    ordered = [path for _, path in registered]
+    clashes = file_clashes(registered, each if each is not None else out.parent) if each or png_dpi else {}
+    result.clashes = list(clashes.values())
     for path in ordered:
         styles.for_profile(path)  # every style (and its logo) is known before anything is written
 
@@ -215,7 +249,6 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
         writer = PdfWriter(title)
     if each is not None:
         _make_folder(each)
-    used: set[str] = set()
     fingerprints: list[str] = []
     group: list = []  # cards waiting to fill a sheet
     grid = None
@@ -232,7 +265,7 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
         card = _card(path, styles, made_on, result)
         if card is None:
             continue
-        stem = _unique(safe_name(card.registration), used)
+        stem = safe_name(card.registration)
         fingerprints.append(card.fingerprint)
         if writer is not None:
             writer.attach(*attachment(card))
@@ -250,11 +283,11 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
                     continue
                 group.extend(physical_cards([card.pages]))  # a card set fills a slot per physical card
                 flush(full_only=True)
-        if each is not None:
+        if each is not None and path not in clashes:
             target = guard(each / f"{stem}.pdf")
             write_atomic(target, card_pdf(card))
             result.written.append(target)
-        if png_dpi:
+        if png_dpi and path not in clashes:
             folder, prefix = (each, "") if each is not None else (out.parent, f"{out.stem}-")
             result.written += _pngs(card, folder, f"{prefix}{stem}", png_dpi, guard)
         result.cards += 1
@@ -271,10 +304,3 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
         result.written.insert(0, out)
     return result
 
-
-def _unique(name: str, used: set[str]) -> str:
-    stem, n = name, 2
-    while stem.casefold() in used:
-        stem, n = f"{name}-{n}", n + 1
-    used.add(stem.casefold())
-    return stem

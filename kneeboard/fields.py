@@ -86,6 +86,9 @@ FIELDS: tuple[Field, ...] = (
     Field("aircraft", "best_glide_sink", QUANTITY, "Best-glide sink rate", 'instead of the ratio, e.g. "750 fpm"',
           quantity=units.SPEED, bounds=SINK_RANGE,
           help="The sink rate at the best-glide speed; converted to a glide ratio at that speed."),
+    Field("aircraft", "glide_configuration", TEXT, "Glide configuration", "default: the clean one", limit=24,
+          help="The configuration the turn back glides in, by its name. Default: the one with nothing extended "
+               "(of several, the one that stalls fastest)."),
     # --- the weight the card is for ---
     Field("weight", "total", QUANTITY, "Total", 'e.g. "690 kg"', quantity=units.MASS, bounds=MASS_RANGE),
     Field("weight", "empty", QUANTITY, "Empty weight", 'e.g. "480 kg"', quantity=units.MASS, bounds=MASS_RANGE),
@@ -142,7 +145,8 @@ TOP_LEVEL = ("schema", "template") + SECTIONS  #: template: the template a new p
 
 #: The keys whose template values are placeholders for the aircraft's own figures (the card settings are defaults).
 PLACEHOLDER_SECTIONS = ("aircraft", "weight", "configuration", "glider")
-NOT_PLACEHOLDERS = {"aircraft.category", "aircraft.speed_basis", "configuration.name", "configuration.pattern_factor"}
+NOT_PLACEHOLDERS = {"aircraft.category", "aircraft.speed_basis", "configuration.name", "configuration.pattern_factor",
+                    "configuration.extended"}
 
 BY_PATH: dict[str, Field] = {f.path: f for f in FIELDS}
 

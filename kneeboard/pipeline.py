@@ -14,7 +14,9 @@ gives the same figures, in the same units and at the same banks, whichever way i
    the checks that need it (`checks.physics_checks`) and the table builder read those same results.
 4. The table, laid out by the one layout, drawn by the one renderer.
 
-The fingerprint printed on a card is always that of the profile file's own data, whatever the overrides.
+The fingerprint printed on a card covers everything its figures come from (`card_fingerprint`): the profile
+file's data, and whatever the style or an override wrote into it (a weight given for this card, the banks, the
+units). Without a style setting or an override it is the file's own fingerprint.
 """
 
 import copy
@@ -29,7 +31,7 @@ from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import Profile
-from kneeboard.profile_io import Source, read_source, source_from_text
+from kneeboard.profile_io import Source, fingerprint, read_source, source_from_text
 from kneeboard.schema import profile_from_data
 from kneeboard.tables import CardTable, build
 
@@ -104,13 +106,14 @@ class Prepared:
     """One profile through the pipeline up to its printed table: everything `check`, `table` and a card need."""
 
     path: Path | None
-    fingerprint: str  #: of the file's own data
+    fingerprint: str  #: of what the card's figures come from (`card_fingerprint`); "" when unreadable
     style: CardStyle | None
     profile: Profile | None  #: as the card uses it (style settings and overrides applied); None on any error
     results: Results | None  #: full precision; None on any error
     table: CardTable | None  #: the printed figures; None on any error
     problems: tuple[Problem, ...]  #: the file's, the style's, the overrides' and the physics' problems
     style_problems: tuple[Problem, ...] = field(default=())
+    weight_given: str | None = None  #: the weight given for this card (`Overrides.weight`), as typed
 
     @property
     def errors(self) -> list[Problem]:
@@ -132,6 +135,7 @@ def prepare(source: Source, style: CardStyle | None, overrides: Overrides = NONE
     if source.data is None:
         return Prepared(source.path, source.fingerprint, style, None, None, None, source.problems, style_problems)
     data, origins = _merged(source.data, style, overrides)
+    mark = card_fingerprint(source, data, origins)
     profile, found = profile_from_data(data)
     found += placeholder_problems(source.data)
     problems = [_relabel(p, origins).in_file(where) for p in found]
@@ -145,8 +149,29 @@ def prepare(source: Source, style: CardStyle | None, overrides: Overrides = NONE
         profile = results = None
     else:
         table = build(profile, results=results, warnings=card_warnings(problems, profile))
-    return Prepared(source.path, source.fingerprint, style, profile, results, table, tuple(problems),
-                    style_problems)
+    return Prepared(source.path, mark, style, profile, results, table, tuple(problems), style_problems,
+                    overrides.weight)
+
+
+def card_fingerprint(source: Source, data: dict, origins: dict[str, str]) -> str:
+    """The fingerprint of everything a card's figures come from: the file's data, and each value a style or an
+    override wrote into it that differs from the file's own (the weight given for the card, banks, units).
+
+    With nothing written over the file's values it is the file's own fingerprint, so a card made from the profile
+    alone keeps the fingerprint `kneeboard check` prints for it.
+    """
+    written = {path: _at(data, path) for path in sorted(origins)}
+    written = {path: value for path, value in written.items() if value != _at(source.data, path)}
+    if not written:
+        return source.fingerprint
+    return fingerprint({"profile": source.data, "written for the card": written})
+
+
+def _at(data, path: str):
+    """The value at a dotted path of plain data ("card.bank_angles"), or None."""
+    for key in path.split("."):
+        data = data.get(key) if isinstance(data, dict) else None
+    return data
 
 
 def prepare_file(path: Path, styles: Styles) -> Prepared:
@@ -172,7 +197,8 @@ def make_card(prepared: Prepared, made_on: str | None = None):
     # the logo was decoded and checked when the style was read: drawing never meets a broken one
     layout = layout_card(prepared.table, prepared.style, prepared.fingerprint, made_on or today(),
                          prepared.style.logo_png)
-    return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint, made_on or today())
+    return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint, made_on or today(),
+                prepared.weight_given)
 
 
 def today() -> str:
@@ -199,9 +225,9 @@ def fleet_pdf(cards, sheet: str | None = None) -> bytes:
 REPORTS = {"text": report.to_text, "csv": report.to_csv, "json": report.to_json}
 
 
-def report_text(prepared: Prepared, form: str) -> str:
-    """The table as "text", "csv" or "json" (see `kneeboard.report`)."""
-    return REPORTS[form](prepared.table)
+def report_text(prepared: Prepared, form: str, made_on: str | None = None) -> str:
+    """The table as "text", "csv" or "json" (see `kneeboard.report`), with the card's fingerprint and date."""
+    return REPORTS[form](prepared.table, prepared.fingerprint, made_on or today())
 
 
 # --- checks of the data that are neither the reader's nor the physics' ----------------------------------------
@@ -258,7 +284,8 @@ def glyph_problems(profile: Profile) -> list[Problem]:
         if missing:
             shown = ", ".join(missing[:8]) + (", ..." if len(missing) > 8 else "")
             found.append(Problem(path, f"holds characters the card's fonts cannot draw ({shown}); they print as "
-                                 f"{fonts.substitute()}", "Latin, Greek or Cyrillic letters", severity=WARNING))
+                                 f"{fonts.substitute()}", "Latin, Greek or Cyrillic letters", severity=WARNING,
+                                 plain=f"Characters the card's fonts cannot draw print as {fonts.substitute()}"))
     return found
 
 
@@ -266,10 +293,16 @@ def glyph_problems(profile: Profile) -> list[Problem]:
 
 
 def card_warnings(problems, profile: Profile) -> tuple[str, ...]:
-    """The card's WARNING lines: one per warning, the template's placeholders gathered into one line."""
+    """The card's WARNING lines in plain words (`Problem.plain`): one per warning, the same words once with their
+    count (unknown entries, unreadable characters), the template's placeholders gathered into one line."""
     warnings = [p for p in problems if not p.is_error]
     placeholders = [p for p in warnings if p.message == PLACEHOLDER]
-    lines = [warning_line(p, profile) for p in warnings if p.message != PLACEHOLDER]
+    counts: dict[str, int] = {}
+    for p in warnings:
+        if p.message != PLACEHOLDER:
+            line = warning_line(p, profile)
+            counts[line] = counts.get(line, 0) + 1
+    lines = [line if n == 1 else f"{line} ({n} times)" for line, n in counts.items()]
     if placeholders:
         lines.append(f"WARNING placeholder values from a template, not from a flight manual ({len(placeholders)}): "
                      "replace them with this aircraft's figures")
@@ -277,7 +310,11 @@ def card_warnings(problems, profile: Profile) -> tuple[str, ...]:
 
 
 def warning_line(problem: Problem, profile: Profile) -> str:
-    """A warning as a line a pilot reads on the card: "WARNING Flaps 30, fixed speed: ...", no file paths."""
+    """A warning as a line a pilot reads on the card: "WARNING Flaps 30: ...", no file paths or option names.
+
+    Every warning says it in plain words (`Problem.plain`); one that does not is named by its field's label."""
+    if problem.plain:
+        return f"WARNING {problem.plain}."
     where = problem.path
     m = re.match(r"configuration\[(\d+)\](?:\.(\w+))?(.*)", where)
     if m and int(m.group(1)) <= len(profile.configurations):

@@ -23,6 +23,8 @@ class Problem:
     value: object = None  #: the value as written, None when absent
     severity: Literal["error", "warning"] = ERROR
     file: str = ""  #: file the value came from
+    plain: str = ""  #: the warning as a pilot reads it on the card and in the app: the figure, what it means and
+    #: what to check in the flight manual, in the trade's words; no field path, no option name
 
     @property
     def is_error(self) -> bool:

@@ -6,6 +6,7 @@ angles to print, units, the airfield's pressure altitude and temperature). Edits
 objects with `dataclasses.replace`; nothing here reads files or computes flight mechanics.
 """
 
+import unicodedata
 from dataclasses import dataclass, replace
 
 CATEGORIES = ("normal", "utility", "acrobatic", "glider")
@@ -92,6 +93,7 @@ class Aircraft:
     best_glide_speed: float | None = None  #: at the reference weight, in the speed basis [m/s]
     glide_ratio: float | None = None  #: best glide ratio L/D [-]
     best_glide_sink: float | None = None  #: sink rate at the best-glide speed, instead of the ratio [m/s]
+    glide_configuration: str | None = None  #: the configuration the turn back glides in; None: the clean one
 
 
 @dataclass(frozen=True)
@@ -139,3 +141,8 @@ class Profile:
 
     def calibration_for(self, configuration: Configuration) -> Calibration | None:
         return configuration.calibration or self.aircraft.calibration
+
+
+def name_key(name: str) -> str:
+    """What makes two configuration names the same on a card: case, character width and spacing do not count."""
+    return " ".join(unicodedata.normalize("NFKC", name).casefold().split())

@@ -5,8 +5,6 @@ its path, what is wrong and what would be accepted, and reading goes on so that 
 everything. Errors make the profile unusable; warnings are shown but do not stop a card.
 """
 
-import unicodedata
-
 from kneeboard import fields, units
 from kneeboard.fields import (
     MAX_BANK_DEG,
@@ -30,6 +28,7 @@ from kneeboard.profile import (
     Polar,
     Profile,
     WeightItem,
+    name_key,
 )
 from kneeboard.values import MAX_POLAR_POINTS, Reader, finite
 
@@ -59,6 +58,7 @@ def profile_from_data(data: dict) -> tuple[Profile | None, list[Problem]]:
         return None, r.problems
     profile = Profile(aircraft, tuple(configurations), card, loading, glider)
     _cross_checks(r, profile)
+    _flap_checks(r, data["configuration"], profile)
     if any(p.is_error for p in r.problems):
         return None, r.problems
     return profile, r.problems
@@ -70,7 +70,9 @@ def _read_schema(r, data):
     if version is None:
         r.problem("schema", f"is missing, so this is a format-0 file; it is read as format {SCHEMA_VERSION}, and "
                   "saving it from the app adds the number and keeps the original as a .format0.bak file",
-                  wanted, severity=WARNING)
+                  wanted, severity=WARNING,
+                  plain="Profile of the first file format: figures read as written; check them against the flight "
+                        "manual once")
     elif isinstance(version, bool) or not isinstance(version, int) or version < 1:
         r.problem("schema", "is not a format number", wanted, version)
     elif version > SCHEMA_VERSION:
@@ -104,9 +106,12 @@ def _read_aircraft(r, data):
     elif ("glide_ratio" in a or "best_glide_sink" in a) != ("best_glide_speed" in a):
         r.problem("aircraft.best_glide_speed" if "best_glide_speed" not in a else "aircraft.glide_ratio",
                   "the turn-back figures need both the best-glide speed and the glide ratio (or sink rate)",
-                  "best_glide_speed with glide_ratio or best_glide_sink", severity=WARNING)
+                  "best_glide_speed with glide_ratio or best_glide_sink", severity=WARNING,
+                  plain="No turn back: it needs both the best-glide speed and the glide ratio (or sink rate), and "
+                        "the profile gives one. Both are in the flight manual")
         best_glide = glide_ratio = best_glide_sink = None
     calibration = r.calibration(a, "aircraft.calibration")
+    glide_configuration = r.read("aircraft.glide_configuration", a) or None
     if max_weight is None:
         return None
     return Aircraft(
@@ -123,6 +128,7 @@ def _read_aircraft(r, data):
         best_glide_sink=best_glide_sink,
         speed_basis=basis,
         calibration=calibration,
+        glide_configuration=glide_configuration,
     )
 
 
@@ -255,7 +261,9 @@ def _read_card(r, data):
         temperature = None
     elif temperature is not None and not 203.15 <= temperature <= 333.15:
         r.problem("card.temperature", "is outside -70 to +60 degC; check it", "an outside air temperature",
-                  c["temperature"], WARNING)
+                  c["temperature"], WARNING,
+                  plain=f"Temperature {temperature - 273.15:.0f} °C is outside -70 to +60 °C: check the "
+                        "temperature of the turn figures")
     notes = r.read("card.notes", c)
     headings = _read_headings(r, c)
     reaction = r.read("card.reaction_time", c)
@@ -314,13 +322,14 @@ def _read_banks(r, c):
             continue
         banks.append(float(b))
     if len(set(banks)) != len(banks):
-        r.problem("card.bank_angles", "lists a bank twice; it is printed once", "each bank once", raw, WARNING)
+        r.problem("card.bank_angles", "lists a bank twice; it is printed once", "each bank once", raw, WARNING,
+                  plain="A bank angle is listed twice; it is printed once")
     return tuple(sorted(set(banks))) or DEFAULT_BANKS_DEG
 
 
 def _name_key(name: str) -> str:
     """What makes two configuration names the same on a card: case, character width and spacing do not count."""
-    return " ".join(unicodedata.normalize("NFKC", name).casefold().split())
+    return name_key(name)
 
 
 def _cross_checks(r, profile):
@@ -328,11 +337,41 @@ def _cross_checks(r, profile):
     a = profile.aircraft
     if profile.weight > a.max_weight * (1 + 1e-9):
         unit = profile.card.weight_unit
+        weight = units.format_quantity(profile.weight, units.MASS, unit)
+        most = units.format_quantity(a.max_weight, units.MASS, unit)
         r.problem(
-            "weight", f"{units.format_quantity(profile.weight, units.MASS, unit)} is above the maximum weight of "
-            f"{units.format_quantity(a.max_weight, units.MASS, unit)}; limit loads are reduced in proportion",
+            "weight", f"{weight} is above the maximum weight of {most}; limit loads are reduced in proportion",
             "a weight at or below aircraft.max_weight", severity=WARNING,
+            plain=f"Card weight {weight} is above the maximum weight of {most}: limit load factors lowered in "
+                  "proportion. The flight manual's weight limits govern",
         )
+    names = [c.name for c in profile.configurations]
+    if a.glide_configuration is not None and name_key(a.glide_configuration) not in {name_key(n) for n in names}:
+        r.problem("aircraft.glide_configuration", "names no configuration of this profile",
+                  "the name of one of its configurations: " + ", ".join(names), a.glide_configuration)
     if a.reference_weight > a.max_weight * (1 + 1e-9):
         r.problem("aircraft.reference_weight", "is above the maximum weight", "at most aircraft.max_weight",
-                  severity=WARNING)
+                  severity=WARNING,
+                  plain="The stall speeds' published weight is above the maximum weight: check both in the flight "
+                        "manual")
+
+
+def _flap_checks(r, raw: list, profile) -> None:
+    """A configuration that stalls slower than the clean wing has something extended; one that says neither what
+    (`extended`), nor its flap limit speed, nor its own limit load factor gets the clean wing's limit load factor,
+    where 14 CFR 23.345 (before amendment 23-64) gives +2.0 with the flaps extended: warned, naming it."""
+    clean = [c for c in profile.configurations if c.extended == NOTHING]
+    if not clean:
+        return
+    fastest = max(clean, key=lambda c: c.stall_speed)
+    for i, (c, written) in enumerate(zip(profile.configurations, raw), start=1):
+        if c.stall_speed >= fastest.stall_speed or any(
+                key in written for key in ("extended", "flap_limit_speed", "limit_load_factor")):
+            continue
+        r.problem(f"configuration[{i}]", f"stalls slower than {fastest.name} but gives neither a flap limit speed "
+                  "nor what it extends, so its limit load factor is taken as the clean wing's",
+                  'flap_limit_speed and extended = "flaps" (or "air brakes"), its own limit_load_factor, or '
+                  'extended = "nothing" when nothing is extended', severity=WARNING,
+                  plain=f"{c.name} stalls slower than {fastest.name} but has no flap limit speed: its limit load "
+                        "factor is the clean wing's, more than flaps may allow (14 CFR 23.345: +2.0). Check its VFE "
+                        "and limits")

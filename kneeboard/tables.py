@@ -21,14 +21,23 @@ SPEED_STEP = 1.0  #: printed speed resolution, in the speed unit
 LOAD_STEP = 0.01
 SINK_STEP = 0.1
 LOAD_FACTORS = (1.5, 2.0, 2.5, 3.0)  #: load factors whose stall speeds the limits block prints [-]
+#: Before a bank printed as its configuration's limit bank: the figure itself lies at or past that limit, so the
+#: limit is printed in its place ("≥60"), never the figure as if it were a bank to fly.
+LIMIT_MARK = "≥"
 
 
 @dataclass(frozen=True)
 class Printed:
-    """A figure as printed: the conservatively rounded number and its text."""
+    """A figure as printed: the conservatively rounded number and its text.
+
+    `past_limit`: the figure lies at or past its configuration's own limit (a bank at or past the limit bank, a
+    load factor above the limit load factor). A bank so flagged holds the limit bank with `LIMIT_MARK` in its text;
+    any other flagged figure keeps its text and is printed with a mark that says so.
+    """
 
     value: float
     text: str
+    past_limit: bool = False
 
 
 def _up(x, step=1.0) -> Printed:
@@ -64,13 +73,16 @@ class ConfigurationTable:
     name: str
     stall_speed: Printed  #: wings level at the card weight, rounded up
     pattern_speed: Printed  #: rounded up; every printed margin and bank is taken from this, the speed flown
-    zero_margin_bank: Printed  #: at the printed pattern speed, rounded down
-    buffer_bank: Printed | None  #: at the printed pattern speed, rounded down; None: below the buffer wings level
+    zero_margin_bank: Printed  #: at the printed pattern speed, rounded down; at or past the limit bank: that
+    #: limit, marked (`Printed.past_limit`, text "≥60")
+    buffer_bank: Printed | None  #: at the printed pattern speed, rounded down, marked like the zero-margin bank;
+    #: None: below the buffer wings level
     flap_limit_speed: Printed | None  #: rounded down
     limit_load_factor: Printed  #: this configuration's, at the card weight, rounded down
     limit_bank: Printed  #: its level-turn bank, rounded down
     available_load_factor: Printed  #: (Vp / Vs)^2 at the pattern speed, rounded down
-    stall_at_load: tuple[tuple[str, Printed], ...]  #: (load factor text, stall speed rounded up) at LOAD_FACTORS
+    stall_at_load: tuple[tuple[str, Printed], ...]  #: (load factor text, stall speed rounded up) at LOAD_FACTORS;
+    #: past_limit where the load factor is above this configuration's limit load factor
     rows: tuple[BankRow, ...]
 
     @property
@@ -102,9 +114,10 @@ class TurnBackRow:
     bank_deg: float
     bank_text: str
     speed: Printed  #: IAS to fly in the turn, rounded up
-    margin: Printed  #: printed speed - the first configuration's printed stall speed at this bank
+    margin: Printed  #: printed speed - the glide configuration's printed stall speed at this bank
     height_loss: tuple[Printed, ...]  #: per heading change, the turn alone, rounded up
     least: bool  #: the bank of least height loss among the card's banks
+    past_limit: bool = False  #: at or past the limit bank of the configuration it glides in (`TurnBackTable.clean`)
 
 
 @dataclass(frozen=True)
@@ -114,8 +127,9 @@ class TurnBackTable:
     headings: tuple[str, ...]  #: heading changes as printed, degrees
     reaction_time: Printed  #: [s]
     reaction_height_loss: Printed  #: rounded up
-    clean: str  #: the configuration whose stall speed the margins are taken from
+    clean: str  #: the configuration the turn back glides in: its stall speed the margins, its limit bank the marks
     rows: tuple[TurnBackRow, ...]
+    limit_bank: Printed | None = None  #: that configuration's limit bank, rounded down
 
 
 @dataclass(frozen=True)
@@ -238,8 +252,8 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
         results=results,
         curves=_curves(results, su),
         warnings=tuple(warnings),
-        turn_back=None if results.turn_back is None else _turn_back(results.turn_back, configurations[0], spd, dist,
-                                                                    du),
+        turn_back=None if results.turn_back is None else _turn_back(
+            results.turn_back, configurations[results.turn_back.configuration], spd, dist, du),
     )
 
 
@@ -250,6 +264,7 @@ def _turn_back(tb, clean: ConfigurationTable, spd, dist, du: str) -> TurnBackTab
     """The turn back's printed figures: speeds and heights up, the margin over the printed stall speed down."""
     step = HEIGHT_STEP[du]
     stalls = {row.bank_text: row.stall_speed for row in clean.rows}
+    over = {row.bank_text: row.over_limit for row in clean.rows}
     rows, exact = [], []
     for i, b in enumerate(tb.bank):
         bank_text = _bank_text(b)
@@ -267,8 +282,10 @@ def _turn_back(tb, clean: ConfigurationTable, spd, dist, du: str) -> TurnBackTab
         reaction_time=Printed(tb.reaction_time, rounding.text(rounding.up(tb.reaction_time, 1.0), 1.0)),
         reaction_height_loss=_up(dist(tb.reaction_height_loss), step),
         clean=clean.name,
-        rows=tuple(TurnBackRow(float(np.degrees(b)), text, speed, margin, heights, i == least)
+        rows=tuple(TurnBackRow(float(np.degrees(b)), text, speed, margin, heights, i == least,
+                               over.get(text, False) or math.degrees(b) >= clean.limit_bank.value)
                    for i, (text, b, speed, margin, heights) in enumerate(rows)),
+        limit_bank=clean.limit_bank,
     )
 
 
@@ -323,20 +340,35 @@ def _configuration(r, buffer: Printed, spd, dist, speed_unit: str) -> Configurat
             time_180=None if level else _finite_up(float(r.time_180[i])),
             time_360=None if level else _finite_up(float(r.time_360[i])),
         ))
+    limit_bank = _down(math.degrees(r.limit_bank))
     vb = vp - units.to_si(buffer.value, units.SPEED, speed_unit)
     buffer_bank = None
     if vb >= r.level_stall_speed:
-        buffer_bank = _down(_bank_deg(r.level_stall_speed, vb))
+        buffer_bank = _within(_down(_bank_deg(r.level_stall_speed, vb)), limit_bank)
     return ConfigurationTable(
         name=r.name,
         stall_speed=_up(spd(r.level_stall_speed)),
         pattern_speed=pattern,
-        zero_margin_bank=_down(_bank_deg(r.level_stall_speed, vp)),
+        zero_margin_bank=_within(_down(_bank_deg(r.level_stall_speed, vp)), limit_bank),
         buffer_bank=buffer_bank,
         flap_limit_speed=None if r.flap_limit_speed is None else _down(spd(r.flap_limit_speed)),
         limit_load_factor=_down(r.limit_load_factor, 0.1),
-        limit_bank=_down(math.degrees(r.limit_bank)),
+        limit_bank=limit_bank,
         available_load_factor=_down(r.available_load_factor, 0.1),
-        stall_at_load=tuple((f"{n:g}", _up(spd(r.level_stall_speed * math.sqrt(n)))) for n in LOAD_FACTORS),
+        stall_at_load=tuple((f"{n:g}", _past(_up(spd(r.level_stall_speed * math.sqrt(n))),
+                                             n > r.limit_load_factor * (1 + 1e-9))) for n in LOAD_FACTORS),
         rows=tuple(rows),
     )
+
+
+def _within(bank: Printed, limit: Printed) -> Printed:
+    """A bank as printed beside its configuration's limit bank: at or past it (as both print), the limit, marked.
+
+    Both are rounded down, so a bank that prints equal to the limit is marked too: a reader cannot tell it apart."""
+    if bank.value >= limit.value:
+        return Printed(limit.value, LIMIT_MARK + limit.text, past_limit=True)
+    return bank
+
+
+def _past(printed: Printed, past: bool) -> Printed:
+    return Printed(printed.value, printed.text, past_limit=True) if past else printed

@@ -71,7 +71,9 @@ speed V<sub>bg</sub> &times; &radic;n (IAS), sink rate V / ((L/D) cos bank), hei
 V<sub>bg</sub> the true best-glide airspeed at 1 g at the card weight (best-glide speed &times; &radic;(W / Wref),
 through the calibration and the density). Before the turn, a straight glide for the reaction time:
 V<sub>bg</sub> t / (L/D). A best-glide sink rate given instead of the ratio: L/D = V<sub>bg</sub> / sink. Margin:
-the speed in the turn &minus; the first configuration's stall speed at that bank. Still air, no roll-in or roll-out.
+the speed in the turn &minus; the stall speed at that bank of the configuration it glides in: the one the profile
+names, else the clean one (nothing extended; of several, the one that stalls fastest). Banks at or past that
+configuration's limit bank are marked. Still air, no roll-in or roll-out.
 Heading changes 180&deg; and 270&deg; by default (regaining the runway needs more than 180&deg;; 270&deg;: common
 practice); reaction time 4 s by default (common practice)</td>
 <td>derived from the lift equation; the published analyses of the turn back after take-off reach the same result,
@@ -84,7 +86,8 @@ warning printed</td><td>the aircraft's flight manual</td></tr>
 <tr><td>density, density altitude</td><td>ICAO standard atmosphere to 20 km; &rho; = p / (R T) with the actual
 temperature</td><td>ICAO Doc 7488, U.S. Standard Atmosphere 1976</td></tr>
 <tr><td>turn radius and rate</td><td>R = V&sup2; / (g tan bank), rate = g tan bank / V, V true airspeed</td>
-<td>FAA-H-8083-15 (Instrument Flying Handbook)</td></tr>
+<td>FAA-H-8083-25 (Pilot's Handbook of Aeronautical Knowledge), &ldquo;Rate of Turn&rdquo; and &ldquo;Radius of
+Turn&rdquo; (its aviation-unit forms R[ft] = V[kt]&sup2; / (11.26 tan bank), rate = 1091 tan bank / V[kt])</td></tr>
 <tr><td>glider polar</td><td>least-squares quadratic; ballast &times; &radic;(W / Wpolar) on speed and sink; in a
 turn speed &times; &radic;n, sink &times; n<sup>1.5</sup></td>
 <td>common method; Welch, Welch &amp; Irving, <i>The Complete Soaring Pilot's Handbook</i></td></tr>

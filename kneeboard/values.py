@@ -14,6 +14,8 @@ from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import Calibration
 
 MAX_POLAR_POINTS = 40
+#: How the card tells of an entry of the profile that nothing reads (gathered into one line with their count)
+UNKNOWN_ENTRY = "An entry of the profile is not read; the card is made without it: check no figure is missing"
 
 
 class Reader:
@@ -22,8 +24,8 @@ class Reader:
     def __init__(self):
         self.problems: list[Problem] = []
 
-    def problem(self, path, message, expected="", value=None, severity=ERROR):
-        self.problems.append(Problem(path, message, expected, value, severity))
+    def problem(self, path, message, expected="", value=None, severity=ERROR, plain=""):
+        self.problems.append(Problem(path, message, expected, value, severity, plain=plain))
 
     def table(self, data, key, path, required=False):
         value = data.get(key)
@@ -52,10 +54,15 @@ class Reader:
                 self.problem(close[0], f"[{key_text(key)}] is not a section of a profile; did you mean "
                              f"[{close[0]}]?", f"[{close[0]}]")
             elif close:
+                near = fields.BY_PATH.get(re.sub(r"\[\d+\]", "", f"{prefix}.{close[0]}"))
                 self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",
-                             value=data[key], severity=WARNING)
+                             value=data[key], severity=WARNING,
+                             plain=UNKNOWN_ENTRY if near is None else
+                             f"An entry of the profile looks like a misspelt '{near.label}' and is not read: check "
+                             "that figure")
             else:
-                self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING)
+                self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING,
+                             plain=UNKNOWN_ENTRY)
 
     def read(self, name: str, data: dict, path: str | None = None, default=None):
         """The value of the declared field `name` ("aircraft.max_weight") from its table `data`, checked by its

@@ -7,7 +7,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from kneeboard.aero import airspeed, glider, limits, turns
+from kneeboard.aero import airspeed, glider, limits
 
 IAS = (40.0, 60.0, 90.0)
 CAS = (44.0, 61.0, 90.0)
@@ -51,8 +51,8 @@ def test_default_limit_load_follows_the_regulation_for_heavy_normal_aeroplanes()
 
 
 def test_maneuvering_speed_falls_with_weight_as_in_the_handbook_example():
-    # FAA-H-8083-25B chapter 8 (example from memory): "100 kt heavy, 90 kt light"; a 19 % lighter aeroplane
-    # (0.9^2 = 0.81 of the weight) has a 10 % lower VA.
+    # FAA-H-8083-25 (PHAK), chapter "Aerodynamics of Flight" (chapter 5 of the B edition; the example from memory):
+    # "100 kt heavy, 90 kt light"; a 19 % lighter aeroplane (0.9^2 = 0.81 of the weight) has a 10 % lower VA.
     assert limits.maneuvering_speed_at_weight(100.0, 810.0, 1000.0) == pytest.approx(90.0)
 
 
@@ -87,10 +87,23 @@ def test_available_load_factor_at_1_4_vs():
     assert limits.available_load_factor(100, 50) == pytest.approx(4.0)
 
 
-def test_va_is_stall_speed_at_limit_load():
-    # 14 CFR 23.335(c) before amendment 23-64 (relation confirmed, wording from memory): VA >= VS sqrt(n).
-    vs = 25.0
-    assert turns.stall_speed_in_bank(vs, turns.limit_bank(3.8)) == pytest.approx(vs * math.sqrt(3.8))
+@given(weight_lb=st.floats(900, 1650))
+def test_the_cards_va_keeps_the_regulations_relation_to_the_stall_speed_at_every_weight(weight_lb):
+    # 14 CFR 23.335(c) before amendment 23-64 (relation confirmed, wording from memory): VA >= VS sqrt(n), n the
+    # limit load factor. An invented utility aeroplane whose published VA is exactly that minimum at its maximum
+    # weight (48 kt x sqrt(4.4) = 100.69 kt): the card's VA, computed by the program at a lighter weight, must keep
+    # the relation against the card's own stall speed at that weight (both scale with sqrt(W), FAA-H-8083-25).
+    from kneeboard.compute import compute
+    from kneeboard.profile import Aircraft, CardSettings, Configuration, Profile
+
+    kt, lb = 1852 / 3600, 0.45359237
+    va = 48 * math.sqrt(4.4)
+    aircraft = Aircraft("TEST-VA", "VA check (invented)", "utility", 1650 * lb, 1650 * lb, None, va * kt)
+    profile = Profile(aircraft, (Configuration("Flaps up", 48 * kt),), CardSettings())
+    r = compute(profile, weight=weight_lb * lb)
+    vs = r.configurations[0].level_stall_speed
+    assert r.maneuvering_speed >= vs * math.sqrt(r.limit_load_factor) * (1 - 1e-9)
+    assert r.maneuvering_speed <= va * kt * (1 + 1e-12)  # and never above the published VA (14 CFR 23.1507)
 
 
 def test_polar_fit_through_three_points_is_exact():

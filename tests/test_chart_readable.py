@@ -89,8 +89,8 @@ def test_no_marker_lies_at_or_past_its_configurations_own_limit_bank():
     # the tourer's Flaps 30 (a triangle) has its buffer bank 64 and zero-margin bank 68 past its own limit of 60;
     # Flaps 10 (a square) its zero-margin bank 64; Flaps 0 (a circle) both banks inside its 74
     c = card("demo_tourer")
-    assert [(cfg.buffer_bank.value, cfg.zero_margin_bank.value, cfg.limit_bank.value)
-            for cfg in c.table.configurations] == [(59, 63, 74), (59, 64, 60), (64, 68, 60)]
+    assert [(cfg.buffer_bank.text, cfg.zero_margin_bank.text, cfg.limit_bank.text)
+            for cfg in c.table.configurations] == [("59", "63", "74"), ("59", "≥60", "60"), ("≥60", "≥60", "60")]
     (part,) = chart_blocks(c)
     axis = next(op.y for op in part.ops if hasattr(op, "text") and op.text == "bank angle")
     plotted = [op for op in part.ops if getattr(op, "y", None) is not None and op.y > axis or

@@ -9,12 +9,14 @@ from conftest import MINIMAL, SAMPLES
 
 from kneeboard.cli import main
 
-JSON_KEYS = {"schema", "registration", "model", "weight_kg", "speed_unit", "distance_unit", "over_max_weight",
+JSON_KEYS = {"schema", "registration", "model", "fingerprint", "date", "weight_kg", "speed_unit", "distance_unit",
+             "buffer", "pressure_altitude", "temperature_c", "density_altitude", "over_max_weight",
              "limit_load_factor", "limit_bank_deg", "maneuvering_speed", "configurations", "glider", "turn_back",
              "warnings", "caution"}
-CONFIG_KEYS = {"name", "stall_speed", "pattern_speed", "zero_margin_bank_deg", "buffer_bank_deg",
-               "limit_load_factor", "limit_bank_deg", "available_load_factor", "rows"}
-ROW_KEYS = {"bank_deg", "load_factor", "stall_speed", "margin", "turn_radius", "turn_rate_deg_s"}
+CONFIG_KEYS = {"name", "stall_speed", "pattern_speed", "zero_margin_bank_deg", "zero_margin_bank_past_limit",
+               "buffer_bank_deg", "buffer_bank_past_limit", "limit_load_factor", "limit_bank_deg",
+               "available_load_factor", "stall_at_load", "rows"}
+ROW_KEYS = {"bank_deg", "load_factor", "stall_speed", "margin", "turn_radius", "turn_rate_deg_s", "over_limit"}
 GLIDER_KEYS = {"min_sink_speed", "min_sink_rate_m_s", "rows"}
 GLIDER_ROW_KEYS = {"bank_deg", "speed", "sink_rate_m_s", "turn_radius", "circle_time_s", "height_loss_180"}
 
@@ -38,7 +40,7 @@ def test_table_json_keys(capsys, path):
     assert code == 0
     data = json.loads(out)
     assert set(data) == JSON_KEYS
-    assert data["schema"] == 1
+    assert data["schema"] == 2
     for c in data["configurations"]:
         assert set(c) == CONFIG_KEYS
         for row in c["rows"]:
@@ -67,7 +69,7 @@ def test_table_options(capsys, tmp_path):
 def test_table_csv_and_text(capsys):
     path = SAMPLES / "demo_trainer.toml"
     code, out, err = run(capsys, "table", str(path), "--format", "csv")
-    assert code == 0 and out.startswith("registration,configuration,bank_deg")
+    assert code == 0 and out.startswith("registration,card_weight_lb,configuration,bank_deg")
     assert "flight manual" in err
     code, out, _ = run(capsys, "table", str(path))
     assert code == 0 and "DEMO-TRN" in out and "flight manual" in out

@@ -10,6 +10,7 @@ import pytest
 from conftest import MINIMAL, ROOT, SAMPLES
 
 from kneeboard import display, pipeline
+from kneeboard.card.data import read_card_data
 from kneeboard.cli import main
 
 
@@ -55,18 +56,44 @@ def test_an_output_through_a_link_onto_an_input_is_refused(capsys, fleet, tmp_pa
 
 def test_each_and_png_names_match_and_counts_are_what_was_written(capsys, tmp_path):
     # --each --png once named PNGs apart from the de-duplicated PDFs, and counted files it never wrote
-    folder = tmp_path / "twins"
+    folder = tmp_path / "pair"
     folder.mkdir()
     text = (SAMPLES / "demo_microlight.toml").read_text(encoding="utf-8")
     (folder / "a.toml").write_text(text)
-    (folder / "b.toml").write_text(text.replace('registration = "DEMO-ML"', 'registration = "demo-ml"'))
+    (folder / "b.toml").write_text(text.replace('registration = "DEMO-ML"', 'registration = "DEMO ML2"'))
     out = tmp_path / "cards"
     code, text_out, err = run(capsys, "card", folder, "--each", out, "--png", 40)
     assert code == 0, err
     names = sorted(p.name for p in out.iterdir())
     assert names == sorted(["DEMO-ML.pdf", "DEMO-ML-front.png", "DEMO-ML-back.png",
-                            "demo-ml-2.pdf", "demo-ml-2-front.png", "demo-ml-2-back.png"])
+                            "DEMO_ML2.pdf", "DEMO_ML2-front.png", "DEMO_ML2-back.png"])
     assert "wrote 2 PDF(s)" in text_out and "wrote 4 PNG page(s)" in text_out
+
+
+@pytest.mark.parametrize("twin", ["demo-ml", "DEMO ML"])
+def test_each_reports_a_registration_clash_instead_of_numbering_a_file(capsys, tmp_path, twin):
+    # a backup copy beside a profile once got its card written quietly as DEMO-ML-2.pdf; two registrations one file
+    # name cannot tell apart ("DEMO-ML", "DEMO ML" -> DEMO-ML.pdf, DEMO_ML.pdf differ; "demo-ml" does not) likewise
+    folder = tmp_path / "twins"
+    folder.mkdir()
+    text = (SAMPLES / "demo_microlight.toml").read_text(encoding="utf-8")
+    (folder / "a.toml").write_text(text)
+    (folder / "b copy.toml").write_text(text.replace('registration = "DEMO-ML"', f'registration = "{twin}"'))
+    (folder / "c.toml").write_text(text.replace('registration = "DEMO-ML"', 'registration = "DEMO-OTHER"'))
+    out = tmp_path / "cards"
+    code, _, err = run(capsys, "card", folder, "--each", out, "-o", tmp_path / "all.pdf")
+    clash = twin.casefold() == "demo-ml"
+    assert code == (2 if clash else 0), err
+    names = sorted(p.name for p in out.iterdir())
+    if clash:
+        assert names == ["DEMO-OTHER.pdf"]  # neither twin: which one is the aircraft's cannot be told
+        for name, other in (("a.toml", "b copy.toml"), ("b copy.toml", "a.toml")):
+            line = next(line for line in err.splitlines() if line.startswith(str(folder / name)))
+            assert "is also the registration of" in line and str(folder / other) in line
+    else:
+        assert names == ["DEMO-ML.pdf", "DEMO-OTHER.pdf", "DEMO_ML.pdf"]
+    # the one PDF holds every card: nothing is dropped from it
+    assert len(read_card_data((tmp_path / "all.pdf").read_bytes())) == 3
 
 
 def test_one_profile_the_program_mishandles_never_costs_the_others_their_cards(capsys, fleet, monkeypatch):

@@ -1,5 +1,6 @@
 """Compare two cards: exactly the printed figures whose text changed, old and new, read from the laid-out cards."""
 
+import math
 from functools import cache
 
 import pytest
@@ -8,7 +9,7 @@ from conftest import SAMPLES
 
 from kneeboard.card.ops import HIGHER_IS_WORSE, LOWER_IS_WORSE
 from kneeboard.compare import Change, compare, printed_figures
-from kneeboard.tables import STALL
+from kneeboard.tables import LIMIT_MARK, STALL
 
 NAMES = ("demo_trainer", "demo_tourer", "demo_retractable", "demo_microlight", "demo_glider")
 
@@ -39,25 +40,40 @@ def expected_count(table) -> int:
 
 def test_trainer_labels_and_texts_as_printed():
     figures = printed_figures(card("demo_trainer"))
-    # computed: the trainer's table (see `kneeboard table sample_aircraft/demo_trainer.toml`)
+    # Each expected text computed here from the invented trainer's file (48 kt flaps up at 1,650 lb, flown at
+    # 1,560 lb; factor 1.4; VA 97 kt; utility; 800 ft standard day; buffer 5 kt), never read from the program:
+    k = math.sqrt(1560 / 1650)  # stall speed and VA with weight: FAA-H-8083-25 (from memory)
+    vs, vp_exact = 48 * k, 1.4 * 48 * k  # 46.67 kt; pattern 1.4 VS0 (FAA-H-8083-3 ch. 9)
+    vp = math.ceil(vp_exact)  # 66: speeds round up, margins and banks down (the card's rule)
+    n30 = 1 / math.cos(math.radians(30))  # FAA-H-8083-25 load factor chart: 1.154
     assert figures["card weight"] == "1560 lb"
-    assert figures["limit load factor"] == "4.4 g"
-    assert figures["limit bank"] == "76°"
-    assert figures["maneuvering speed VA"] == "94 kt"
-    assert figures["density altitude"] == "800 ft"
-    assert figures["Flaps up · stall speed"] == "47 kt"
-    assert figures["Flaps up · pattern speed"] == "66 kt"
-    assert figures["Flaps up · buffer bank"] == "54°"
-    assert figures["Flaps up · zero-margin bank"] == "59°"
+    assert figures["limit load factor"] == "4.4 g"  # utility: 14 CFR 23.337 before amendment 23-64
+    assert figures["limit bank"] == f"{math.floor(math.degrees(math.acos(1 / 4.4)))}°" == "76°"
+    assert figures["maneuvering speed VA"] == f"{math.floor(97 * k)} kt" == "94 kt"
+    assert figures["density altitude"] == "800 ft"  # a standard day: density altitude is the pressure altitude
+    assert figures["Flaps up · stall speed"] == f"{math.ceil(vs)} kt" == "47 kt"
+    assert figures["Flaps up · pattern speed"] == f"{vp} kt" == "66 kt"
+    # banks where Vs sqrt(n) reaches the pattern speed less the buffer, and the pattern speed: arccos((Vs / V)^2)
+    assert figures["Flaps up · buffer bank"] == f"{math.floor(math.degrees(math.acos((vs / (vp - 5)) ** 2)))}°"
+    assert figures["Flaps up · zero-margin bank"] == f"{math.floor(math.degrees(math.acos((vs / vp) ** 2)))}°"
     assert figures["Flaps full · flap limit speed VFE"] == "85 kt"
     assert "Flaps up · flap limit speed VFE" not in figures  # None: not printed
-    assert figures["30° · load factor"] == "1.16 g"
-    assert figures["Flaps up · 30° · stall speed"] == "51 kt"
-    assert figures["Flaps up · 30° · margin"] == "15 kt"
-    assert figures["Flaps up · 30° · turn radius"] == "671 ft"
-    assert figures["Flaps up · 30° · 180°/360° time"] == "19/38 s"
-    assert figures["Flaps up · 60° · margin"] == "-1 kt"
-    # stalled at 60 degrees and wings level at 0: the turns table prints no radius there
+    assert figures["30° · load factor"] == f"{math.ceil(n30 * 100) / 100:.2f} g" == "1.16 g"
+    stall30 = math.ceil(vs * math.sqrt(n30))  # FAA-H-8083-25, "Load Factors and Stalling Speeds"
+    assert figures["Flaps up · 30° · stall speed"] == f"{stall30} kt"
+    assert figures["Flaps up · 30° · margin"] == f"{vp - stall30} kt"
+    # R = V^2 / (g tan bank) at the true airspeed (FAA-H-8083-25, "Radius of Turn"): TAS = CAS sqrt(rho0 / rho)
+    # at low speed, rho of the 1976 standard atmosphere at 800 ft; within 0.1 % of the compressible form
+    rho_ratio = (1 - 0.0065 * 800 * 0.3048 / 288.15) ** 4.2559
+    tas = vp_exact * 1852 / 3600 / math.sqrt(rho_ratio)
+    radius = tas**2 / (9.80665 * math.tan(math.radians(30)))
+    printed_radius = int(figures["Flaps up · 30° · turn radius"].removesuffix(" ft"))
+    assert radius / 0.3048 <= printed_radius <= radius / 0.3048 * 1.001 + 1  # rounded up
+    t180, t360 = math.pi * radius / tas, 2 * math.pi * radius / tas
+    assert figures["Flaps up · 30° · 180°/360° time"] == f"{math.ceil(t180)}/{math.ceil(t360)} s"
+    # 60 degrees: Vs sqrt(2) = 66.004 kt prints 67, one above the pattern speed: no margin (common practice:
+    # 1.4 Vs leaves none at 60 degrees)
+    assert figures["Flaps up · 60° · margin"] == f"{vp - math.ceil(vs * math.sqrt(2))} kt" == "-1 kt"
     assert "Flaps up · 60° · turn radius" not in figures
     assert "Flaps up · 0° · turn radius" not in figures
     labels = list(figures)
@@ -87,7 +103,8 @@ def test_every_figure_has_its_own_label(name):
     c = card(name)
     figures = printed_figures(c)
     assert len(figures) == expected_count(c.table)  # no figure overwrote another
-    assert all(text and text[0] in "-0123456789" for text in figures.values())
+    # a figure is a number, or a limit printed in the place of a bank at or past it ("≥60°")
+    assert all(text and text[0] in "-0123456789" + LIMIT_MARK for text in figures.values())
 
 
 @pytest.mark.parametrize("name", NAMES)
@@ -180,8 +197,14 @@ def test_heavier_weight_worse_figures():
     assert margins and all(c.worse for c in margins)
     old_figures = printed_figures(before)
     stalled = {c.label: c for c in changes}["Gear down, flaps 40 · 66° · margin"]
-    # computed: `kneeboard table ... --bank 0,30,66 --weight "2900 lb"` and `"3100 lb"`, fixed 76 kt CAS final
-    assert (stalled.old, stalled.new) == ("2 kt", "-1 kt")
+    # computed here from the invented file: its CAS figures read into IAS linearly through its calibration pairs
+    # (54 CAS between [42, 49] and [55, 60]; 76 CAS between [70, 72] and [90, 90]); the stall speed times
+    # sqrt(W / 3100 lb) sqrt(1 / cos 66 deg) (FAA-H-8083-25), speeds rounded up, the margin their difference
+    vs_ias = 42 + (54 - 49) * (55 - 42) / (60 - 49)
+    vp = math.ceil(70 + (76 - 72) * (90 - 70) / (90 - 72))
+    n66 = 1 / math.cos(math.radians(66))
+    margins = [vp - math.ceil(vs_ias * math.sqrt(w / 3100) * math.sqrt(n66)) for w in (2900, 3100)]
+    assert (stalled.old, stalled.new) == tuple(f"{m} kt" for m in margins) == ("2 kt", "-1 kt")
     assert stalled.worse
     # stalled now: the turns table prints a dash, so its turn figures are no longer printed
     radius = "Gear down, flaps 40 · 66° · turn radius"

@@ -15,6 +15,7 @@ from kneeboard.card import card_pdf, fonts
 from kneeboard.card.geometry import LARGE_CARDS
 from kneeboard.card.ops import FIGURE, Text
 from kneeboard.export import safe_name, write_each
+from kneeboard.fileio import FileProblem
 
 # Invented clubs and aircraft, one per script or language with letters beyond Latin-1.
 LANGUAGES = {
@@ -288,8 +289,16 @@ def test_safe_name_keeps_letters_and_drops_what_file_systems_forbid(registration
     assert safe_name(registration) == name
 
 
-def test_registrations_that_differ_only_in_case_get_two_files(tmp_path):
-    cards = [make_card("Aeroklub Říčany", "", registration=r) for r in ("OK-ŘÍZ", "ok-říz", "OK/ŘÍZ")]
+def test_each_registration_gets_its_own_file_and_one_registration_in_two_forms_is_refused(tmp_path):
+    cards = [make_card("Aeroklub Říčany", "", registration=r) for r in ("OK-ŘÍZ", "OK/ŘÍZA")]
     written = write_each(cards, tmp_path)
-    assert [p.name for p in written] == ["OK-ŘÍZ.pdf", "ok-říz-2.pdf", "OK_ŘÍZ.pdf"]
+    assert [p.name for p in written] == ["OK-ŘÍZ.pdf", "OK_ŘÍZA.pdf"]
     assert all(p.read_bytes().startswith(b"%PDF") for p in written)
+    # the same registration in lower case, or with its accents decomposed, is the same aircraft: never a second,
+    # numbered file beside the first
+    decomposed = unicodedata.normalize("NFD", "OK-ŘÍZ")
+    for twin in ("ok-říz", decomposed):
+        pair = [make_card("Aeroklub Říčany", "", registration=r) for r in ("OK-ŘÍZ", twin)]
+        with pytest.raises(FileProblem, match="OK-ŘÍZ.pdf"):
+            write_each(pair, tmp_path / "twins")
+    assert not (tmp_path / "twins").exists()

@@ -123,11 +123,12 @@ def test_the_json_carries_the_turn_back_and_the_available_load_factor(capsys):
     assert main(["table", str(SAMPLES / "demo_trainer.toml"), "--format", "json"]) == 0
     data = json.loads(capsys.readouterr().out)
     tb = data["turn_back"]
-    assert set(tb) == {"best_glide_speed", "glide_ratio", "headings_deg", "reaction_time_s", "reaction_height_loss",
-                       "rows"}
+    assert set(tb) == {"configuration", "limit_bank_deg", "best_glide_speed", "glide_ratio", "headings_deg",
+                       "reaction_time_s", "reaction_height_loss", "rows"}
+    assert tb["configuration"] == "Flaps up"
     assert tb["headings_deg"] == [180.0, 270.0] and tb["reaction_time_s"] == 4.0
     assert [r["bank_deg"] for r in tb["rows"]] == [10, 20, 30, 40, 45, 50, 60]  # every card bank above 0
-    assert all(set(r) == {"bank_deg", "speed", "margin", "height_loss"} and len(r["height_loss"]) == 2
+    assert all(set(r) == {"bank_deg", "speed", "margin", "height_loss", "past_limit"} and len(r["height_loss"]) == 2
                for r in tb["rows"])
     for c in data["configurations"]:
         # (Vp / Vs)^2 on the margins' IAS basis; 1.96 g at 1.4 Vs (FAA-H-8083-25, computed)

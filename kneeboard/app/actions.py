@@ -106,8 +106,9 @@ class CardActions:
         try:
             self._refuse_inputs(path)
             from kneeboard import report
+            from kneeboard.pipeline import today
 
-            write_atomic(path, report.to_csv(table))
+            write_atomic(path, report.csv_file(table, self.doc.loaded.fingerprint, today()))
         except FileProblem as exc:
             self.show_problems("The table was not exported", f"{exc}\nNothing was written.")
             return None
@@ -196,14 +197,21 @@ class CardActions:
             printed = self._pick_printed(reg)
             if printed is None:
                 return None
+        now, weight = self.doc.loaded, ""
+        if printed.weight_given:  # made for a weight given for it: made again at that weight, and said so
+            now = self.session.prepare_plain(self.doc.plain(), self.doc.path, printed.weight_given)
+            weight = f", at {printable(printed.weight_given)}, the weight it was made for"
+            if now.table is None:
+                self.show_problems("Nothing to compare", "\n".join(str(p) for p in now.errors[:8]))
+                return None
         try:
-            changes = self.session.changes_since_printed(printed, self.doc.loaded)
+            changes = self.session.changes_since_printed(printed, now)
         except self.LayoutError as exc:
             self.show_problems("Nothing to compare", str(exc))
             return None
         made = f" on {printed.made_on}" if printed.made_on else ""
         dialog = CompareDialog(changes, reg, self, columns=("On the printed card", "Now"),
-                               since=f"since the card was printed{made} ({printable(printed.where)})")
+                               since=f"since the card was printed{made} ({printable(printed.where)}){weight}")
         dialog.show()
         return dialog
 
@@ -219,7 +227,9 @@ class CardActions:
         except FileProblem as exc:
             self.show_problems("Cannot read the card", str(exc))
             return None
-        mine = [d for d in found if str(d.get("registration", "")).casefold() == registration.casefold()]
+        from kneeboard.registrations import key
+
+        mine = [d for d in found if key(str(d.get("registration", ""))) == key(registration)]
         if not mine:
             self.show_problems("Not this aircraft's card",
                                f"{printable(path)} holds no kneeboard card of {registration}"

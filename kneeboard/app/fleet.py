@@ -16,10 +16,12 @@ from PySide6.QtWidgets import (
 )
 
 from kneeboard.profile_io import profile_files, read_source
+from kneeboard.registrations import duplicates, others
 
 PATH_ROLE = Qt.ItemDataRole.UserRole
 CHECK_DELAY_MS = 50  #: [ms] from listing a folder to checking its first profile, so the list is drawn first
 COLUMNS = ("", "Registration", "Model")
+DUPLICATE = "duplicate registration"  #: the mark of a profile whose registration another one of the folder has
 EMPTY_HINT = ("No profiles (*.toml) in this folder. File › New profile from template makes one; "
               "save it here and it appears in this list.")
 
@@ -38,6 +40,7 @@ class FleetPanel(QWidget):
         self._prepare = prepare
         self.folder: Path | None = None
         self._items: dict[str, QTreeWidgetItem] = {}
+        self._duplicates: dict[str, str] = {}  #: path -> why it is marked: another profile has its registration
         self._unchecked: list[str] = []  #: paths of the listed profiles not yet marked
         self._check_timer = QTimer(self, singleShot=True, interval=0)
         self._check_timer.timeout.connect(self._check_next)
@@ -76,6 +79,7 @@ class FleetPanel(QWidget):
         self._items: dict[str, QTreeWidgetItem] = {}  # emptied with the tree, whose clear() deletes the items
         self._unchecked = []
         self.tree.clear()
+        written = []
         for path in profile_files(self.folder):
             source = read_source(path)
             aircraft = (source.data or {}).get("aircraft")
@@ -84,6 +88,7 @@ class FleetPanel(QWidget):
             item = QTreeWidgetItem(["", registration if isinstance(registration, str) else path.stem,
                                     model if isinstance(model, str) else "cannot be read"])
             item.setData(0, PATH_ROLE, str(path))
+            written.append((registration if isinstance(registration, str) and registration.strip() else None, path))
             item.setToolTip(1, str(path))
             item.setToolTip(2, item.text(2))
             self.tree.addTopLevelItem(item)
@@ -91,6 +96,11 @@ class FleetPanel(QWidget):
             self._items[str(path)] = item
             if current is not None and Path(current) == path:
                 self.tree.setCurrentItem(item)
+        self._duplicates = {str(path): f"{registration} is also the registration of {others(path, files)}: "
+                            "compare and one card per aircraft cannot tell them apart"
+                            for registration, files in duplicates(written).items() for path in files}
+        for path, why in self._duplicates.items():
+            self._mark_duplicate(self._items[path], why)
         self.tree.sortItems(1, Qt.SortOrder.AscendingOrder)
         self.tree.resizeColumnToContents(1)
         self.hint.setVisible(not self._unchecked)
@@ -106,10 +116,12 @@ class FleetPanel(QWidget):
 
     def recheck(self) -> None:
         """Check every listed profile again (the card style changed, and with it what a profile's card can be)."""
-        for item in self._items.values():
+        for path, item in self._items.items():
             item.setIcon(0, QIcon())
             item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, None)
             item.setToolTip(0, "")
+            if path in self._duplicates:
+                self._mark_duplicate(item, self._duplicates[path])
         self._unchecked = list(self._items)
         self._check_timer.start(0)
 
@@ -131,17 +143,27 @@ class FleetPanel(QWidget):
         style = self.style()
         if prepared.fingerprint:  # what a printed card of this aircraft carries beside its date
             item.setToolTip(1, f"{path}\nfingerprint {prepared.fingerprint}")
+        duplicate = [self._duplicates[path]] if path in self._duplicates else []
         if prepared.errors:
             item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxCritical))
-            item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in prepared.errors[:8]))
+            item.setToolTip(0, "\n".join(duplicate + [str(p.path) + ": " + p.message for p in prepared.errors[:8]]))
             item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, "has errors")
-        elif prepared.warnings:
+        elif duplicate or prepared.warnings:
+            # a warning in the words the card prints it in (`Problem.plain`), as a pilot reads it
             item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxWarning))
-            item.setToolTip(0, "\n".join(str(p.path) + ": " + p.message for p in prepared.warnings[:8]))
-            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, "has warnings")
+            item.setToolTip(0, "\n".join(duplicate + [p.plain or (str(p.path) + ": " + p.message)
+                                                       for p in prepared.warnings[:8]]))
+            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole,
+                         DUPLICATE if duplicate else "has warnings")
+
+    def _mark_duplicate(self, item: QTreeWidgetItem, why: str) -> None:
+        """A profile whose registration another profile of the folder has: marked, and both named, at once."""
+        item.setIcon(0, self.style().standardIcon(QStyle.StandardPixmap.SP_MessageBoxWarning))
+        item.setToolTip(0, why)
+        item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, DUPLICATE)
 
     def rows(self) -> list[tuple[str, str, str]]:
-        """(mark, registration, path) per row: mark is "error", "warning" or ""."""
+        """(mark, registration, path) per row: mark is "error", "duplicate registration", "warning" or ""."""
         out = []
         for i in range(self.tree.topLevelItemCount()):
             item = self.tree.topLevelItem(i)

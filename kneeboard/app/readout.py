@@ -29,6 +29,8 @@ class Readout(QWidget):
 
     def show_table(self, t: "CardTable", fingerprint: str = "") -> None:
         """The figures a pilot checks first, in the card's words (`kneeboard.terms`), as the card prints them."""
+        from kneeboard.tables import LIMIT_MARK  # loaded with the first table, not at start-up
+
         su = t.speed_unit
         figures = {terms.CARD_WEIGHT: f"{t.weight.text} {t.weight_unit}",
                    terms.LIMIT_BANK: f"{t.limit_bank.text}°"}
@@ -41,25 +43,38 @@ class Readout(QWidget):
         for line in t.warnings:
             warning += f"<p style='color:#A11D1D'>{_esc(line)}</p>"
         rows = []
+        limited = False
         for c in t.configurations:
             buffer = f"{c.buffer_bank.text}°" if c.buffer_bank else "none"
+            limit = f"{c.limit_load_factor.text} g / {c.limit_bank.text}°"
             figures[f"{c.name} {terms.ZERO_MARGIN_BANK}"] = f"{c.zero_margin_bank.text}°"
             figures[f"{c.name} {terms.BUFFER_BANK}"] = buffer
+            figures[f"{c.name} {terms.LIMIT_LOAD}"] = limit
+            limited |= c.zero_margin_bank.past_limit or bool(c.buffer_bank and c.buffer_bank.past_limit)
             rows.append(f"<tr><td><b>{_esc(c.name)}</b></td><td align=right>{c.stall_speed.text}</td>"
-                        f"<td align=right><b>{c.pattern_speed.text}</b></td><td align=right><b>{buffer}</b></td>"
-                        f"<td align=right><b>{c.zero_margin_bank.text}°</b></td></tr>")
+                        f"<td align=right><b>{c.pattern_speed.text}</b></td>"
+                        f"<td align=right><b>{_bank(c.buffer_bank, buffer)}</b></td>"
+                        f"<td align=right><b>{_bank(c.zero_margin_bank, f'{c.zero_margin_bank.text}°')}</b></td>"
+                        f"<td align=right>{limit}</td></tr>")
         va = f" · VA <b>{t.maneuvering_speed.text} {su}</b>" if t.maneuvering_speed else ""
         head = "".join(f"<th align={'left' if i == 0 else 'right'}>{h}</th>" for i, h in enumerate(
             (f"{su} IAS", terms.STALL, terms.PATTERN, f"{terms.BUFFER_BANK} ({t.buffer.text} {su})",
-             terms.ZERO_MARGIN_BANK)))
+             terms.ZERO_MARGIN_BANK, "limit g / bank")))
+        legend = (f"<p style='color:#555'>{LIMIT_MARK}: a bank at or past the configuration's own limit bank; its "
+                  "limit is shown in its place, not a bank to fly</p>" if limited else "")
         stamp = (f"<p style='color:#555'>{terms.FINGERPRINT} {fingerprint}: the same on the card printed from "
                  "this profile as it stands</p>" if fingerprint else "")
         self.label.setText(
             f"{warning}<p>{terms.CARD_WEIGHT.capitalize()} <b>{t.weight.text} {t.weight_unit}</b>{va} · "
             f"{terms.LIMIT_LOAD} {t.limit_load_factor.text} g, {terms.LIMIT_BANK} <b>{t.limit_bank.text}°</b></p>"
-            f"<table cellspacing=0 cellpadding=3><tr>{head}</tr>{''.join(rows)}</table>{stamp}"
+            f"<table cellspacing=0 cellpadding=3><tr>{head}</tr>{''.join(rows)}</table>{legend}{stamp}"
         )
         self.figures = figures
+
+
+def _bank(printed, text: str) -> str:
+    """A bank, in red where it is its configuration's limit shown in its place (`tables.Printed.past_limit`)."""
+    return f"<span style='color:#A11D1D'>{text}</span>" if printed is not None and printed.past_limit else text
 
 
 def _esc(text: str) -> str:

@@ -12,6 +12,8 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import TYPE_CHECKING
 
+from kneeboard import registrations
+
 if TYPE_CHECKING:  # the pipeline loads numpy, pint and the card package: at the first profile, not at start-up
     from kneeboard.card.ops import Figure
     from kneeboard.pipeline import Prepared, Styles
@@ -28,6 +30,7 @@ class Printed:
     made_on: str
     fingerprint: str
     where: str  #: the file written, or "the printer"
+    weight_given: str | None = None  #: the weight the card was made for, when one was given for it ("1985 lb")
 
 
 class Session:
@@ -35,7 +38,7 @@ class Session:
         self.folder: Path | None = None
         self.style_file: Path | None = None  #: chosen by the person; None: by the one rule
         self._styles: Styles | None = None
-        self.printed: dict[str, Printed] = {}  #: registration (case folded) -> the card last printed here
+        self.printed: dict[str, Printed] = {}  #: registration (`registrations.key`) -> the card last printed here
 
     # --- the fleet and its style ------------------------------------------------------------------
     def use_folder(self, folder: Path | None) -> None:
@@ -80,16 +83,18 @@ class Session:
         return self.folder / UNTITLED if self.folder is not None else None
 
     # --- a profile through the pipeline ---------------------------------------------------------------
-    def prepare_source(self, source: Source) -> Prepared:
-        from kneeboard.pipeline import prepare
+    def prepare_source(self, source: Source, weight: str | None = None) -> Prepared:
+        """`source` through the pipeline with its style; at `weight` (as typed) instead of its own when given."""
+        from kneeboard.pipeline import NONE, Overrides, prepare
 
         style, style_problems = self.style_for(source.path)
-        return prepare(source, style, style_problems=style_problems)
+        overrides = NONE if weight is None else Overrides(weight=weight)
+        return prepare(source, style, overrides, style_problems=style_problems)
 
-    def prepare_plain(self, data: dict, path: Path | None = None) -> Prepared:
+    def prepare_plain(self, data: dict, path: Path | None = None, weight: str | None = None) -> Prepared:
         from kneeboard.profile_io import source_from_plain
 
-        return self.prepare_source(source_from_plain(data, path))
+        return self.prepare_source(source_from_plain(data, path), weight)
 
     def prepare_text(self, text: str, path: Path | None = None) -> Prepared:
         from kneeboard.profile_io import source_from_text
@@ -105,20 +110,22 @@ class Session:
 
     # --- what was printed -----------------------------------------------------------------------------
     def remember_printed(self, card, where: str) -> Printed:
-        printed = Printed(card.figures(), card.made_on, card.fingerprint, where)
-        self.printed[card.registration.casefold()] = printed
+        printed = Printed(card.figures(), card.made_on, card.fingerprint, where, card.weight_given)
+        self.printed[registrations.key(card.registration)] = printed
         return printed
 
     def remember_printed_data(self, data: dict, where: str) -> Printed:
         """A card read back from its PDF (`kneeboard.card.data`)."""
         from kneeboard.card.data import figures_of
 
-        printed = Printed(figures_of(data), str(data.get("made_on", "")), str(data.get("fingerprint", "")), where)
-        self.printed[str(data.get("registration", "")).casefold()] = printed
+        given = data.get("weight_given")
+        printed = Printed(figures_of(data), str(data.get("made_on", "")), str(data.get("fingerprint", "")), where,
+                          given if isinstance(given, str) and given else None)
+        self.printed[registrations.key(str(data.get("registration", "")))] = printed
         return printed
 
     def last_printed(self, registration: str) -> Printed | None:
-        return self.printed.get(registration.casefold())
+        return self.printed.get(registrations.key(registration))
 
     def changes_since_printed(self, printed: Printed, prepared: Prepared):
         """Every printed figure that reads differently on the card `prepared` makes now."""

@@ -37,6 +37,8 @@ class Card:
     layout: CardLayout
     fingerprint: str
     made_on: str = ""
+    weight_given: str | None = None  #: the weight this card was made for when given for it ("1985 lb"), not the
+    #: profile's own: `compare` makes the card again at that weight
 
     @property
     def pages(self) -> tuple[Page, ...]:

@@ -1,8 +1,9 @@
 """A card that knows what it printed: its printed figures, as machine-readable data inside its own PDF.
 
 Every card PDF embeds one JSON file per card (ISO 32000-1 embedded files) holding the registration, the
-fingerprint, the date, the card weight and every figure the laid-out card prints (the blocks' `ops.Figure` tags),
-and carries the fingerprint in the document's keywords. `kneeboard compare CARD.pdf PROFILE` reads it back and
+fingerprint, the date, the card weight (and, for a card made for a weight given on the command line or in an
+export, that weight as given: `weight_given`) and every figure the laid-out card prints (the blocks' `ops.Figure`
+tags), and carries the fingerprint in the document's keywords. `kneeboard compare CARD.pdf PROFILE` reads it back and
 compares it with what the profile prints now. The data is compressed in a stream marked as a card's, so it is read
 back with zlib and no PDF library: a PDF that does not hold it (a card re-saved by another program, or any other
 PDF) is not a card.
@@ -30,8 +31,10 @@ def card_data(card) -> dict:
         "fingerprint": card.fingerprint,
         "made_on": card.made_on,
         "card_weight": f"{card.table.weight.text} {card.table.weight_unit}",
-        "figures": [{"key": f.identity, "label": f.label, "text": f.text, "worse": f.worse}
+        "figures": [{"key": f.identity, "label": f.label, "text": f.text, "worse": f.worse,
+                     **({"past_limit": True} if f.past_limit else {})}
                     for f in card.figures().values()],
+        **({"weight_given": card.weight_given} if card.weight_given else {}),
     }
 
 
@@ -92,5 +95,6 @@ def figures_of(data: dict) -> dict[str, Figure]:
     out = {}
     for f in data["figures"]:
         if isinstance(f, dict) and all(isinstance(f.get(k), str) for k in ("key", "label", "text")):
-            out[f["key"]] = Figure(f["label"], f["text"], f.get("worse"), f["key"] if f["key"] != f["label"] else "")
+            out[f["key"]] = Figure(f["label"], f["text"], f.get("worse"), f["key"] if f["key"] != f["label"] else "",
+                                   f.get("past_limit") is True)
     return out

@@ -356,7 +356,9 @@ def _place(ctx, box, order, back, plans, header, columns, gap, bottoms) -> list[
         if m.height + spacing <= state["room"] + 1e-6:
             _put_whole(put, name, whole, m, spacing)
             continue
-        if column() and m.height <= empty_room() + 1e-6:
+        # moved whole to the next column when it fits there: from a column that holds something, or from one with
+        # less room than an empty one (the first face, under the header and its warnings)
+        if (column() or state["room"] < empty_room() - 1e-6) and m.height <= empty_room() + 1e-6:
             advance()
             _put_whole(put, name, whole, m, 0.0)
             continue
@@ -396,17 +398,21 @@ def _split(name, m: Measure, put, advance, empty_room, column, state, gap) -> No
                 if n == 0 or moved.height(m) <= empty_room() + 1e-6:
                     advance()  # the section fits whole in the next column: it goes there, unbroken
                     continue
+            smaller = state["room"] < empty_room() - 1e-6  # the next column is an empty one with more room
             if n == 0:
+                if smaller:
+                    advance()
+                    continue
                 raise DoesNotFit(name, "taller than a whole face even at this type size")
             fit = [j for j in range(i + 1, n) if piece(j).height(m) + spacing <= state["room"] + 1e-6]
             least = min(MIN_ROWS, n - i)
-            if fit and (fit[-1] - i >= least or fresh):
+            if fit and (fit[-1] - i >= least or fresh and not smaller):
                 put(name, piece(fit[-1]), m, spacing)
                 first = False
                 i = fit[-1]
                 advance()
                 continue
-            if fresh:
+            if fresh and not smaller:
                 raise DoesNotFit(name, "its heads and one row are taller than a whole face at this type size")
             advance()
 

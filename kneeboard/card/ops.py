@@ -30,6 +30,7 @@ class Figure:
     text: str  #: the printed figure with its unit: "15 kt", "53°", "1.16 g"
     worse: str | None = None  #: HIGHER_IS_WORSE, LOWER_IS_WORSE or None
     key: str = ""  #: what makes it the same figure on two cards; the label unless a label could be ambiguous
+    past_limit: bool = False  #: at or past its configuration's limit (`tables.Printed.past_limit`), marked so
 
     @property
     def identity(self) -> str:

@@ -1,5 +1,6 @@
 """The main window driven as a person drives it: typing, undo, saving, prompts, broken files, exports."""
 
+import csv
 import io
 import subprocess
 import sys
@@ -148,7 +149,8 @@ def test_broken_files_show_problems_and_keep_the_app(qtbot, window, fleet):
     assert window.problems_seen and "zz_broken.toml" in window.problems_seen[-1][0]
     assert window.doc.path.name == "demo_trainer.toml"  # what was open stays open
     bad_values = fleet / "zz_values.toml"
-    bad_values.write_text((fleet / "demo_trainer.toml").read_text().replace('"48 kt"', '"48 kg"'))
+    bad_values.write_text((fleet / "demo_trainer.toml").read_text().replace('"48 kt"', '"48 kg"')
+                          .replace('"DEMO-TRN"', '"DEMO-VAL"'))
     window.fleet.reload.click()
     window.fleet.check_all()
     marks = {Path(r[2]).name: r[0] for r in window.fleet.rows()}
@@ -229,7 +231,11 @@ def test_exports_from_the_menu(qtbot, window, tmp_path):
     assert "card.pdf" in window.statusBar().currentMessage()
     window.ask_save_path = lambda *_: tmp_path / "table.csv"
     window.act_export_csv.trigger()
-    assert (tmp_path / "table.csv").read_text().startswith("registration,configuration")
+    # UTF-8 with its byte-order mark, so a spreadsheet program reads the degree and limit signs as written
+    exported = (tmp_path / "table.csv").read_bytes()
+    assert exported.startswith(b"\xef\xbb\xbfregistration,card_weight_")
+    rows = list(csv.DictReader(io.StringIO(exported.decode("utf-8-sig"))))
+    assert rows[-1]["note"].startswith("CAUTION") and rows[-1]["fingerprint"] == window.doc.loaded.fingerprint
     window.ask_save_path = lambda *_: tmp_path / "fleet.pdf"
     window.act_export_fleet.trigger()  # the menu item: it once received `checked` as its output path
     found = read_card_data((tmp_path / "fleet.pdf").read_bytes())
