@@ -9,6 +9,7 @@ from dataclasses import dataclass, field
 from kneeboard.card import fonts
 from kneeboard.card.ops import CAUTION, FIGURE, HEADING, LABEL, SMALL, TITLE, Circle, Figure, Line, Path, Rect, Text
 from kneeboard.card.style import CardStyle
+from kneeboard.printed import figure, weight_text  # noqa: F401  (the blocks take them from here too)
 from kneeboard.tables import CardTable
 
 INK = "#111111"
@@ -192,19 +193,6 @@ class Draw:
         return Block(name, height, tuple(self.ops))
 
 
-def figure(label: str, printed, unit: str = "", worse: str | None = None, key: str = ""):
-    """The tag of a printed figure (`tables.Printed` or its text) shown with `unit`; None when nothing is printed.
-
-    `key` tells the figure apart where its label could also be that of another (a configuration may be named like
-    a block's own prefix); by default the label is the key.
-    """
-    if printed is None:
-        return None
-    text = printed if isinstance(printed, str) else printed.text
-    # banks print as "53°"; every other unit follows its figure after a space
-    return Figure(label, text + unit if unit == "°" else f"{text} {unit}".rstrip(), worse, key)
-
-
 def baseline(top: float, row_height: float, size: float) -> float:
     """Baseline that centres capitals of `size` in a row whose top edge is at `top`."""
     return top - (row_height + fonts.ascent(size)) / 2
@@ -216,7 +204,3 @@ def fit_lines(block: str, text: str, font: str, size: float, max_width: float, m
     if len(lines) > max_lines or any(fonts.width(line, font, size) > max_width + 0.01 for line in lines):
         raise DoesNotFit(block, f"{text!r} does not fit in {max_width:.0f} pt")
     return lines
-
-
-def weight_text(table: CardTable) -> str:
-    return f"{table.weight.text} {table.weight_unit}"

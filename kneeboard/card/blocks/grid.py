@@ -8,28 +8,17 @@ Row states are marked so they survive black-and-white printing. Every number com
 table builder; nothing is re-rounded here.
 """
 
-from dataclasses import dataclass
 from functools import lru_cache
 
 from kneeboard.card import fonts
 from kneeboard.card.draw import GREY, HATCH, INK, SHADE, WHITE, DoesNotFit, Draw, baseline, fit_lines
-from kneeboard.card.ops import FIGURE, HEADING, LABEL, SMALL, Figure
+from kneeboard.card.ops import FIGURE, HEADING, LABEL, SMALL
+from kneeboard.printed import BLACK, HATCHED, NO_VALUE, Cell
 
-HATCHED, BLACK = "hatched", "black"
-NO_VALUE = "–"  #: printed where a figure does not exist (no turn at 0 bank, stalled)
+__all__ = ["BLACK", "HATCHED", "NO_VALUE", "Cell", "Grid"]
+
 NAME_LINES = 3  #: a configuration's name wraps to at most this many lines
 CONTINUED = "continued"
-
-
-@dataclass(frozen=True)
-class Cell:
-    text: str
-    bold: bool = False
-    mark: str | None = None  #: HATCHED or BLACK background
-    note: str = ""  #: a small suffix such as "*"
-    role: str = FIGURE
-    figure: Figure | None = None  #: the printed figure the cell shows
-    framed: bool = False  #: a heavy frame: a mark of its own (the structure's limit), combinable with the others
 
 
 class Grid:

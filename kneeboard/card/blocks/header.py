@@ -1,7 +1,7 @@
 """The header: registration, model, the weight the card is for, and where the card came from; and the top of a
 back page, enough to match it to its front."""
 
-from kneeboard import terms
+from kneeboard import printed
 from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import (
@@ -15,7 +15,6 @@ from kneeboard.card.draw import (
     Piece,
     Plan,
     Section,
-    figure,
     fit_lines,
     weight_text,
 )
@@ -103,10 +102,11 @@ class Header(Plan):
         lead = "card weight "
         d.text(0, y, lead, LABEL)
         x = fonts.width(lead, fonts.REGULAR, ls)
-        d.text(x, y, weight_text(t), LABEL, True, figures=figure(terms.CARD_WEIGHT, weight_text(t)))
+        tags = printed.header(t)
+        d.text(x, y, weight_text(t), LABEL, True, figures=tags["weight"])
         x += fonts.width(weight_text(t), fonts.BOLD, ls)
         rest = self._reference()
-        d.text(x, y, rest, LABEL, figures=figure(terms.REFERENCE_WEIGHT, t.reference_weight, t.weight_unit))
+        d.text(x, y, rest, LABEL, figures=tags["reference"])
         y = self.stamp_y
         d.text(width, y, self._stamp(), SMALL, align="right", color=GREY)
         if t.over_max_weight:
@@ -115,7 +115,7 @@ class Header(Plan):
             d.rect(0, y, width, h, fill=INK)
             d.text(width / 2, y - h + ls * 0.45, f"ABOVE THE MAXIMUM WEIGHT OF {t.max_weight.text} {t.weight_unit}",
                    LABEL, True, "centre", WHITE,
-                   figures=figure(terms.MAX_WEIGHT_EXCEEDED, t.max_weight, t.weight_unit))
+                   figures=tags["over"])
         d.line(0, self.rule_y, width, self.rule_y, ctx.style.accent, 2.2)
         return d.block(NAME, -self.rule_y + ls * 0.6)
 

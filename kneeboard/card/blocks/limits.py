@@ -6,13 +6,17 @@ of bank (14 CFR 23.3(a) before amendment 23-64, steep turns of not more than 60 
 text itself not retrieved).
 """
 
-from kneeboard import terms
-from kneeboard.card.blocks.grid import NO_VALUE, Cell, ColumnHeads, Heading, NamedRow
+from kneeboard import printed
+from kneeboard.card import fonts
+from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import Context, Draw, Measure, Piece, Plan, Section, figure, weight_text
-from kneeboard.card.ops import HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, SMALL
+from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
+from kneeboard.card.ops import SMALL
+from kneeboard.tables import LIMIT_MARK
 
 NAME = "limits"
+PAST_NOTE = (f"{LIMIT_MARK}60° framed: the bank lies at or past that configuration's own limit bank; its limit is "
+             "printed in its place, a structural figure, not a bank to fly.")
 NORMAL_CATEGORY_BANK = 60  #: [deg] 14 CFR 23.3(a) before amendment 23-64
 
 
@@ -30,9 +34,7 @@ class Limits(Plan):
         if t.maneuvering_speed:
             detail += f" VA at this weight {t.maneuvering_speed.text} {su} IAS."
         self.heading = Heading(ctx, width, f"LIMITS AT {weight_text(t)}", detail,
-                               (figure(terms.LIMIT_LOAD, t.limit_load_factor, "g", LOWER_IS_WORSE),
-                                figure(terms.LIMIT_BANK, t.limit_bank, "°", LOWER_IS_WORSE),
-                                figure(terms.VA, t.maneuvering_speed, su)))
+                               printed.limits_heading(t))
         names = ["", f"stall {su} IAS", f"pattern {su} IAS", "buffer bank", "zero-margin bank", f"VFE {su} IAS",
                  "limit g / bank"]
         name_w = width * 0.2
@@ -43,34 +45,15 @@ class Limits(Plan):
             columns.append((x, unit * weight))
             x += unit * weight
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        def cells():  # the same at every type size
-            out = []
-            for c in t.configurations:
-                limit = f"{c.limit_load_factor.text}/{c.limit_bank.text}°"
-                row = [
-                    Cell(c.stall_speed.text, figure=figure(terms.label(c.name, terms.STALL), c.stall_speed, su,
-                                                           HIGHER_IS_WORSE)),
-                    Cell(c.pattern_speed.text, bold=True,
-                         figure=figure(terms.label(c.name, terms.PATTERN), c.pattern_speed, su)),
-                    Cell(f"{c.buffer_bank.text}°", bold=True,
-                         figure=figure(terms.label(c.name, terms.BUFFER_BANK), c.buffer_bank, "°", LOWER_IS_WORSE))
-                    if c.buffer_bank else Cell(NO_VALUE, role=LABEL),
-                    Cell(f"{c.zero_margin_bank.text}°", bold=True,
-                         figure=figure(terms.label(c.name, terms.ZERO_MARGIN_BANK), c.zero_margin_bank, "°",
-                                       LOWER_IS_WORSE)),
-                    Cell(c.flap_limit_speed.text,
-                         figure=figure(terms.label(c.name, terms.FLAP_LIMIT), c.flap_limit_speed, su))
-                    if c.flap_limit_speed else Cell(NO_VALUE, role=LABEL),
-                    Cell(limit, figure=figure(terms.label(c.name, terms.LIMIT_LOAD), f"{c.limit_load_factor.text} g / "
-                                              f"{c.limit_bank.text}°", worse=None)),
-                ]
-                out.append(row)
-            return out
-
         self.rows = [NamedRow(ctx, NAME, c.name, name_w, columns[1:], row)
-                     for c, row in zip(t.configurations, ctx.once((NAME,), cells))]
+                     for c, row in zip(t.configurations, ctx.once((NAME,), lambda: printed.limit_rows(t)))]
+        ss = ctx.size(SMALL)
+        past = any(b is not None and b.past_limit
+                   for c in t.configurations for b in (c.buffer_bank, c.zero_margin_bank))
+        self.note = fit_lines(NAME, PAST_NOTE, fonts.REGULAR, ss, width, 3) if past else []
         self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
-                               lead=self.heading.height, foot=ctx.size(SMALL) * 0.8, again=self.heading.again)
+                               lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8,
+                               again=self.heading.again)
 
     def draw(self, piece: Piece):
         d = Draw(self.ctx)
@@ -79,7 +62,11 @@ class Limits(Plan):
         for row in self.rows[piece.start:piece.stop]:
             y = row.draw(d, y)
         if piece.foot:
-            y -= self.ctx.size(SMALL) * 0.8
+            ss = self.ctx.size(SMALL)
+            for line in self.note:
+                y -= ss * 1.2
+                d.text(0, y, line, SMALL, color=INK)
+            y -= ss * 0.8
         return d.block(NAME, -y)
 
 

@@ -18,12 +18,12 @@ The curves are full-precision data plotted as lines; every number printed is the
 
 import math
 
-from kneeboard import terms
+from kneeboard import printed as rows
 from kneeboard.card import fonts
 from kneeboard.card.blocks.grid import groups_of
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, figure
-from kneeboard.card.ops import LOWER_IS_WORSE, SMALL, Circle, Path, Text
+from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
+from kneeboard.card.ops import SMALL, Circle, Path, Text
 
 NAME = "margin-chart"
 
@@ -205,7 +205,7 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
         d.path([(X(b), Y(s)) for b, s in stall], colour, 2.0, dash)
         d.line(px1, pattern[i], px1 + ss * 0.25, pattern_ys[i] + ss * 0.35, colour, 0.6)
         d.text(px1 + ss * 0.3, pattern_ys[i], f"pattern {printed.pattern_speed.text}", SMALL, True, color=colour,
-               figures=figure(terms.label(c.name, terms.PATTERN), printed.pattern_speed, su))
+               figures=rows.pattern(printed, su))
         shape = SHAPES[i % len(SHAPES)]
         limit = printed.limit_bank.value  # no marker at or past the configuration's own limit bank
         if zero <= x_max and zero < limit:
@@ -237,14 +237,11 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
                     d.line(x + ss * 0.4, y - ss * 0.15, x + ss * 0.4, y + ss * 0.85, colour, 1.0,
                            DASHES[i % len(DASHES)] and (2, 1.2))
                     x += ss * 1.0
-                    tag = figure(terms.label(printed.name, terms.LIMIT_BANK), printed.limit_bank, "°", LOWER_IS_WORSE)
+                    tag = rows.chart_legend(printed)["limit"]
                 elif kind == "marker":
                     marker(d, shape, x + ss * 0.45, y + ss * 0.33, ss * 0.42, fill)
                     x += ss * 1.3
-                    tag = (figure(terms.label(printed.name, terms.ZERO_MARGIN_BANK), printed.zero_margin_bank, "°",
-                                  LOWER_IS_WORSE) if fill == INK else
-                           figure(terms.label(printed.name, terms.BUFFER_BANK), printed.buffer_bank, "°",
-                                  LOWER_IS_WORSE))
+                    tag = rows.chart_legend(printed)["zero" if fill == INK else "buffer"]
                 bold = kind == "line"
                 d.text(x, y, text, SMALL, bold, color=INK if kind != "text" else GREY, figures=tag)
                 x += fonts.width(text, fonts.BOLD if bold else fonts.REGULAR, ss) + ss * 1.2
@@ -274,7 +271,7 @@ def _limit_lines(d: Draw, ctx: Context, configurations, X, x_max: float, px1: fl
         everyone = len(members) == len(configurations)
         text = (f"limit bank {first.limit_bank.text}°" if everyone else f"limit {first.limit_bank.text}°") + \
             f" ({first.limit_load_factor.text} g)"
-        tag = figure(terms.LIMIT_BANK, t.limit_bank, "°", LOWER_IS_WORSE) if everyone and \
+        tag = rows.aircraft_limit_bank(t) if everyone and \
             first.limit_bank.text == t.limit_bank.text else None
         if bank <= x_max:
             d.line(X(bank), py0, X(bank), py1, colour if not everyone else INK, 0.8,

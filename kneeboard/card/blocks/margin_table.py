@@ -6,9 +6,9 @@ breaks into groups of configurations, each with the bank and load columns; a lon
 its heads repeated.
 """
 
-from kneeboard import terms
+from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import BLACK, HATCHED, Cell, Grid, GroupHeads, SubHeads, split_configurations
+from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHeads, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import (
     GREY,
@@ -23,11 +23,9 @@ from kneeboard.card.draw import (
     Piece,
     Plan,
     Section,
-    figure,
     weight_text,
 )
-from kneeboard.card.ops import HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, SMALL
-from kneeboard.tables import BUFFER, STALL
+from kneeboard.card.ops import LABEL, SMALL
 
 NAME = "margin-table"
 
@@ -52,7 +50,7 @@ class _Group:
         columns = [(0, bank_w), (bank_w, n_w)]
         for _, x, w in self.groups:
             columns += [(x, w / 2), (x + w / 2, w / 2)]
-        rows = ctx.once((NAME, tuple(c.name for c in configs)), lambda: _rows(t, configs))
+        rows = ctx.once((NAME, tuple(c.name for c in configs)), lambda: printed.margin_rows(t, configs))
         self.rows = rows
         row_h = fs * 1.5
         # the load-factor column in the secondary size, the rest at full figure size, on the same rows
@@ -67,7 +65,7 @@ class _Group:
         d.text(0, y + ls * 0.2, f"{su} IAS", LABEL, True, color=GREY)
         for c, (_, x, w) in zip(self.configs, self.groups):
             d.text(x + w / 2, y - ls * 1.05, f"pattern {c.pattern_speed.text}", LABEL, True, "centre",
-                   figures=figure(terms.label(c.name, terms.PATTERN), c.pattern_speed, su))
+                   figures=printed.pattern(c, su))
         y -= ls * 1.4
         y = self.subs.draw(d, y)
         d.line(0, y, width, y, INK, 0.8)
@@ -78,28 +76,6 @@ class _Group:
             d.line(x, top, x, y, RULE, 0.6)
         d.line(0, y, width, y, INK, 0.8)
         return y
-
-
-def _rows(t, configs) -> list[list[Cell]]:
-    """The table's cells (with the figures they show) for `configs`: the same at every type size."""
-    su = t.speed_unit
-    rows = []
-    for i in range(len(configs[0].rows)):
-        first = configs[0].rows[i]
-        bank = terms.at_bank(first.bank_text)
-        row = [Cell(f"{first.bank_text}°", bold=True),
-               Cell(first.load_factor.text,
-                    figure=figure(terms.label(bank, terms.LOAD_FACTOR), first.load_factor, "g"))]
-        for c in configs:
-            r = c.rows[i]
-            mark = {BUFFER: HATCHED, STALL: BLACK}.get(r.state)
-            row += [Cell(r.stall_speed.text, framed=r.over_limit,
-                         figure=figure(terms.label(c.name, bank, terms.STALL), r.stall_speed, su,
-                                       HIGHER_IS_WORSE)),
-                    Cell(r.margin.text, bold=True, mark=mark, framed=r.over_limit,
-                         figure=figure(terms.label(c.name, bank, terms.MARGIN), r.margin, su, LOWER_IS_WORSE))]
-        rows.append(row)
-    return rows
 
 
 class MarginTable(Plan):
@@ -132,8 +108,7 @@ def _legend_layout(ctx: Context, width: float, framed: bool):
     """The legend's entries placed in lines: ([(kind, text, tag, x, y)], height), y from the legend's top."""
     t = ctx.table
     ss = ctx.size(SMALL)
-    entries = [(HATCHED, f"margin under the {t.buffer.text} {t.speed_unit} buffer",
-                figure(terms.BUFFER, t.buffer, t.speed_unit)),
+    entries = [(HATCHED, f"margin under the {t.buffer.text} {t.speed_unit} buffer", printed.buffer(t)),
                (BLACK, "margin 0 or less: stalls at this bank", None)]
     if framed:
         entries.append(("frame", "load factor at or above that configuration's limit load", None))

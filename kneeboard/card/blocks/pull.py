@@ -2,12 +2,12 @@
 Stalling Speeds"; 1.96 g at 1.4 Vs), and the stall speed at a few load factors. A go-around pull or a gust beyond it
 stalls the wing in any attitude. Marked where the structure's limit load comes before the stall."""
 
-from kneeboard import terms
+from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import Cell, ColumnHeads, Heading, NamedRow
+from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, Context, Draw, Measure, Piece, Plan, Section, figure, fit_lines
-from kneeboard.card.ops import HIGHER_IS_WORSE, SMALL
+from kneeboard.card.draw import GREY, Context, Draw, Measure, Piece, Plan, Section, fit_lines
+from kneeboard.card.ops import SMALL
 
 NAME = "pull"
 TITLE = "PULL AT THE PATTERN SPEED"
@@ -27,22 +27,13 @@ class Pull(Plan):
         columns = [(0, name_w)] + [(name_w + i * col_w, col_w) for i in range(len(names) - 1)]
         self.heading = Heading(ctx, width, TITLE)
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        def cells():  # the same at every type size
-            out = []
-            for c in t.configurations:
-                structure_first = not c.stalls_before_limit
-                row = [Cell(f"{c.available_load_factor.text} g", bold=True, note="!" if structure_first else "",
-                            figure=figure(terms.label(c.name, terms.AVAILABLE_LOAD), c.available_load_factor, "g"))]
-                row += [Cell(v.text, figure=figure(terms.label(c.name, f"{n} g", terms.STALL), v, su, HIGHER_IS_WORSE))
-                        for n, v in c.stall_at_load]
-                out.append(row)
-            return out
-
         self.rows = [NamedRow(ctx, NAME, c.name, name_w, columns[1:], row)
-                     for c, row in zip(t.configurations, ctx.once((NAME,), cells))]
+                     for c, row in zip(t.configurations, ctx.once((NAME,), lambda: printed.pull_rows(t)))]
         first_limit = any(not c.stalls_before_limit for c in t.configurations)
+        framed = any(v.past_limit for c in t.configurations for _, v in c.stall_at_load)
         note = (f"pattern stalls at: the load factor that stalls the wing at the pattern speed, wings level; stall "
-                f"speeds {su} IAS." + (" ! the structure's limit load comes before the stall." if first_limit else ""))
+                f"speeds {su} IAS." + (" ! the structure's limit load comes before the stall." if first_limit else "")
+                + (" Framed: a load factor above that configuration's limit load factor." if framed else ""))
         ss = ctx.size(SMALL)
         self.note = fit_lines(NAME, note, fonts.REGULAR, ss, width, 3)
         self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),

@@ -3,12 +3,12 @@ gliding turn, its margin over the stall speed, and the height each heading chang
 of the reaction time; the bank of least loss in bold. The figures are `aero.glide`'s, rounded toward safety
 (speeds and heights up, margins down)."""
 
-from kneeboard import terms
+from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import Cell, ColumnHeads, Grid, Heading, even_columns
+from kneeboard.card.blocks.grid import ColumnHeads, Grid, Heading, even_columns
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, figure, fit_lines
-from kneeboard.card.ops import CAUTION, HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, SMALL
+from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines
+from kneeboard.card.ops import CAUTION, LABEL, SMALL
 from kneeboard.texts import CAUTION_TURN_BACK
 
 NAME = "turn-back"
@@ -24,38 +24,23 @@ class TurnBack(Plan):
         fs = ctx.secondary_figure
         su, du = t.speed_unit, t.distance_unit
         what = "A LAUNCH FAILURE" if t.category == "glider" else "ENGINE FAILURE"
-        at = terms.TURN_BACK
         self.heading = Heading(
             ctx, width, f"TURN BACK AFTER {what}",
             f"best glide {tb.best_glide_speed.text} {su} IAS, ratio {tb.glide_ratio.text}; "
             f"{tb.reaction_time.text} s of reaction: {tb.reaction_height_loss.text} {du} first. Height lost in "
             f"the turn; least at the bold bank; margin over {tb.clean}'s stall speed.",
-            (figure(terms.label(at, "best glide speed"), tb.best_glide_speed, su),
-             figure(terms.label(at, "glide ratio"), tb.glide_ratio, "", LOWER_IS_WORSE),
-             figure(terms.label(at, terms.REACTION, terms.HEIGHT_LOSS), tb.reaction_height_loss, du,
-                    HIGHER_IS_WORSE)))
+            printed.turn_back_heading(t))
         names = ["bank", f"speed {su} IAS", f"margin {su}"] + [f"{h}° loss {du}" for h in tb.headings]
         columns = even_columns(width, len(names))
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        def cells():  # the same at every type size
-            out = []
-            for r in tb.rows:
-                bank = terms.at_bank(r.bank_text)
-                row = [Cell(f"{r.bank_text}°", bold=True),
-                       Cell(r.speed.text, bold=r.least, figure=figure(terms.label(at, bank, terms.SPEED), r.speed, su)),
-                       Cell(r.margin.text, bold=r.least,
-                            figure=figure(terms.label(at, bank, terms.MARGIN), r.margin, su, LOWER_IS_WORSE))]
-                for h, loss in zip(tb.headings, r.height_loss):
-                    row.append(Cell(loss.text, bold=r.least,
-                                    figure=figure(terms.label(at, bank, f"{h}° {terms.HEIGHT_LOSS}"), loss, du,
-                                                  HIGHER_IS_WORSE)))
-                out.append(row)
-            return out
-
-        rows = ctx.once((NAME,), cells)
+        rows = ctx.once((NAME,), lambda: printed.turn_back_rows(t))
         self.grid = Grid(NAME, columns, rows, fs * 1.3, fs)
         cs = ctx.size(CAUTION)
-        self.caution = fit_lines(NAME, CAUTION_TURN_BACK, fonts.REGULAR, cs, width, 4)
+        caution = CAUTION_TURN_BACK
+        if any(r.past_limit for r in tb.rows):
+            caution = (f"Framed rows: at or past {tb.clean}'s limit bank of {tb.limit_bank.text}°, a load the "
+                       f"structure is not built for. " + caution)
+        self.caution = fit_lines(NAME, caution, fonts.REGULAR, cs, width, 5)
         foot = ctx.size(SMALL) * 0.2 + cs * 1.2 * len(self.caution) + ctx.size(LABEL) * 0.6
         self.measure = Measure((Section(self.heads.height, (fs * 1.3,) * len(rows)),),
                                lead=self.heading.height, foot=foot, again=self.heading.again)

@@ -1,12 +1,11 @@
 """Turns at each configuration's pattern speed: radius, and time for 180 and 360 degrees, at the density altitude."""
 
-from kneeboard import terms
+from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NO_VALUE, Cell, Grid, GroupHeads, Heading, SubHeads, split_configurations
+from kneeboard.card.blocks.grid import NO_VALUE, Grid, GroupHeads, Heading, SubHeads, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, INK, RULE, Context, Draw, Measure, Piece, Plan, Section, figure
-from kneeboard.card.ops import LABEL, SMALL
-from kneeboard.tables import STALL
+from kneeboard.card.draw import GREY, INK, RULE, Context, Draw, Measure, Piece, Plan, Section
+from kneeboard.card.ops import SMALL
 
 NAME = "turns"
 TITLE = "TURNS AT PATTERN SPEED"
@@ -29,7 +28,7 @@ class _Group:
         columns = [(0, bank_w)]
         for _, x, w in self.groups:
             columns += [(x, w * 0.5), (x + w * 0.5, w * 0.5)]
-        self.rows = rows = ctx.once((NAME, tuple(c.name for c in configs)), lambda: _rows(configs, du))
+        self.rows = rows = ctx.once((NAME, tuple(c.name for c in configs)), lambda: printed.turn_rows(t, configs))
         self.grid = Grid(NAME, columns, rows, fs * 1.45, fs) if rows else None
         self.stalled = any(cell.text == NO_VALUE for row in rows for cell in row)
         self.head = self.heads.height + self.subs.height if rows else ss * 1.3 + ss * 0.6
@@ -51,27 +50,6 @@ class _Group:
         return y
 
 
-def _rows(configs, du: str) -> list[list[Cell]]:
-    """The cells (with the figures they show) of the banks with a turn: the same at every type size."""
-    rows = []
-    for i, first in enumerate(configs[0].rows):
-        if first.turn_radius is None or all(c.rows[i].state == STALL for c in configs):
-            continue
-        bank = terms.at_bank(first.bank_text)
-        row = [Cell(f"{first.bank_text}°", bold=True)]
-        for c in configs:
-            r = c.rows[i]
-            if r.state == STALL:
-                row += [Cell(NO_VALUE, role=LABEL), Cell(NO_VALUE, role=LABEL)]
-            else:
-                times = f"{r.time_180.text}/{r.time_360.text}"
-                row += [Cell(r.turn_radius.text, figure=figure(terms.label(c.name, bank, terms.TURN_RADIUS),
-                                                               r.turn_radius, du)),
-                        Cell(times, figure=figure(terms.label(c.name, bank, terms.TURN_TIMES), times, "s"))]
-        rows.append(row)
-    return rows
-
-
 class Turns(Plan):
     name = NAME
 
@@ -83,9 +61,7 @@ class Turns(Plan):
         self.heading = Heading(ctx, width, TITLE,
                                f"density altitude {t.density_altitude.text} {du} (pressure altitude "
                                f"{t.pressure_altitude.text} {du}, {t.temperature_c.text} °C)",
-                               (figure(terms.DENSITY_ALTITUDE, t.density_altitude, du),
-                                figure(terms.PRESSURE_ALTITUDE, t.pressure_altitude, du),
-                                figure(terms.TEMPERATURE, t.temperature_c, "°C")))
+                               printed.turns_heading(t))
         bank_w = fonts.width("88°", fonts.BOLD, fs) + fs
         configs = t.configurations
         self.parts = split_configurations(ctx, len(configs),
