@@ -251,3 +251,5 @@ def export_fleet(parent: QWidget | None, paths: list[Path], styles: Styles, out:
         return result
     finally:
         dialog.close()
+        if hasattr(dialog, "deleteLater"):
+            dialog.deleteLater()  # one dialog per export: none piles up under the window
