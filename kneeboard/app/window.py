@@ -4,7 +4,7 @@ the key figures and the card exactly as it will print.
 
 from pathlib import Path
 
-from PySide6.QtCore import QSettings, QStandardPaths, Qt, QTimer
+from PySide6.QtCore import QSettings, Qt, QTimer
 from PySide6.QtGui import QAction, QKeySequence
 from PySide6.QtWidgets import (
     QFileDialog,
@@ -36,8 +36,9 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         super().__init__()
         self.settings = settings or QSettings("kneeboard", "kneeboard")
         if recovery_dir is None:
-            data = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
-            recovery_dir = Path(data or Path.home() / ".kneeboard") / "recovery"
+            from kneeboard.app.main import data_folder
+
+            recovery_dir = data_folder() / "recovery"
         self.recovery = Recovery(recovery_dir)
         self._autosaved: tuple[str, str] | None = None  # (recovery key, text) last copied aside
         self.doc = None  #: the open profile (app.document.ProfileDocument), or None
