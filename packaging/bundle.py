@@ -8,8 +8,8 @@ through a path entry, so nothing is downloaded twice. PyInstaller's work folder 
 second build reuses its analysis when nothing changed.
 
 Run with the Python of an environment that has kneeboard's dependencies and PyInstaller
-(`pip install -e '.[bundle]'`); the same steps work on Windows and macOS, where the executable is
-dist/kneeboard/kneeboard.exe and dist/kneeboard.app respectively.
+(`pip install -e '.[bundle]'`). The same steps are meant for Windows and macOS (the executable is then
+dist/kneeboard/kneeboard.exe, or dist/kneeboard/kneeboard); only the Linux build is built and tested here.
 """
 
 import hashlib
