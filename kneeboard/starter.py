@@ -13,8 +13,6 @@ from pathlib import Path
 from kneeboard import shipped
 from kneeboard.problems import printable
 
-STYLE_NAME = "fleet.style.toml"  #: the name every command and the app look for beside a fleet's profiles
-
 
 class Refused(Exception):
     """Nothing was written; the message names the file and why."""
@@ -69,8 +67,7 @@ def copy_samples(folder: Path) -> list[Path]:
     """The sample profiles and the default style (as fleet.style.toml) copied into `folder`; nothing is copied
     when any of their names is taken there."""
     folder = Path(folder)
-    sources = [(p, folder / p.name) for p in shipped.sample_files()]
-    sources.append((shipped.default_style_path(), folder / STYLE_NAME))
+    sources = [(source, folder / name) for source, name in shipped.sample_fleet_files()]
     if folder.exists() and not folder.is_dir():
         raise Refused(f"{printable(folder)}: is not a folder; nothing was copied")
     taken = [target.name for _, target in sources if os.path.lexists(target)]
@@ -115,8 +112,8 @@ def cmd_samples(args) -> int:
         print(f"kneeboard samples: {exc}", file=sys.stderr)
         return EXIT_PROBLEMS
     profiles = len(written) - 1
-    print(printable(f"copied {profiles} invented sample profiles and the card style {STYLE_NAME} to {folder}. "
-                    "No figure in them is from a real flight manual."))
+    print(printable(f"copied {profiles} invented sample profiles and the card style {shipped.FLEET_STYLE} to "
+                    f"{folder}. No figure in them is from a real flight manual."))
     print(printable(f"Try: kneeboard card {folder} -o cards.pdf"))
     print(CAUTION)
     return EXIT_OK

@@ -100,7 +100,8 @@ def test_the_app_opens_its_window_offscreen_on_its_copy_of_the_samples(bundle, e
     assert proc.returncode == 0, proc.stderr
     assert "kneeboard: window shown after" in proc.stderr
     copied = elsewhere / ".local" / "share" / "kneeboard" / "sample fleet"
-    assert sorted(p.name for p in copied.glob("*.toml")) == sorted(p.name for p in SAMPLES.glob("*.toml"))
+    assert sorted(p.name for p in copied.glob("*.toml")) == sorted([p.name for p in SAMPLES.glob("*.toml")]
+                                                                   + ["fleet.style.toml"])
 
 
 def test_the_window_check_names_the_system_libraries_the_bundle_does_not_carry(bundle, elsewhere):

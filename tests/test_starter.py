@@ -88,6 +88,15 @@ def test_samples_copies_the_fleet_and_its_style_which_make_cards(capsys, tmp_pat
     assert code == 0 and out.count(": ok") == len(list(SAMPLES.glob("*.toml")))
 
 
+def test_the_copies_style_is_the_one_a_fleet_folder_uses_and_the_app_copies_it_too(tmp_path):
+    from kneeboard import shipped
+    from kneeboard.card.style import FLEET_STYLE
+
+    assert shipped.FLEET_STYLE == FLEET_STYLE
+    folder = shipped.copy_samples(tmp_path / "app copy")  # the app's first start
+    assert sorted(p.name for p in folder.iterdir()) == sorted(name for _, name in shipped.sample_fleet_files())
+
+
 def test_samples_copies_nothing_into_a_folder_where_one_name_is_taken(capsys, tmp_path):
     (tmp_path / "demo_tourer.toml").write_text("my tourer\n", encoding="utf-8")
     (tmp_path / "notes.txt").write_text("mine\n", encoding="utf-8")

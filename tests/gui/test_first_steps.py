@@ -106,7 +106,8 @@ def test_the_sample_fleet_lives_in_one_kneeboard_folder_and_the_fleet_says_where
     monkeypatch.delenv("XDG_DATA_HOME", raising=False)
     assert data_folder() == tmp_path / ".local" / "share" / "kneeboard"  # not kneeboard/kneeboard
     folder = sample_fleet()
-    assert folder == data_folder() / "sample fleet" and len(list(folder.glob("*.toml"))) == 5
+    assert folder == data_folder() / "sample fleet" and len(list(folder.glob("demo_*.toml"))) == 5
+    assert (folder / "fleet.style.toml").is_file()  # the fleet's style, to edit
     window.open_folder(folder)
     assert window.fleet.title.text() == "Fleet: sample fleet"
     assert window.fleet.where.isVisible() and window.fleet.where.text() == "in ~/.local/share/kneeboard"
