@@ -2,25 +2,38 @@
 PYTHON ?= python3
 VENV := .venv
 BIN := $(VENV)/bin
+# make run's private copy of the sample fleet (ignored by git, never removed by make)
+FLEET := my-fleet
 
-.PHONY: run cards test lint bench clean
+.PHONY: run cards test lint bench bundle clean
 
 $(BIN)/python:
+	@echo "Creating $(VENV) with $(PYTHON)..."
 	$(PYTHON) -m venv $(VENV)
 	$(BIN)/python -m pip install --quiet --upgrade pip
 
 $(VENV)/.installed: pyproject.toml | $(BIN)/python
-	$(BIN)/python -m pip install --quiet -e .
+	@echo "Installing kneeboard and its dependencies into $(VENV) (about a minute the first time)..."
+	$(BIN)/python -m pip install --progress-bar off -e .
 	touch $@
 
 $(VENV)/.installed-test: pyproject.toml | $(BIN)/python
-	$(BIN)/python -m pip install --quiet -e '.[test]'
+	@echo "Installing kneeboard with its test tools into $(VENV) (about two minutes the first time)..."
+	$(BIN)/python -m pip install --progress-bar off -e '.[test]'
+	touch $@ $(VENV)/.installed $(VENV)/.installed-bundle
+
+$(VENV)/.installed-bundle: pyproject.toml | $(BIN)/python
+	@echo "Installing kneeboard with PyInstaller into $(VENV)..."
+	$(BIN)/python -m pip install --progress-bar off -e '.[bundle]'
 	touch $@ $(VENV)/.installed
 
-# Opens the app on the sample fleet; on a machine without a screen it writes the sample cards instead.
+# Opens the app on a private copy of the sample fleet (made once; edit it freely, the tracked sample_aircraft/
+# stays as it is); on a machine without a screen it writes the sample cards instead.
 run: $(VENV)/.installed
 	@if [ -n "$$DISPLAY$$WAYLAND_DISPLAY" ] || [ "$$(uname)" = Darwin ]; then \
-		$(BIN)/kneeboard sample_aircraft; \
+		[ -d "$(FLEET)" ] || $(BIN)/kneeboard samples "$(FLEET)" > /dev/null || exit $$?; \
+		echo "Opening the app on $(FLEET)/, your own copy of the invented sample fleet."; \
+		$(BIN)/kneeboard "$(FLEET)"; \
 	else \
 		echo "No screen found: writing the sample cards instead of opening the app."; \
 		$(MAKE) --no-print-directory cards; \
@@ -38,11 +51,16 @@ cards: $(VENV)/.installed
 test: $(VENV)/.installed-test
 	$(BIN)/python -m pytest -q
 
+# The standalone program (PyInstaller, see packaging/bundle.py): one folder under dist/ that runs without Python.
+# Its work stays in build/bundle/ and is reused; the last line printed is the path of the executable.
+bundle: $(VENV)/.installed-bundle
+	@$(BIN)/python packaging/bundle.py
+
 bench: $(VENV)/.installed-test
 	$(BIN)/python -m benchmarks
 
 lint: $(VENV)/.installed-test
-	$(BIN)/ruff check kneeboard tests benchmarks
+	$(BIN)/ruff check kneeboard tests benchmarks packaging
 
 clean:
-	rm -rf $(VENV) out .pytest_cache .hypothesis
+	rm -rf $(VENV) out .pytest_cache .hypothesis build dist

@@ -10,7 +10,7 @@ import sys
 import textwrap
 from pathlib import Path
 
-from kneeboard import __version__
+from kneeboard import __version__, starter
 from kneeboard.fileio import FileProblem, terminate_cleanly
 from kneeboard.problems import Problem, printable
 from kneeboard.texts import CAUTION
@@ -24,7 +24,7 @@ DISTANCE_UNITS = ("ft", "m")
 
 EXIT_OK, EXIT_PROBLEMS, EXIT_BUG, EXIT_OUTPUT = 0, 2, 70, 74  #: 74: the output device failed (EX_IOERR)
 EXIT_PIPE = 141  #: the reader of the output went away (128 + SIGPIPE), as a shell tool's exit
-COMMANDS = ("check", "table", "card", "compare")
+COMMANDS = ("check", "table", "card", "compare", "new", "samples")
 EXIT_CHANGED = 1  #: compare: the printed card is out of date
 PROGRESS_ABOVE = 5  #: more aircraft than this get a progress line on stderr
 
@@ -34,7 +34,8 @@ class UsageProblem(Exception):
 
 
 USAGE = """kneeboard [PROFILE_OR_FOLDER]      open the app (on the last fleet, or a copy of the sample fleet)
-       kneeboard COMMAND ...              check | table | card | compare, without a window"""
+       kneeboard COMMAND ...              check | table | card | compare, without a window
+       kneeboard new | samples ...        start: a profile from a template, or a copy of the samples"""
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -83,6 +84,7 @@ def _parser() -> argparse.ArgumentParser:
     compare.add_argument("--style", metavar="STYLE.toml", help=style_help)
     compare.add_argument("--weight", metavar="QTY", help="compare at this weight, not at the weight the card was "
                          'made for, e.g. "690 kg"')
+    starter.add_commands(command)
     return p
 
 
@@ -144,7 +146,7 @@ def cmd_check(args) -> int:
             print(f"{printable(path)}: {len(prepared.errors)} error(s); no card can be made")
             continue
         a = prepared.profile.aircraft
-        names = ", ".join(c.name for c in prepared.profile.configurations)
+        names = ", ".join(_quoted(c.name) for c in prepared.profile.configurations)  # names may hold commas
         warned = f", {len(prepared.warnings)} warning(s)" if prepared.warnings else ""
         print(printable(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(prepared.profile.configurations)} "
                         f"configuration(s): {names}; fingerprint {prepared.fingerprint}"))
@@ -221,8 +223,16 @@ def cmd_card(args) -> int:
             print(printable(f"wrote {len(pngs)} PNG page(s) at {args.png} dpi in {pngs[0].parent}"))
     else:
         print("kneeboard card: no card could be made", file=sys.stderr)
+    if len(paths) > 1 or made.failures:
+        skipped = f"; {len(made.failures)} skipped (see above)" if made.failures else ""
+        print(f"{made.cards} of {len(paths)} cards made{skipped}")
     print(CAUTION)
     return EXIT_PROBLEMS if made.failures or made.clashes or not made.cards else EXIT_OK
+
+
+def _quoted(name: str) -> str:
+    """A name in double quotes (a quote inside it escaped), so a list of names reads apart from its commas."""
+    return '"' + name.replace("\\", "\\\\").replace('"', '\\"') + '"'
 
 
 def _safely(prepare, path, styles):
@@ -326,7 +336,7 @@ def _at_weight(prepared, data: dict, args, styles):
     return _safely(prepare_file, prepared.path, _styles(args, weight=weight, styles=styles)), printable(said)
 
 
-HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare": cmd_compare}
+HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare": cmd_compare, **starter.HANDLERS}
 
 
 def main(argv: list[str] | None = None) -> int:

@@ -42,14 +42,21 @@ LIBRARY_FOLDERS = ("/usr/lib/x86_64-linux-gnu", "/usr/lib/aarch64-linux-gnu", "/
 HEADLESS = "the commands check, table, card and compare work without one (kneeboard --help)"
 
 
-def missing_packages(folders=LIBRARY_FOLDERS) -> list[str]:
+def library_folders() -> tuple[str, ...]:
+    """Where the window's libraries may be: the system's folders and, in the standalone program (`make bundle`),
+    its own folder, whose copies the program loads first, so a library it carries is never asked for."""
+    bundle = getattr(sys, "_MEIPASS", None) if getattr(sys, "frozen", False) else None
+    return (bundle, *LIBRARY_FOLDERS) if bundle else LIBRARY_FOLDERS
+
+
+def missing_packages(folders=None) -> list[str]:
     """Debian/Ubuntu packages whose libraries the xcb plugin needs and no library folder holds."""
-    existing = [Path(f) for f in folders if Path(f).is_dir()]
+    existing = [Path(f) for f in (library_folders() if folders is None else folders) if Path(f).is_dir()]
     return list(dict.fromkeys(package for library, package in XCB_LIBRARIES.items()
                               if not any((folder / library).exists() for folder in existing)))
 
 
-def window_problem(environ=None, platform: str | None = None, folders=LIBRARY_FOLDERS) -> str | None:
+def window_problem(environ=None, platform: str | None = None, folders=None) -> str | None:
     """Why the window cannot open here, as one line for the terminal; None when it can."""
     environ = os.environ if environ is None else environ
     platform = sys.platform if platform is None else platform

@@ -56,6 +56,16 @@ def sample_files() -> list[Path]:
     return sorted(p for p in samples_folder().iterdir() if p.suffix == ".toml")
 
 
+#: the style a fleet folder's cards use (card.style.FLEET_STYLE, which loads the units library; a test holds them equal)
+FLEET_STYLE = "fleet.style.toml"
+
+
+def sample_fleet_files() -> list[tuple[Path, str]]:
+    """What a copy of the sample fleet holds, as (shipped file, name in the copy): the sample profiles, and the
+    default card style as the fleet's own style, to edit. The app's first start and `kneeboard samples` copy these."""
+    return [(p, p.name) for p in sample_files()] + [(default_style_path(), FLEET_STYLE)]
+
+
 def copy_samples(destination: Path) -> Path:
     """Copy the sample fleet into `destination` (created), leaving files already there alone; returns it.
 
@@ -63,8 +73,8 @@ def copy_samples(destination: Path) -> Path:
     """
     destination = Path(destination)
     destination.mkdir(parents=True, exist_ok=True)
-    for source in sample_files():
-        target = destination / source.name
+    for source, name in sample_fleet_files():
+        target = destination / name
         if not target.exists():
             shutil.copyfile(source, target)
     return destination

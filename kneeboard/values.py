@@ -51,8 +51,9 @@ class Reader:
                 else []
             if close and not prefix and close[0] in fields.SECTIONS and isinstance(data[key], (dict, list)):
                 # named at the section it looks like: that is the field the person will look for
+                # one sentence: the suggestion is what would do, so it is not said a second time as "expected"
                 self.problem(close[0], f"[{key_text(key)}] is not a section of a profile; did you mean "
-                             f"[{close[0]}]?", f"[{close[0]}]")
+                             f"[{close[0]}]?")
             elif close:
                 near = fields.BY_PATH.get(re.sub(r"\[\d+\]", "", f"{prefix}.{close[0]}"))
                 self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",

@@ -127,6 +127,8 @@ def window(qtbot, fleet, settings, tmp_path):
     w.ask_unsaved = lambda: w.answers.pop(0) if w.answers else "discard"
     w.conflicts = []  # a test that expects the question sets its answer here
     w.ask_conflict = lambda: w.conflicts.pop(0) if w.conflicts else "cancel"
+    w.categories = []  # File › New profile's question: a test sets the category; unanswered, it is cancelled
+    w.ask_category = lambda _current: w.categories.pop(0) if w.categories else None
     w.show()
     w.open_profile(fleet / "demo_trainer.toml")
     qtbot.wait(w.timer.interval() + 20)

@@ -187,3 +187,12 @@ def test_table_text_prints_the_turn_back_and_pull_figures_of_the_card(capsys, na
     # every row's speed, margin and losses, the three heading figures, one pull figure per configuration
     assert checked == rows_on_card * (2 + len(headings)) + 3 + len(card.table.configurations)
     assert "a turn back is a decision" in out  # its own caution travels with it
+
+
+def test_check_quotes_configuration_names_which_may_hold_commas(capsys, tmp_path):
+    f = tmp_path / "p.toml"
+    f.write_text(MINIMAL + '\n[[configuration]]\nname = "Flaps 10, gear down"\nstall_speed = "45 kt"\n'
+                 '\n[[configuration]]\nname = "Say \\"full\\""\nstall_speed = "42 kt"\n', encoding="utf-8")
+    code, out, _ = run(capsys, "check", str(f))
+    assert code == 0
+    assert '3 configuration(s): "Flaps up", "Flaps 10, gear down", "Say \\"full\\""; fingerprint' in out

@@ -137,3 +137,21 @@ def test_folder_uses_its_fleet_style(capsys, tmp_path):
     first = pages(out)[0]
     assert float(first.mediabox.width) == pytest.approx(288, abs=0.1)
     assert "Demo Flying Club" in first.extract_text()
+
+
+def test_a_fleet_run_ends_with_how_many_cards_were_made_and_skipped(capsys, tmp_path):
+    fleet = tmp_path / "fleet"
+    fleet.mkdir()
+    for p in SAMPLES.glob("*.toml"):
+        (fleet / p.name).write_bytes(p.read_bytes())
+    (fleet / "broken.toml").write_text(MINIMAL.replace('"50 kt"', '"50 kg"'), encoding="utf-8")
+    total = len(list(fleet.glob("*.toml")))
+    code, out, err = run(capsys, "card", fleet, "-o", tmp_path / "all.pdf")
+    assert code == 2  # unchanged: a profile was skipped
+    lines = out.splitlines()
+    assert lines[-2] == f"{total - 1} of {total} cards made; 1 skipped (see above)"
+    assert "flight manual" in lines[-1]  # the caution stays the last word
+    assert "broken.toml: skipped" in err and "configuration[1].stall_speed" in err
+    (fleet / "broken.toml").unlink()
+    code, out, _ = run(capsys, "card", fleet, "-o", tmp_path / "all.pdf")
+    assert code == 0 and out.splitlines()[-2] == f"{total - 1} of {total - 1} cards made"

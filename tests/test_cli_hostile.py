@@ -176,6 +176,22 @@ def test_missing_window_libraries_are_named_by_their_packages(tmp_path):
     assert display.window_problem({"QT_QPA_PLATFORM": "offscreen"}, "linux") is None
 
 
+def test_the_standalone_programs_own_libraries_count_as_installed(tmp_path, monkeypatch):
+    bundle = tmp_path / "_internal"  # what PyInstaller's bootloader names sys._MEIPASS, first on the loader's path
+    bundle.mkdir()
+    for library in display.XCB_LIBRARIES:
+        (bundle / library).touch()
+    system = tmp_path / "lib"
+    system.mkdir()
+    assert display.missing_packages((str(system),)) == list(dict.fromkeys(display.XCB_LIBRARIES.values()))
+    monkeypatch.setattr(sys, "_MEIPASS", str(bundle), raising=False)
+    assert display.library_folders() == display.LIBRARY_FOLDERS  # not frozen: a stray attribute is not a bundle
+    monkeypatch.setattr(sys, "frozen", True, raising=False)
+    assert display.library_folders()[0] == str(bundle)
+    (bundle / "libxcb-icccm.so.4").unlink()
+    assert display.missing_packages((*display.library_folders()[:1], str(system))) == ["libxcb-icccm4"]
+
+
 def test_help_names_the_app_and_every_page_ends_with_the_caution(capsys):
     for args in (["--help"], ["check", "--help"], ["table", "--help"], ["card", "--help"], ["--version"]):
         with pytest.raises(SystemExit) as stop:

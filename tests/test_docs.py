@@ -22,7 +22,7 @@ from kneeboard.card.ops import Text
 from kneeboard.pipeline import Overrides, Styles, make_card, prepare_file, report_text
 
 DEVELOPERS = ROOT / "DEVELOPERS.md"
-HELP_PAGES = ([], ["check"], ["table"], ["card"], ["compare"])
+HELP_PAGES = ([], ["check"], ["table"], ["card"], ["compare"], ["new"], ["samples"])
 
 #: Replaced words found in code the documentation's author does not own: reported to its owner, not fixed here.
 #: Each entry is (where, the words found); only these exact cases are let through, every other find fails.
@@ -230,7 +230,7 @@ def test_the_readme_profile_format_names_every_field_with_its_default():
 def test_the_readme_apt_line_is_the_packages_display_py_checks():
     from kneeboard.display import XCB_LIBRARIES
 
-    (line,) = re.findall(r"^sudo apt install (.+)$", _readme_section("Two commands"), re.M)
+    (line,) = re.findall(r"^sudo apt install (.+)$", _readme_section("Window libraries on Linux"), re.M)
     assert line.split() == list(dict.fromkeys(XCB_LIBRARIES.values()))
 
 
@@ -255,7 +255,7 @@ def test_the_readme_commands_section_names_every_command_and_option(help_pages):
     for page in help_pages.values():
         for option in set(re.findall(r"(?<![\w-])--[a-z][a-z-]+", page)) - {"--help"}:
             assert option in section, option
-    for command in ("check", "table", "card", "compare"):
+    for command in ("check", "table", "card", "compare", "new", "samples"):
         assert f"kneeboard {command} " in section, command
 
 

@@ -11,7 +11,8 @@ ROOT = Path(__file__).resolve().parent.parent
 def test_ruff_clean():
     ruff = shutil.which("ruff", path=str(Path(sys.executable).parent)) or shutil.which("ruff")
     assert ruff, "ruff is a test dependency; install the test extra"
-    proc = subprocess.run([ruff, "check", "kneeboard", "tests", "benchmarks"], cwd=ROOT, capture_output=True, text=True)
+    proc = subprocess.run([ruff, "check", "kneeboard", "tests", "benchmarks", "packaging"], cwd=ROOT,
+                          capture_output=True, text=True)
     assert proc.returncode == 0, proc.stdout
 
 

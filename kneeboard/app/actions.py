@@ -80,8 +80,24 @@ class CardActions:
             self.show_problems("The card was not exported", f"{exc}\nNothing was written.")
             return None
         self._printed(pdf, str(path))
-        self.statusBar().showMessage(f"The card of {reg} was exported to {path}.", 10000)
+        self.confirm_export(f"the card of {reg}", path)
         return path
+
+    def confirm_export(self, what: str, path: Path) -> None:
+        """"Exported WHAT: NAME in FOLDER" in the status bar, whole: left of the caution, the folder shortened in
+        its middle when the room is short, so the name of the file written is always on screen."""
+        from PySide6.QtCore import Qt
+
+        bar, path = self.statusBar(), Path(path)
+        head = f"Exported {what}: {printable(path.name)}"
+        metrics = bar.fontMetrics()
+        room = self.caution.geometry().left() - metrics.horizontalAdvance(f"{head} in ")
+        room -= 3 * metrics.averageCharWidth()  # the status bar's own margins
+        from kneeboard.app.fleet import shown_folder
+
+        folder = metrics.elidedText(printable(shown_folder(path.parent).removeprefix("in ")),
+                                    Qt.TextElideMode.ElideMiddle, max(room, 0))
+        bar.showMessage(f"{head} in {folder}" if len(folder) > 2 else head, 15000)
 
     def _refuse_inputs(self, path: Path) -> None:
         """An export never replaces the open profile, a profile of the fleet, or a style or logo it uses."""
@@ -112,7 +128,7 @@ class CardActions:
         except FileProblem as exc:
             self.show_problems("The table was not exported", f"{exc}\nNothing was written.")
             return None
-        self.statusBar().showMessage(f"The table of {table.registration} was exported to {path}.", 10000)
+        self.confirm_export(f"the table of {table.registration}", path)
         return path
 
     def export_fleet(self):
@@ -136,7 +152,7 @@ class CardActions:
                                "\n".join(line for f in result.failures for line in f.lines))
         if result.cards and not result.cancelled and path in result.written:
             self._printed(Path(path).read_bytes(), str(path))
-            self.statusBar().showMessage(f"{result.cards} card(s) exported to {path}.", 10000)
+            self.confirm_export(f"{result.cards} card(s)", path)
         return result
 
     def print_card(self) -> bool:

@@ -21,6 +21,7 @@ from PySide6.QtWidgets import (
 
 from kneeboard.problems import Problem
 
+PLACEHOLDER_NOTE = "Warning: the template's placeholder; replace it"
 ERROR_STYLE = "color: #A11D1D;"
 WARNING_STYLE = "color: #8A5A00;"
 
@@ -63,7 +64,8 @@ class Field(QWidget):
             return
         text = problem.message + (f"; expected {problem.expected}" if problem.expected else "")
         prefix = "Error: " if problem.is_error else "Warning: "
-        self.problem_label.setText(prefix + text)
+        # a new profile has a placeholder under most fields: one short line each, the whole sentence on hover
+        self.problem_label.setText(PLACEHOLDER_NOTE if is_placeholder(problem) else prefix + text)
         self.problem_label.setStyleSheet(ERROR_STYLE if problem.is_error else WARNING_STYLE)
         self.problem_label.show()
         colour = "#C62828" if problem.is_error else "#C77700"
@@ -73,6 +75,12 @@ class Field(QWidget):
     def set_beside(self, text: str) -> None:
         if self.beside.text() != text:
             self.beside.setText(text)
+
+
+def is_placeholder(problem: Problem) -> bool:
+    from kneeboard.pipeline import PLACEHOLDER  # loaded already: the problem came from it
+
+    return problem.message == PLACEHOLDER
 
 
 class TextField(Field):

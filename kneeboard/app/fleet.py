@@ -57,15 +57,22 @@ class FleetPanel(QWidget):
         self.title = QLabel("No folder open")
         self.title.setStyleSheet("font-weight: bold;")
         self.title.setWordWrap(True)
+        self.where = QLabel()  #: where the folder is (the sample fleet's copy lives in the app's data folder)
+        self.where.setStyleSheet("color: #555;")
+        self.where.setWordWrap(True)
+        self.where.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self.where.hide()
+        self._current: Path | None = None  #: the profile highlighted: the one being edited
         self.open_folder = QPushButton("Open folder…")
         self.reload = QPushButton("Reload")
-        self.reload.clicked.connect(lambda: self.folder and self.show_folder(self.folder))
+        self.reload.clicked.connect(lambda: self.folder and self.show_folder(self.folder, self._current))
         buttons = QHBoxLayout()
         buttons.addWidget(self.open_folder)
         buttons.addWidget(self.reload)
         box = QVBoxLayout(self)
         box.setContentsMargins(0, 0, 0, 0)
         box.addWidget(self.title)
+        box.addWidget(self.where)
         box.addWidget(self.hint)
         box.addWidget(self.tree)
         box.addLayout(buttons)
@@ -74,8 +81,12 @@ class FleetPanel(QWidget):
         """List the folder's profiles at once (registration and model as written); their marks follow, one
         profile checked per event-loop turn, so a large fleet never holds the window up."""
         self.folder = Path(folder)
+        self._current = Path(current) if current is not None else None
         self.title.setText(f"Fleet: {self.folder.name}")
         self.title.setToolTip(str(self.folder))
+        self.where.setText(shown_folder(self.folder.parent))
+        self.where.setToolTip(str(self.folder))
+        self.where.show()
         self._items: dict[str, QTreeWidgetItem] = {}  # emptied with the tree, whose clear() deletes the items
         self._unchecked = []
         self.tree.clear()
@@ -173,6 +184,7 @@ class FleetPanel(QWidget):
 
     def select(self, path: Path | None) -> None:
         """Highlight the profile at `path`; None (a new profile, not in the fleet): highlight none."""
+        self._current = Path(path) if path is not None else None
         for i in range(self.tree.topLevelItemCount()):
             item = self.tree.topLevelItem(i)
             if path is not None and item.data(0, PATH_ROLE) == str(path):
@@ -183,3 +195,12 @@ class FleetPanel(QWidget):
 
     def _chosen(self, item, _column=0):
         self.opened.emit(Path(item.data(0, PATH_ROLE)))
+
+
+def shown_folder(folder: Path) -> str:
+    """`folder` as a person reads it: "in ~/.local/share/kneeboard" (the home folder as ~)."""
+    home = Path.home()
+    try:
+        return f"in ~/{folder.relative_to(home).as_posix()}" if folder != home else "in ~"
+    except ValueError:
+        return f"in {folder}"

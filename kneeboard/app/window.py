@@ -4,7 +4,7 @@ the key figures and the card exactly as it will print.
 
 from pathlib import Path
 
-from PySide6.QtCore import QSettings, QStandardPaths, Qt, QTimer
+from PySide6.QtCore import QSettings, Qt, QTimer
 from PySide6.QtGui import QAction, QKeySequence
 from PySide6.QtWidgets import (
     QFileDialog,
@@ -36,8 +36,9 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         super().__init__()
         self.settings = settings or QSettings("kneeboard", "kneeboard")
         if recovery_dir is None:
-            data = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
-            recovery_dir = Path(data or Path.home() / ".kneeboard") / "recovery"
+            from kneeboard.app.main import data_folder
+
+            recovery_dir = data_folder() / "recovery"
         self.recovery = Recovery(recovery_dir)
         self._autosaved: tuple[str, str] | None = None  # (recovery key, text) last copied aside
         self.doc = None  #: the open profile (app.document.ProfileDocument), or None
@@ -55,6 +56,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         self._asking_conflict = False
 
         self.ask_open_path = self._ask_open_path
+        self.ask_category = self._ask_category  # -> "normal" | "utility" | "acrobatic" | "glider" | None
         self.fleet = FleetPanel(self.session.prepare_source)
         self.fleet.opened.connect(self.open_profile)
         self.fleet.open_folder.clicked.connect(self._open_folder_dialog)
@@ -95,7 +97,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         self.caution = QLabel(CAUTION_SHORT)
         self.caution.setToolTip(CAUTION)
         self.caution.setStyleSheet("color: #5a3b00;")
-        self.statusBar().addPermanentWidget(self.caution, 1)
+        # at the right, its natural width: the left keeps room for confirmations ("... exported to PATH")
+        self.statusBar().addPermanentWidget(self.caution)
         self.resize(1400, 900)
         geometry = self.settings.value("window/geometry")
         if geometry is not None:
@@ -114,7 +117,8 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
     def _menus(self):
         bar = self.menuBar()
         m = bar.addMenu("&File")
-        new = m.addMenu("&New profile from template")
+        self.act_new_profile = self._action(m, "&New profile…", self._new_profile_dialog, QKeySequence.StandardKey.New)
+        new = m.addMenu("New profile from &template")
         self.act_new = {}
         for category in shipped.CATEGORIES_WITH_TEMPLATES:
             self.act_new[category] = self._action(new, category.capitalize(),
@@ -186,8 +190,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         if self.doc is not None and self.doc.path == path:
             return True
         if not self.maybe_save():
-            if self.doc is not None and self.doc.path is not None:
-                self.fleet.select(self.doc.path)
+            self._show_open_in_fleet()  # the click is undone: the profile still edited stays highlighted
             return False
         if self.session.folder != path.parent:
             self.session.use_folder(path.parent)
@@ -197,6 +200,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             doc = ProfileDocument.open(path, self, self.session)
         except FileProblem as exc:
             self.show_problems(f"Cannot open {path.name}", str(exc))
+            self._show_open_in_fleet()
             return False
         if self.fleet.folder != path.parent:
             self.fleet.show_folder(path.parent, path)
@@ -210,6 +214,31 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
                                "\n".join(str(p).removeprefix(f"{path}: ") for p in doc.loaded.errors))
         return True
 
+    def _show_open_in_fleet(self) -> None:
+        """The fleet highlights the profile being edited; a new one, not yet saved in the fleet, highlights none."""
+        self.fleet.select(self.doc.path if self.doc is not None else None)
+
+    def _new_profile_dialog(self) -> None:
+        """File › New profile (Ctrl+N): a template of the category asked for, the open profile's by default."""
+        current = self.doc.loaded.profile.aircraft.category if self.doc is not None and \
+            self.doc.loaded.profile is not None else "normal"
+        category = self.ask_category(current)
+        if category is not None:
+            self.new_profile(category)
+
+    def _ask_category(self, current: str) -> str | None:
+        from PySide6.QtWidgets import QInputDialog
+
+        names = list(shipped.CATEGORIES_WITH_TEMPLATES)
+        labels = [name.capitalize() for name in names]
+        dialog = QInputDialog(self)
+        dialog.setWindowTitle("New profile")
+        dialog.setLabelText("The aircraft's category (its template's figures are placeholders to replace):")
+        dialog.setComboBoxItems(labels)
+        dialog.setComboBoxEditable(False)
+        dialog.setTextValue(labels[names.index(current)] if current in names else labels[0])
+        return names[labels.index(dialog.textValue())] if dialog.exec() else None
+
     def new_profile(self, category: str) -> None:
         if not self.maybe_save():
             return
@@ -219,8 +248,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         self._set_document(ProfileDocument(text, None, self, session=self.session))
         self.fleet.select(None)  # the new profile is none of the fleet's aircraft
         self.statusBar().showMessage(
-            f"A new {category} profile: every figure in it is the template's placeholder until you type your "
-            "aircraft's flight-manual figures (the Problems box lists them).", 12000)
+            f"A new {category} profile: type your aircraft's flight-manual figures over its placeholders.", 12000)
 
     def _set_document(self, doc) -> None:
         from kneeboard.app.editor import ProfileEditor
