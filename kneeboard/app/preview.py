@@ -9,46 +9,36 @@ is dropped too. Results reach the GUI thread through a relay owned by the applic
 widget, so a result arriving after the widget is gone finds a living receiver that discards it.
 """
 
-import logging
-import weakref
-from collections.abc import Callable
-from dataclasses import dataclass
 from time import perf_counter
 
-import shiboken6
 from PySide6.QtCore import (
     QBuffer,
     QByteArray,
-    QCoreApplication,
     QEventLoop,
     QIODevice,
     QObject,
     QPointF,
-    QRunnable,
     QSize,
     QSizeF,
     Qt,
     QThreadPool,
     QTimer,
     Signal,
-    Slot,
 )
 from PySide6.QtGui import QAction, QActionGroup, QColor, QImage, QKeySequence, QPainter
 from PySide6.QtPdf import QPdfDocument
 from PySide6.QtPdfWidgets import QPdfView
 from PySide6.QtWidgets import QComboBox, QGridLayout, QLabel, QSizePolicy, QToolBar, QVBoxLayout, QWidget
 
-__all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
+from kneeboard.app.preview_jobs import Job, Relay, Request, Runner
 
-log = logging.getLogger(__name__)
+__all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
 
 #: Custom zoom factors the zoom buttons step through (1.0 = the page at its true size on screen).
 ZOOM_STEPS = (0.25, 0.33, 0.5, 0.67, 0.75, 0.9, 1.0, 1.1, 1.25, 1.5, 1.75, 2.0, 2.5, 3.0, 4.0)
 #: What the preview can show: (mode, label). The window decides which job each mode sends.
 MODES = (("card", "Card"), ("letter", "Sheet (Letter)"), ("a4", "Sheet (A4)"))
 BUSY_DELAY_MS = 300  #: renders quicker than this never flash the "Updating" note
-
-Job = Callable[[], bytes]
 
 
 def open_pdf(pdf: bytes, parent: QObject | None = None) -> QPdfDocument:
@@ -79,71 +69,6 @@ def page_labels(count: int) -> list[str]:
     return [f"Page {i + 1} of {count}" for i in range(count)]
 
 
-def _failure_text(exc: Exception) -> str:
-    # a LayoutError's text is already a sentence for the pilot; anything else at least names itself
-    return str(exc) or f"The card could not be drawn ({type(exc).__name__})."
-
-
-@dataclass
-class _Request:
-    generation: int
-    job: Job
-    started: float  #: perf_counter() when request() was called [s]
-
-
-class _Relay(QObject):
-    """Carries finished jobs from pool threads to the GUI thread, and outlives its widget.
-
-    It is a child of the application, so a worker never emits on a deleted object; once its
-    widget is gone it discards what still arrives and deletes itself after the last result.
-    """
-
-    done = Signal(int, object, str)  #: generation, PDF bytes or None, failure text ("" on success)
-
-    def __init__(self, widget: "CardPreview"):
-        super().__init__(QCoreApplication.instance())
-        self.outstanding = 0  #: jobs started whose result has not come back yet
-        self._target = weakref.WeakMethod(widget._finished)
-        # emitted from a pool thread, received here in the GUI thread: a queued connection
-        self.done.connect(self._deliver)
-
-    def detach(self) -> None:
-        self._target = None
-        if self.outstanding == 0:
-            self.deleteLater()
-
-    @Slot(int, object, str)
-    def _deliver(self, generation: int, data: bytes | None, error: str) -> None:
-        self.outstanding -= 1
-        method = self._target() if self._target is not None else None
-        if method is not None and shiboken6.isValid(method.__self__):
-            method(generation, data, error)
-        elif self.outstanding == 0:
-            self._target = None
-            self.deleteLater()
-
-
-class _Runner(QRunnable):
-    """Runs one job on a pool thread and always reports back, whatever the job does."""
-
-    def __init__(self, request: _Request, relay: _Relay):
-        super().__init__()
-        self._request = request
-        self._relay = relay
-
-    def run(self) -> None:
-        data, error = None, ""
-        try:
-            data = self._request.job()
-            if not isinstance(data, bytes | bytearray):
-                raise TypeError(f"a preview job must return PDF bytes, not {type(data).__name__}")
-            data = bytes(data)
-        except Exception as exc:  # every failure must reach the user; a lost one would hang the preview
-            log.debug("preview job %d failed", self._request.generation, exc_info=True)
-            data, error = None, _failure_text(exc)
-        self._relay.done.emit(self._request.generation, data, error)
-
-
 class CardPreview(QWidget):
     """The card as it will print, rendered from its PDF, with zoom, page and mode controls.
 
@@ -169,12 +94,12 @@ class CardPreview(QWidget):
         super().__init__(parent)
         self._generation = 0  #: the newest generation requested
         self.shown_generation = 0  #: the generation of the PDF shown now (0: none)
-        self._running: _Request | None = None
-        self._pending: _Request | None = None
+        self._running: Request | None = None
+        self._pending: Request | None = None
         self._doc: QPdfDocument | None = None
         self._pdf: bytes | None = None
         self._idle_waiters: list[QEventLoop] = []  #: wait_idle() loops to end when the work is done
-        self._relay = _Relay(self)
+        self._relay = Relay(self)
         self.destroyed.connect(self._relay.detach)
         self._busy_timer = QTimer(self, singleShot=True, interval=BUSY_DELAY_MS)
         self._busy_timer.timeout.connect(lambda: self._busy_action.setVisible(True))
@@ -350,19 +275,19 @@ class CardPreview(QWidget):
         dropped without running, since its result would be stale before it was shown.
         """
         self._generation += 1
-        request = _Request(self._generation, job, perf_counter())
+        request = Request(self._generation, job, perf_counter())
         if self._running is None:
             self._start(request)
         else:
             self._pending = request
         return request.generation
 
-    def _start(self, request: _Request) -> None:
+    def _start(self, request: Request) -> None:
         self._running = request
         self._relay.outstanding += 1
         if not self._busy_timer.isActive() and not self._busy_action.isVisible():
             self._busy_timer.start()
-        QThreadPool.globalInstance().start(_Runner(request, self._relay))
+        QThreadPool.globalInstance().start(Runner(request, self._relay))
 
     def _finished(self, generation: int, data: bytes | None, error: str) -> None:
         """A job came back (GUI thread): show it unless a newer one was asked for since."""
@@ -381,7 +306,7 @@ class CardPreview(QWidget):
             for loop in self._idle_waiters:
                 loop.quit()
 
-    def _show(self, data: bytes, request: _Request) -> None:
+    def _show(self, data: bytes, request: Request) -> None:
         try:
             doc = open_pdf(data, self)
         except ValueError as exc:
