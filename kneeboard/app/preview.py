@@ -104,14 +104,7 @@ class CardPreview(QWidget):
         self._busy_timer = QTimer(self, singleShot=True, interval=BUSY_DELAY_MS)
         self._busy_timer.timeout.connect(lambda: self._busy_action.setVisible(True))
 
-        self._view = QPdfView(self)
-        self._view.setObjectName("previewView")
-        self._view.setPageMode(QPdfView.PageMode.SinglePage)
-        self._view.setZoomMode(QPdfView.ZoomMode.FitInView)
-        self._view.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
-        self._view.pageNavigator().currentPageChanged.connect(self._sync_page_selector)
-        self._view.zoomModeChanged.connect(self._sync_zoom_controls)
-        self._view.zoomFactorChanged.connect(self._sync_zoom_controls)
+        self._view = self._new_view(QPdfView.ZoomMode.FitInView, 1.0)
 
         # the message lies over the last good page: a translucent veil greys it without hiding it
         self._error = QWidget(self)
@@ -130,7 +123,7 @@ class CardPreview(QWidget):
         self._error.hide()
 
         self._toolbar = self._build_toolbar()
-        stack = QGridLayout()
+        self._stack = stack = QGridLayout()
         stack.setContentsMargins(0, 0, 0, 0)
         stack.addWidget(self._view, 0, 0)
         stack.addWidget(self._error, 0, 0)
@@ -140,6 +133,25 @@ class CardPreview(QWidget):
         layout.addWidget(self._toolbar)
         layout.addLayout(stack, 1)
         self._sync_zoom_controls()
+
+    def _new_view(self, zoom_mode: QPdfView.ZoomMode, zoom: float) -> QPdfView:
+        """A page view for one document: every PDF shown gets a view of its own.
+
+        QPdfView renders pages on a worker thread and caches each image under the page's number alone. A render of
+        the previous document that finishes after setDocument() lands in that cache as the new document's page and
+        stays there for good: the header named the new card while the page showed the old one. A fresh view has
+        no render in flight, and the old view takes its late renders with it.
+        """
+        view = QPdfView(self)
+        view.setObjectName("previewView")
+        view.setPageMode(QPdfView.PageMode.SinglePage)
+        view.setZoomMode(zoom_mode)
+        view.setZoomFactor(zoom)
+        view.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
+        view.pageNavigator().currentPageChanged.connect(self._sync_page_selector)
+        view.zoomModeChanged.connect(self._sync_zoom_controls)
+        view.zoomFactorChanged.connect(self._sync_zoom_controls)
+        return view
 
     # ------------------------------------------------------------------ controls
 
@@ -314,17 +326,25 @@ class CardPreview(QWidget):
             return
         # a new render of the same card must not move the reader: keep page, zoom and scroll
         page = max(0, self.current_page())
-        scroll = (self._view.horizontalScrollBar().value(), self._view.verticalScrollBar().value())
+        old_view = self._view
+        scroll = (old_view.horizontalScrollBar().value(), old_view.verticalScrollBar().value())
         old, self._doc, self._pdf = self._doc, doc, data
         self.shown_generation = request.generation
-        self._view.setDocument(doc)
+        self._view = view = self._new_view(old_view.zoomMode(), old_view.zoomFactor())
+        self._stack.replaceWidget(old_view, view)
+        view.setGeometry(old_view.geometry())  # the page is laid out for the view's size before it is shown
+        view.setDocument(doc)
         page = min(page, doc.pageCount() - 1)
-        if self._view.pageNavigator().currentPage() != page:
-            self._view.pageNavigator().jump(page, QPointF(), 0)
-        self._view.horizontalScrollBar().setValue(scroll[0])
-        self._view.verticalScrollBar().setValue(scroll[1])
+        if view.pageNavigator().currentPage() != page:
+            view.pageNavigator().jump(page, QPointF(), 0)
+        view.horizontalScrollBar().setValue(scroll[0])
+        view.verticalScrollBar().setValue(scroll[1])
+        view.setVisible(old_view.isVisible())
+        self._error.raise_()
+        old_view.hide()
+        old_view.deleteLater()  # its renderer stops before the document it may still be reading goes
         if old is not None:
-            old.deleteLater()  # after the view has let go of it
+            old.deleteLater()
         self._fill_page_selector(doc.pageCount(), page)
         self._error.hide()
         self._sync_zoom_controls()
@@ -335,6 +355,16 @@ class CardPreview(QWidget):
         self._error.show()
         self._error.raise_()
         self.failed.emit(message)
+
+    def mark_stale(self, message: str) -> None:
+        """The page shown is no longer the card as it prints: grey it under `message`, and drop every render still
+        running or waiting, since each is of data older than what made the card stale. The next request() that
+        finishes shows its card as current again."""
+        self._generation += 1
+        self._pending = None
+        self._error_text.setText(message)
+        self._error.show()
+        self._error.raise_()
 
     def clear(self) -> None:
         """Show nothing; results of jobs still running are dropped, a waiting job never runs."""

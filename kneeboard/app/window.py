@@ -298,6 +298,11 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             n = len(prepared.errors)
             self.preview_note.setText(f"The card is not updated: the profile has {n} error(s) (see Problems).")
             self.preview_note.show()
+            # the card on show was made before the error: greyed and named as not current, never left as if it were
+            before = ("This is the card as it was before them; it is neither exported nor printed."
+                      if self.preview.page_count() else "No card until they are fixed.")
+            self.preview.mark_stale(f"NOT CURRENT: the profile has {n} error(s) (see Problems). {before}")
+            self._requested = None
             self.readout.show_nothing("Fix the problems marked in the editor to see the figures.")
             return
         self.preview_note.hide()
