@@ -166,3 +166,23 @@ def test_a_weight_override_is_checked_like_the_files_own(capsys, fleet, weight):
     # these once made cards the reader would refuse, or ended in exit 70 for the whole fleet
     code, _, err = run(capsys, "card", fleet, "-o", fleet.parent / "w.pdf", "--weight", weight)
     assert code == 2 and "--weight" in err and "internal error" not in err
+
+
+@pytest.mark.parametrize("lines", ["front = []\n", "front = []\nback = []\n"])
+def test_a_style_that_shows_no_block_is_refused_naming_the_key(capsys, tmp_path, lines):
+    style = tmp_path / "empty.style.toml"
+    style.write_text(lines)
+    out = tmp_path / "card.pdf"
+    code, _out, err = run(capsys, "card", "--style", style, "-o", out, SAMPLES / "demo_trainer.toml")
+    assert code == 2 and "front" in err and "no block" in err
+    assert not out.exists()
+
+
+def test_a_style_whose_blocks_do_not_apply_to_the_aircraft_is_refused(capsys, tmp_path):
+    # circling is a glider's block: an aeroplane's card of it alone would print nothing but its caution
+    style = tmp_path / "glider_only.style.toml"
+    style.write_text('front = ["circling"]\n')
+    out = tmp_path / "card.pdf"
+    code, _out, err = run(capsys, "card", "--style", style, "-o", out, SAMPLES / "demo_trainer.toml")
+    assert code == 2 and "no block" in err and "circling" in err
+    assert not out.exists()

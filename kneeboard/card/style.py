@@ -131,6 +131,10 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     back = _blocks(data, "back", (), bad) or ()
     for name in set(front or ()) & set(back):
         bad("back", f"{name!r} is listed on both the front and the back", "each block once", name)
+    if front is not None and not front and not back:
+        # the card would print its caution and footer alone: no registration heading, no figure
+        bad("front", "shows no block: the card would print no figure", "at least one block, e.g. \"header\", "
+            "\"margin_table\"", data.get("front"))
     logo, logo_bytes = _logo(data.get("logo"), folder, bad)
     banks = data.get("bank_angles")
     if banks is not None and not (
