@@ -5,13 +5,14 @@ import argparse
 import contextlib
 import difflib
 import errno
+import io
 import os
 import sys
 import textwrap
 from pathlib import Path
 
 from kneeboard import __version__
-from kneeboard.fileio import FileProblem, terminate_cleanly
+from kneeboard.fileio import DEVICE_FAILURES, FileProblem, terminate_cleanly
 from kneeboard.problems import Problem, printable
 from kneeboard.texts import CAUTION
 
@@ -192,7 +193,7 @@ def cmd_card(args) -> int:
     except FileProblem as exc:
         print(f"kneeboard card: {printable(exc)}", file=sys.stderr)
         print(CAUTION)
-        return EXIT_PROBLEMS
+        return EXIT_OUTPUT if exc.device_failed else EXIT_PROBLEMS  # a full disk is no bad input
     _print_problems(made.warnings, sys.stderr)
     for failure in made.failures:
         for line in failure.lines:
@@ -292,6 +293,7 @@ HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare":
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
     terminate_cleanly()
+    _guard_streams()
     if not argv or (argv[0] not in COMMANDS and not argv[0].startswith("-")):
         return _open_app(argv[0] if argv else None)
     parser = _parser()
@@ -310,7 +312,7 @@ def main(argv: list[str] | None = None) -> int:
     except BrokenPipeError:
         return _closed_pipe()
     except OSError as exc:
-        if exc.errno in (errno.ENOSPC, errno.EIO, errno.EDQUOT, errno.EROFS):  # stdout on a full or failed device
+        if exc.errno in DEVICE_FAILURES or exc.errno == errno.EBADF:  # stdout on a full, failed or closed device
             _quiet_stdout()
             print(f"kneeboard: the output could not be written ({exc.strerror or exc})", file=sys.stderr)
             return EXIT_OUTPUT
@@ -344,6 +346,47 @@ def _internal_error(exc: Exception) -> int:
     print(printable(f"kneeboard: internal error, please report it: {type(exc).__name__}: {exc} "
                     "(set KNEEBOARD_DEBUG=1 for details)"), file=sys.stderr)
     return EXIT_BUG
+
+
+class _ClosedStream(io.TextIOBase):
+    """Stands for a standard stream that was closed before kneeboard started (`kneeboard check X >&-`).
+
+    Python then has no sys.stdout at all; a write here fails as a write to a closed descriptor does, and is
+    answered as every failed output is (exit 74, one line), never with a traceback.
+    """
+
+    def writable(self) -> bool:
+        return True
+
+    def write(self, text: str) -> int:
+        raise OSError(errno.EBADF, "the standard output is closed")
+
+
+def _guard_streams() -> None:
+    """Standard streams that cannot fail in a way nobody answers.
+
+    A closed descriptor 0, 1 or 2 gets /dev/null, so no file kneeboard opens takes its number (a card's bytes must
+    never land where messages go); a closed stdout is a _ClosedStream, a closed stderr drops its messages (the
+    exit code still tells). A stream whose encoding cannot take every character (cp1252 behind a redirect on a
+    Windows console) writes a replacement for the ones it cannot, instead of failing on a Czech registration.
+    """
+    for fd, mode in ((0, os.O_RDONLY), (1, os.O_WRONLY), (2, os.O_WRONLY)):
+        try:
+            os.fstat(fd)
+        except OSError:
+            with contextlib.suppress(OSError):
+                spare = os.open(os.devnull, mode)
+                if spare != fd:
+                    os.dup2(spare, fd)
+                    os.close(spare)
+    if sys.stdout is None:
+        sys.stdout = _ClosedStream()
+    if sys.stderr is None:
+        sys.stderr = io.StringIO()
+    for stream in (sys.stdout, sys.stderr):
+        if isinstance(stream, io.TextIOWrapper) and stream.errors == "strict":
+            with contextlib.suppress(ValueError, OSError):  # a stream that cannot be reconfigured is left as it is
+                stream.reconfigure(errors="replace")
 
 
 def _quiet_stdout() -> None:

@@ -21,8 +21,24 @@ def terminate_cleanly() -> None:
         signal.signal(signal.SIGTERM, stop)
 
 
+#: errors of the device an output goes to, not of the output chosen: a full disk, a quota, a failing medium
+DEVICE_FAILURES = frozenset({errno.ENOSPC, errno.EDQUOT, errno.EIO, errno.EROFS})
+
+
 class FileProblem(Exception):
-    """A file that cannot be read or written; the message names the file and the reason."""
+    """A file that cannot be read or written; the message names the file and the reason.
+
+    `errno` is the system's error number when one caused it (None otherwise); `device_failed` says the output's
+    device failed (the command line's exit 74) rather than the file being unusable (exit 2).
+    """
+
+    def __init__(self, message: str = "", errno: int | None = None):
+        super().__init__(message)
+        self.errno = errno
+
+    @property
+    def device_failed(self) -> bool:
+        return self.errno in DEVICE_FAILURES
 
 
 def read_text(path: Path, limit: int = MAX_FILE_BYTES) -> str:
@@ -235,7 +251,7 @@ def write_atomic(path: Path, data) -> None:
         fd, tmp = tempfile.mkstemp(prefix=_temp_prefix(target, os.getpid()), suffix=TEMP_SUFFIX,
                                    dir=target.parent or ".")
     except OSError as exc:
-        raise FileProblem(f"{path}: cannot write in {target.parent} ({exc.strerror or exc})") from None
+        raise FileProblem(f"{path}: cannot write in {target.parent} ({exc.strerror or exc})", exc.errno) from None
     try:
         with os.fdopen(fd, "wb") as f:
             if callable(data):
@@ -251,7 +267,7 @@ def write_atomic(path: Path, data) -> None:
         with contextlib.suppress(OSError):
             os.unlink(tmp)
         if isinstance(exc, OSError):
-            raise FileProblem(f"{path}: cannot be written ({exc.strerror or exc})") from None
+            raise FileProblem(f"{path}: cannot be written ({exc.strerror or exc})", exc.errno) from None
         raise
 
 
