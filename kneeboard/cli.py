@@ -230,26 +230,36 @@ def _safely(prepare, path, styles):
 
 def cmd_compare(args) -> int:
     """A printed card against its profile: every printed figure that reads differently, old and new."""
-    from kneeboard.card.data import figures_of, read_card_data
+    from kneeboard.card.data import CardDataProblem, figures_of, read_card_data
     from kneeboard.compare import compare_figures
     from kneeboard.fileio import read_bytes
     from kneeboard.pipeline import make_card, prepare_file
     from kneeboard.profile_io import expand_paths
 
     card_path, profile_path = Path(args.card), Path(args.profile)
-    pdfs = sorted(card_path.glob("*.pdf")) if card_path.is_dir() else [card_path]
-    cards = []
+    folder = card_path.is_dir()
+    pdfs = sorted(card_path.glob("*.pdf")) if folder else [card_path]
+    cards, unread = [], 0
     for pdf in pdfs:
+        # each file its own verdict: one that cannot be read (a FIFO, a hostile PDF) is named and skipped, and the
+        # genuine cards of the folder are still compared
         try:
             found = read_card_data(read_bytes(pdf, 200 * 1024 * 1024))
         except FileProblem as exc:
-            print(f"kneeboard compare: {printable(exc)}", file=sys.stderr)
-            return EXIT_PROBLEMS
-        if not found and not card_path.is_dir():
+            print(f"kneeboard compare: {printable(exc)}" + ("; skipped" if folder else ""), file=sys.stderr)
+            unread += 1
+            continue
+        except CardDataProblem as exc:
+            print(printable(f"kneeboard compare: {pdf}: {exc}") + ("; skipped" if folder else ""), file=sys.stderr)
+            unread += 1
+            continue
+        if not found and not folder:
             print(printable(f"kneeboard compare: {pdf}: not a kneeboard card (it carries no printed figures)"),
                   file=sys.stderr)
             return EXIT_PROBLEMS
         cards += [(pdf, data) for data in found]
+    if not folder and unread:
+        return EXIT_PROBLEMS
     styles = _styles(args)
     profiles = {}
     for path in expand_paths([profile_path]):
@@ -260,7 +270,7 @@ def cmd_compare(args) -> int:
             _print_problems(list(prepared.errors), sys.stderr)
             print(f"{printable(path)}: {len(prepared.errors)} error(s); nothing to compare with", file=sys.stderr)
             return EXIT_PROBLEMS
-    changed = problems = 0
+    changed, problems = 0, unread
     for pdf, data in cards:
         registration = str(data.get("registration", ""))
         prepared = profiles.get(registration.casefold())

@@ -208,7 +208,7 @@ class CardActions:
         return dialog
 
     def _pick_printed(self, registration: str):
-        from kneeboard.card.data import read_card_data
+        from kneeboard.card.data import CardDataProblem, read_card_data
         from kneeboard.fileio import read_bytes
 
         path = self.ask_open_path(f"The printed card of {registration}", str(self._folder()), "Cards (*.pdf)")
@@ -218,6 +218,9 @@ class CardActions:
             found = read_card_data(read_bytes(Path(path), 200 * 1024 * 1024))
         except FileProblem as exc:
             self.show_problems("Cannot read the card", str(exc))
+            return None
+        except CardDataProblem as exc:
+            self.show_problems("Cannot read the card", printable(f"{path}: {exc}"))
             return None
         mine = [d for d in found if str(d.get("registration", "")).casefold() == registration.casefold()]
         if not mine:
