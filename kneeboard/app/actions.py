@@ -245,13 +245,15 @@ class CardActions:
         if style is None:
             style, _ = load_style(None)
         dialog = StyleDialog(style, self)
-        if not self.ask_style(dialog):
-            return None
-        try:
-            style, problems = dialog.save(target)
-        except FileProblem as exc:
-            self.show_problems("The style was not saved", str(exc))
-            return None
+        while True:  # a style file that cannot be read or written: said, and the dialog comes back with the entries
+            if not self.ask_style(dialog):
+                return None
+            try:
+                style, problems = dialog.save(target)
+                break
+            except FileProblem as exc:
+                self.show_problems("The style was not saved", f"{exc}\nNothing was written. Your entries are kept: "
+                                   "mend or move the file, then save again, or cancel.")
         if style is None:
             self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
         self.session.reload_styles()
