@@ -144,3 +144,44 @@ def test_a_recovery_folder_that_cannot_be_written_is_said_once(qtbot, fleet, set
     assert w.autosave() is not None and note.isHidden()
     w.ask_unsaved = lambda: "discard"
     w.close()
+
+
+# --- a profile past its limits -----------------------------------------------------------------------------------
+
+
+def huge(fleet, configurations=10_000, items=0):
+    text = (fleet / "demo_trainer.toml").read_text(encoding="utf-8").split("[[configuration]]")[0]
+    text = text.replace('total = "1560 lb"', 'empty = "1100 lb"') if items else text
+    text += "".join(f'[[weight.item]]\nname = "Bag {n}"\nmass = "1 lb"\n' for n in range(items))
+    text += "".join(f'[[configuration]]\nname = "C{n}"\nstall_speed = "50 kt"\n' for n in range(configurations))
+    return text
+
+
+@pytest.mark.parametrize("configurations, items, refused", [(10_000, 0, "configuration"),
+                                                            (2, 5_000, "weight.item")])
+def test_a_profile_past_its_limits_is_refused_before_widgets_are_built(qtbot, window, fleet, configurations, items,
+                                                                       refused):
+    # 10,000 configurations froze the app for more than 90 s and 2.5 GB: a tab for each was built before the limit
+    path = fleet / "huge.toml"
+    path.write_text(huge(fleet, configurations, items), encoding="utf-8")
+    assert window.open_profile(path)
+    editor = window.editor
+    assert editor.config_tabs.count() <= 12
+    assert editor.fields["weight.item"].input.rowCount() <= 40
+    said = [text for _title, text in window.problems_seen]
+    assert any(f"{refused}: must be" in text for text in said)  # the command line's own words
+    listed = [editor.problem_list.item(i).text() for i in range(editor.problem_list.count())]
+    assert any(f"{refused}: must be" in line for line in listed)
+    assert not editor.fields["aircraft.model"].isEnabled()  # nothing to edit into a partial view of the lists
+    qtbot.waitUntil(lambda: window.preview.error_text().startswith("NOT CURRENT"), timeout=10_000)  # no card
+
+
+def test_a_change_on_disk_past_the_limits_is_refused_and_undo_comes_back(qtbot, window, fleet):
+    path = fleet / "demo_trainer.toml"
+    before = path.read_text(encoding="utf-8")
+    path.write_text(huge(fleet), encoding="utf-8")  # another program writes it while the app has it open
+    qtbot.waitUntil(lambda: window.doc.text() != before, timeout=10_000)
+    assert window.editor.config_tabs.count() <= 12 and not window.editor.fields["aircraft.model"].isEnabled()
+    window.act_undo.trigger()
+    assert window.doc.text() == before and window.editor.fields["aircraft.model"].isEnabled()
+    assert window.editor.config_tabs.count() == 2
