@@ -135,4 +135,4 @@ def window(qtbot, fleet, settings, tmp_path):
     # no render or fleet check may still run while the window and its documents are taken down
     w.timer.stop()
     w.fleet.check_all()
-    w.preview.wait_idle(10_000)
+    assert w.preview.wait_idle(10_000), "a render still running 10 s after the test"

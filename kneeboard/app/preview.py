@@ -315,6 +315,16 @@ class CardPreview(QWidget):
         else:
             self._busy_timer.stop()
             self._busy_action.setVisible(False)
+        self._wake_waiters()
+
+    def _working(self) -> bool:
+        """Whether a render whose result is still wanted runs or waits. One cancelled by clear() or mark_stale()
+        is not: it ends on its own, and its result is dropped when it comes."""
+        running = self._running is not None and self._running.generation == self._generation
+        return running or self._pending is not None
+
+    def _wake_waiters(self) -> None:
+        if not self._working():
             for loop in self._idle_waiters:
                 loop.quit()
 
@@ -365,6 +375,7 @@ class CardPreview(QWidget):
         self._error_text.setText(message)
         self._error.show()
         self._error.raise_()
+        self._wake_waiters()
 
     def clear(self) -> None:
         """Show nothing; results of jobs still running are dropped, a waiting job never runs."""
@@ -377,10 +388,12 @@ class CardPreview(QWidget):
         self.shown_generation = 0
         self._error.hide()
         self._fill_page_selector(0, -1)
+        self._wake_waiters()
 
     def wait_idle(self, timeout_ms: int = 5000) -> bool:
-        """Process events until no job runs or waits (for tests); False if `timeout_ms` ran out first."""
-        if self._running is None and self._pending is None:
+        """Process events until no job whose result is wanted runs or waits (for tests); False if `timeout_ms`
+        ran out first. A render cancelled by clear() or mark_stale() is not waited for."""
+        if not self._working():
             return True
         loop = QEventLoop()
         timer = QTimer(singleShot=True, interval=timeout_ms)
@@ -390,7 +403,7 @@ class CardPreview(QWidget):
         loop.exec()
         timer.stop()
         self._idle_waiters.remove(loop)
-        return self._running is None and self._pending is None
+        return not self._working()
 
     # ------------------------------------------------------------------ what is shown
 

@@ -4,7 +4,10 @@ The pixels on screen are compared with a fresh preview of the exported bytes: a 
 of an earlier card, say) fails, whatever the widget believes it shows.
 """
 
+import threading
+
 import numpy as np
+import pytest
 from card_helpers import card_of
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QImage
@@ -138,3 +141,31 @@ def test_a_render_running_when_the_profile_breaks_does_not_clear_the_mark(qtbot,
     settle(qtbot, window)
     assert "NOT CURRENT" in window.preview.error_text()
     assert window.preview.findChild(QWidget, "previewError").isVisible()
+
+
+@pytest.mark.parametrize("cancel", ["clear", "mark_stale"])
+def test_waiting_for_renders_never_waits_for_one_that_was_cancelled(qtbot, cancel):
+    """A render cancelled while it runs (its card closed, or made stale by an input error) is dropped when it ends:
+    waiting for the preview's work must not wait for it (test teardowns waited 10 s for such renders)."""
+    preview = CardPreview()
+    qtbot.addWidget(preview)
+    preview.show()
+    released = threading.Event()
+    style, _ = load_style()
+    card = card_pdf(card_of("demo_tourer", style))
+    preview.request(lambda: released.wait(3 * WAIT_MS / 1000) and card)  # blocked until released
+    assert preview.wait_idle(timeout_ms=20) is False  # wanted, and still running
+    if cancel == "clear":
+        preview.clear()
+    else:
+        preview.mark_stale("NOT CURRENT: test")
+    try:
+        assert preview.wait_idle(timeout_ms=2000) is True  # the cancelled render is blocked for 30 s yet
+    finally:
+        released.set()
+    qtbot.wait(50)
+    assert preview.pdf_bytes() is None  # its result was dropped, never shown
+    # a new request after it is waited for, and shown
+    with qtbot.waitSignal(preview.rendered, timeout=WAIT_MS):
+        preview.request(lambda: card)
+    assert preview.pdf_bytes() == card and preview.error_text() == ""
