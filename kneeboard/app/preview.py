@@ -11,6 +11,7 @@ widget, so a result arriving after the widget is gone finds a living receiver th
 
 from time import perf_counter
 
+import shiboken6
 from PySide6.QtCore import (
     QBuffer,
     QByteArray,
@@ -318,8 +319,10 @@ class CardPreview(QWidget):
         self._wake_waiters()
 
     def _working(self) -> bool:
-        """Whether a render whose result is still wanted runs or waits. One cancelled by clear() or mark_stale()
-        is not: it ends on its own, and its result is dropped when it comes."""
+        """Whether a render whose result is still wanted runs or waits. One cancelled by clear() or mark_stale(),
+        or one whose widget was deleted, is not: it ends on its own, and its result is dropped when it comes."""
+        if not shiboken6.isValid(self):
+            return False  # the widget is gone: its relay drops whatever still comes back
         running = self._running is not None and self._running.generation == self._generation
         return running or self._pending is not None
 

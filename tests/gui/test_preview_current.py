@@ -169,3 +169,23 @@ def test_waiting_for_renders_never_waits_for_one_that_was_cancelled(qtbot, cance
     with qtbot.waitSignal(preview.rendered, timeout=WAIT_MS):
         preview.request(lambda: card)
     assert preview.pdf_bytes() == card and preview.error_text() == ""
+
+
+def test_waiting_for_renders_of_a_deleted_preview_returns_at_once(qtbot):
+    """pytest-qt deletes a test's window before the fixture's teardown runs: a render running then is dropped with
+    its widget, and the teardown waited 10 s for it (about half the runs of one test)."""
+    import shiboken6
+
+    preview = CardPreview()
+    preview.show()
+    released = threading.Event()
+    style, _ = load_style()
+    card = card_pdf(card_of("demo_tourer", style))
+    preview.request(lambda: released.wait(3 * WAIT_MS / 1000) and card)
+    assert preview.wait_idle(timeout_ms=20) is False
+    shiboken6.delete(preview)
+    try:
+        assert preview.wait_idle(timeout_ms=2000) is True
+    finally:
+        released.set()
+    qtbot.wait(100)  # the dropped result reaches the relay, which discards it
