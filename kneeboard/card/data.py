@@ -47,7 +47,7 @@ class CardDataProblem(ValueError):
     """A PDF whose card data cannot be read within the reader's bounds; the message says why (not which file)."""
 
 
-MAX_TOTAL = 64 * 1024 * 1024  #: [bytes] all card data of one PDF, decompressed (a fleet of 500 cards: about 4 MiB)
+MAX_TOTAL = 32 * 1024 * 1024  #: [bytes] all card data of one PDF, inflated (largest sample card 22 KB: 1,500 cards)
 MAX_CANDIDATES = 5000  #: streams tried in one PDF: a card's one, a fleet's one per card
 MAX_NESTING = 32  #: JSON levels in one card's data (it has four)
 #: a stream's dictionary either carries our mark, or is an embedded file (a card re-saved by another program may
@@ -99,7 +99,7 @@ class _Budget:
 
 
 def _compressed(pdf: bytes, budget: _Budget) -> list[str]:
-    found, position = [], 0
+    found, position, view = [], 0, memoryview(pdf)
     while (mark := _CANDIDATE.search(pdf, position)) is not None:
         begin = pdf.find(b"stream", mark.end())
         if begin < 0:
@@ -110,12 +110,12 @@ def _compressed(pdf: bytes, budget: _Budget) -> list[str]:
         # byte is searched twice
         position = begin
         budget.take_candidate()
+        data = view[begin:begin + MAX_DATA]  # a view: thousands of candidates copy nothing
         try:
-            inflate = zlib.decompressobj()
-            head = inflate.decompress(pdf[begin:begin + MAX_DATA], len(MARKER) + 16)
+            head = zlib.decompressobj().decompress(data, len(MARKER) + 16)
             if not head.lstrip().startswith(MARKER):
                 continue  # another embedded file: not inflated further
-            text = head + inflate.decompress(inflate.unconsumed_tail, min(MAX_DATA, budget.left + 1))
+            text = zlib.decompressobj().decompress(data, min(MAX_DATA, budget.left + 1))
         except zlib.error:
             continue
         budget.take(len(text))
