@@ -339,29 +339,39 @@ class CardPreview(QWidget):
             return
         # a new render of the same card must not move the reader: keep page, zoom and scroll
         page = max(0, self.current_page())
-        old_view = self._view
-        scroll = (old_view.horizontalScrollBar().value(), old_view.verticalScrollBar().value())
-        old, self._doc, self._pdf = self._doc, doc, data
+        scroll = (self._view.horizontalScrollBar().value(), self._view.verticalScrollBar().value())
+        self._doc, self._pdf = doc, data
         self.shown_generation = request.generation
-        self._view = view = self._new_view(old_view.zoomMode(), old_view.zoomFactor())
-        self._stack.replaceWidget(old_view, view)
-        view.setGeometry(old_view.geometry())  # the page is laid out for the view's size before it is shown
-        view.setDocument(doc)
+        view = self._replace_view(doc)
         page = min(page, doc.pageCount() - 1)
         if view.pageNavigator().currentPage() != page:
             view.pageNavigator().jump(page, QPointF(), 0)
         view.horizontalScrollBar().setValue(scroll[0])
         view.verticalScrollBar().setValue(scroll[1])
-        view.setVisible(old_view.isVisible())
-        self._error.raise_()
-        old_view.hide()
-        old_view.deleteLater()  # its renderer stops before the document it may still be reading goes
-        if old is not None:
-            old.deleteLater()
         self._fill_page_selector(doc.pageCount(), page)
         self._error.hide()
         self._sync_zoom_controls()
         self.rendered.emit(request.generation, (perf_counter() - request.started) * 1000.0)
+
+    def _replace_view(self, doc: QPdfDocument | None) -> QPdfView:
+        """A new view in the old one's place, showing `doc`; the old view goes, then the document it showed.
+
+        The order matters: the old view's renderer waits for its worker thread, which may still be reading that
+        document, and the view listens to the document until it is gone. So the document is never the view's
+        child (a child dies before its parent's connections do) and is deleted after it."""
+        old, old_doc = self._view, self._view.document()
+        self._view = view = self._new_view(old.zoomMode(), old.zoomFactor())
+        self._stack.replaceWidget(old, view)
+        view.setGeometry(old.geometry())  # the page is laid out for the view's size before it is shown
+        if doc is not None:
+            view.setDocument(doc)
+        view.setVisible(old.isVisible())
+        self._error.raise_()
+        old.hide()
+        old.deleteLater()
+        if old_doc is not None:
+            old_doc.deleteLater()  # posted after the view: deleted after it
+        return view
 
     def _show_error(self, message: str) -> None:
         self._error_text.setText(message)
@@ -384,9 +394,7 @@ class CardPreview(QWidget):
         """Show nothing; results of jobs still running are dropped, a waiting job never runs."""
         self._generation += 1
         self._pending = None
-        self._view.setDocument(None)
-        if self._doc is not None:
-            self._doc.deleteLater()
+        self._replace_view(None)  # the shown document goes with its view
         self._doc = self._pdf = None
         self.shown_generation = 0
         self._error.hide()
