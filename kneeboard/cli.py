@@ -5,13 +5,14 @@ import argparse
 import contextlib
 import difflib
 import errno
+import io
 import os
 import sys
 import textwrap
 from pathlib import Path
 
 from kneeboard import __version__, starter
-from kneeboard.fileio import FileProblem, terminate_cleanly
+from kneeboard.fileio import DEVICE_FAILURES, FileProblem, terminate_cleanly
 from kneeboard.problems import Problem, printable
 from kneeboard.texts import CAUTION
 
@@ -202,7 +203,7 @@ def cmd_card(args) -> int:
     except FileProblem as exc:
         print(f"kneeboard card: {printable(exc)}", file=sys.stderr)
         print(CAUTION)
-        return EXIT_PROBLEMS
+        return EXIT_OUTPUT if exc.device_failed else EXIT_PROBLEMS  # a full disk is no bad input
     _print_problems(made.warnings, sys.stderr)
     _print_problems(made.clashes, sys.stderr)  # each file of a duplicate named, instead of a numbered file name
     for failure in made.failures:
@@ -252,26 +253,36 @@ def _safely(prepare, path, styles):
 def cmd_compare(args) -> int:
     """A printed card against its profile: every printed figure that reads differently, old and new."""
     from kneeboard import registrations
-    from kneeboard.card.data import figures_of, read_card_data
+    from kneeboard.card.data import CardDataProblem, figures_of, read_card_data
     from kneeboard.compare import compare_figures, summary
     from kneeboard.fileio import read_bytes
     from kneeboard.pipeline import make_card, prepare_file
     from kneeboard.profile_io import expand_paths
 
     card_path, profile_path = Path(args.card), Path(args.profile)
-    pdfs = sorted(card_path.glob("*.pdf")) if card_path.is_dir() else [card_path]
-    cards = []
+    folder = card_path.is_dir()
+    pdfs = sorted(card_path.glob("*.pdf")) if folder else [card_path]
+    cards, unread = [], 0
     for pdf in pdfs:
+        # each file its own verdict: one that cannot be read (a FIFO, a hostile PDF) is named and skipped, and the
+        # genuine cards of the folder are still compared
         try:
             found = read_card_data(read_bytes(pdf, 200 * 1024 * 1024))
         except FileProblem as exc:
-            print(f"kneeboard compare: {printable(exc)}", file=sys.stderr)
-            return EXIT_PROBLEMS
-        if not found and not card_path.is_dir():
+            print(f"kneeboard compare: {printable(exc)}" + ("; skipped" if folder else ""), file=sys.stderr)
+            unread += 1
+            continue
+        except CardDataProblem as exc:
+            print(printable(f"kneeboard compare: {pdf}: {exc}") + ("; skipped" if folder else ""), file=sys.stderr)
+            unread += 1
+            continue
+        if not found and not folder:
             print(printable(f"kneeboard compare: {pdf}: not a kneeboard card (it carries no printed figures)"),
                   file=sys.stderr)
             return EXIT_PROBLEMS
         cards += [(pdf, data) for data in found]
+    if not folder and unread:
+        return EXIT_PROBLEMS
     styles = _styles(args)
     profiles: dict[str, list] = {}
     for path in expand_paths([profile_path]):
@@ -282,7 +293,7 @@ def cmd_compare(args) -> int:
             _print_problems(list(prepared.errors), sys.stderr)
             print(f"{printable(path)}: {len(prepared.errors)} error(s); nothing to compare with", file=sys.stderr)
             return EXIT_PROBLEMS
-    changed = problems = 0
+    changed, problems = 0, unread
     for pdf, data in cards:
         registration = str(data.get("registration", ""))
         found = profiles.get(registrations.key(registration), [])
@@ -342,6 +353,7 @@ HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare":
 def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
     terminate_cleanly()
+    _guard_streams()
     if not argv or (argv[0] not in COMMANDS and not argv[0].startswith("-")):
         return _open_app(argv[0] if argv else None)
     parser = _parser()
@@ -360,7 +372,7 @@ def main(argv: list[str] | None = None) -> int:
     except BrokenPipeError:
         return _closed_pipe()
     except OSError as exc:
-        if exc.errno in (errno.ENOSPC, errno.EIO, errno.EDQUOT, errno.EROFS):  # stdout on a full or failed device
+        if exc.errno in DEVICE_FAILURES or exc.errno == errno.EBADF:  # stdout on a full, failed or closed device
             _quiet_stdout()
             print(f"kneeboard: the output could not be written ({exc.strerror or exc})", file=sys.stderr)
             return EXIT_OUTPUT
@@ -394,6 +406,47 @@ def _internal_error(exc: Exception) -> int:
     print(printable(f"kneeboard: internal error, please report it: {type(exc).__name__}: {exc} "
                     "(set KNEEBOARD_DEBUG=1 for details)"), file=sys.stderr)
     return EXIT_BUG
+
+
+class _ClosedStream(io.TextIOBase):
+    """Stands for a standard stream that was closed before kneeboard started (`kneeboard check X >&-`).
+
+    Python then has no sys.stdout at all; a write here fails as a write to a closed descriptor does, and is
+    answered as every failed output is (exit 74, one line), never with a traceback.
+    """
+
+    def writable(self) -> bool:
+        return True
+
+    def write(self, text: str) -> int:
+        raise OSError(errno.EBADF, "the standard output is closed")
+
+
+def _guard_streams() -> None:
+    """Standard streams that cannot fail in a way nobody answers.
+
+    A closed descriptor 0, 1 or 2 gets /dev/null, so no file kneeboard opens takes its number (a card's bytes must
+    never land where messages go); a closed stdout is a _ClosedStream, a closed stderr drops its messages (the
+    exit code still tells). A stream whose encoding cannot take every character (cp1252 behind a redirect on a
+    Windows console) writes a replacement for the ones it cannot, instead of failing on a Czech registration.
+    """
+    for fd, mode in ((0, os.O_RDONLY), (1, os.O_WRONLY), (2, os.O_WRONLY)):
+        try:
+            os.fstat(fd)
+        except OSError:
+            with contextlib.suppress(OSError):
+                spare = os.open(os.devnull, mode)
+                if spare != fd:
+                    os.dup2(spare, fd)
+                    os.close(spare)
+    if sys.stdout is None:
+        sys.stdout = _ClosedStream()
+    if sys.stderr is None:
+        sys.stderr = io.StringIO()
+    for stream in (sys.stdout, sys.stderr):
+        if isinstance(stream, io.TextIOWrapper) and stream.errors == "strict":
+            with contextlib.suppress(ValueError, OSError):  # a stream that cannot be reconfigured is left as it is
+                stream.reconfigure(errors="replace")
 
 
 def _quiet_stdout() -> None:

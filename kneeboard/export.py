@@ -161,7 +161,8 @@ def _make_folder(folder: Path) -> None:
         try:
             folder.mkdir(parents=True)
         except OSError as exc:
-            raise FileProblem(f"{printable(folder)}: cannot create the folder ({exc.strerror or exc})") from None
+            raise FileProblem(f"{printable(folder)}: cannot create the folder ({exc.strerror or exc})",
+                              exc.errno) from None
 
 
 # --- a fleet, one card at a time ------------------------------------------------------------------------------

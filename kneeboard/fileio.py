@@ -5,6 +5,7 @@ import errno
 import os
 import stat
 import tempfile
+import time
 from pathlib import Path
 
 MAX_FILE_BYTES = 1024 * 1024  #: profiles and styles larger than this are refused unread
@@ -21,8 +22,24 @@ def terminate_cleanly() -> None:
         signal.signal(signal.SIGTERM, stop)
 
 
+#: errors of the device an output goes to, not of the output chosen: a full disk, a quota, a failing medium
+DEVICE_FAILURES = frozenset({errno.ENOSPC, errno.EDQUOT, errno.EIO, errno.EROFS})
+
+
 class FileProblem(Exception):
-    """A file that cannot be read or written; the message names the file and the reason."""
+    """A file that cannot be read or written; the message names the file and the reason.
+
+    `errno` is the system's error number when one caused it (None otherwise); `device_failed` says the output's
+    device failed (the command line's exit 74) rather than the file being unusable (exit 2).
+    """
+
+    def __init__(self, message: str = "", errno: int | None = None):
+        super().__init__(message)
+        self.errno = errno
+
+    @property
+    def device_failed(self) -> bool:
+        return self.errno in DEVICE_FAILURES
 
 
 def read_text(path: Path, limit: int = MAX_FILE_BYTES) -> str:
@@ -235,7 +252,7 @@ def write_atomic(path: Path, data) -> None:
         fd, tmp = tempfile.mkstemp(prefix=_temp_prefix(target, os.getpid()), suffix=TEMP_SUFFIX,
                                    dir=target.parent or ".")
     except OSError as exc:
-        raise FileProblem(f"{path}: cannot write in {target.parent} ({exc.strerror or exc})") from None
+        raise FileProblem(f"{path}: cannot write in {target.parent} ({exc.strerror or exc})", exc.errno) from None
     try:
         with os.fdopen(fd, "wb") as f:
             if callable(data):
@@ -251,8 +268,60 @@ def write_atomic(path: Path, data) -> None:
         with contextlib.suppress(OSError):
             os.unlink(tmp)
         if isinstance(exc, OSError):
-            raise FileProblem(f"{path}: cannot be written ({exc.strerror or exc})") from None
+            raise FileProblem(f"{path}: cannot be written ({exc.strerror or exc})", exc.errno) from None
         raise
+
+
+LOCK_WAIT_S = 10.0  #: [s] how long a save waits for another one in the same folder before it says so
+
+
+@contextlib.contextmanager
+def folder_lock(path: Path, wait_s: float | None = None):
+    """Hold an advisory lock on the folder `path` is written in, across a check and the write that depends on it.
+
+    Two saves of one file a few milliseconds apart each checked the file unchanged, then each wrote it: the later
+    silently replaced the earlier. Under this lock the second save checks after the first has written, and sees
+    the change. The folder is locked (flock), not the file: an atomic write replaces the file's inode, and a new
+    file has none yet; no lock file is left in a fleet's folder. Where the system has no such locks (Windows, some
+    network file systems), saves go on unlocked, as before.
+
+    Raises
+    ------
+    FileProblem
+        When another save holds the folder for longer than `wait_s` (default LOCK_WAIT_S).
+    """
+    try:
+        import fcntl
+    except ImportError:  # no advisory locks here
+        yield
+        return
+    folder = Path(os.path.realpath(path)).parent
+    try:
+        fd = os.open(folder, os.O_RDONLY | getattr(os, "O_CLOEXEC", 0))
+    except (OSError, ValueError):  # the write itself will say what is wrong with the folder
+        yield
+        return
+    try:
+        deadline = time.monotonic() + (LOCK_WAIT_S if wait_s is None else wait_s)
+        while True:
+            try:
+                fcntl.flock(fd, fcntl.LOCK_EX | fcntl.LOCK_NB)
+                break
+            except BlockingIOError:
+                if time.monotonic() > deadline:
+                    raise FileProblem(f"{path}: another save in {folder} has not finished; nothing was written, "
+                                      "try again") from None
+                time.sleep(0.005)
+            except OSError:  # a file system without locks: unlocked, as before
+                break
+        yield
+    finally:
+        os.close(fd)  # releases the lock
+
+
+def same_file(a: Path, b: Path) -> bool:
+    """Whether two paths reach one file (device and inode), whatever links or spellings lead there."""
+    return _same_file(Path(a), Path(b))
 
 
 def refuse_overwrite_of_inputs(output: Path, inputs) -> None:

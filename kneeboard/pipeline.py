@@ -194,11 +194,25 @@ def make_card(prepared: Prepared, made_on: str | None = None):
 
     if prepared.table is None:
         raise ValueError("a profile with errors has no card")
+    _refuse_empty_card(prepared)
     # the logo was decoded and checked when the style was read: drawing never meets a broken one
     layout = layout_card(prepared.table, prepared.style, prepared.fingerprint, made_on or today(),
                          prepared.style.logo_png)
     return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint, made_on or today(),
                 prepared.weight_given)
+
+
+def _refuse_empty_card(prepared: Prepared) -> None:
+    """A style whose blocks none apply to this aircraft (a glider's circling alone, for an aeroplane) would print a
+    card of its caution and footer alone, and say nothing."""
+    from kneeboard.card import LayoutError, blocks
+    from kneeboard.card.layout import block_order
+
+    front, back = block_order(prepared.style)
+    if not any(blocks.get(name).applies(prepared.table) for name in front + back):
+        listed = ", ".join(front + back) or "none"
+        raise LayoutError("front", f"The card style's front and back show no block this aircraft's card can print "
+                                   f"(listed: {listed}); list at least one more, e.g. header, margin_table.")
 
 
 def today() -> str:

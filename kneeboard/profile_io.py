@@ -44,14 +44,22 @@ def parse_text(text: str) -> tuple[dict | None, list[Problem]]:
     return data, []
 
 
+# strings and comments, whose dots are no key's: skipped whole in one linear pass. Possessive loops and optional
+# closing quotes: an unterminated string ends where its body does, and no start is ever tried twice.
+_NOT_KEYS = re.compile(r'''"""(?:[^"\\]|\\.|"(?!""))*+(?:""")?|\'\'\'(?:[^']|'(?!''))*+(?:\'\'\')?'''
+                       r'''|"(?:[^"\\\n]|\\[^\n])*+"?|'[^'\n]*+'?|#[^\n]*+''', re.DOTALL)
+_DOTTED = re.compile(r"[A-Za-z0-9_-]+(?:[ \t]*\.[ \t]*[A-Za-z0-9_-]+)*")
+
+
 def _deepest_key(text: str) -> int:
-    """Most dotted parts in any key or table header of the text (a cheap scan, no parsing)."""
-    deepest = 0
-    for line in text.splitlines():
-        key = line.split("=", 1)[0]
-        if key.count(".") + 1 > deepest:
-            deepest = key.count(".") + 1
-    return deepest
+    """Most dotted parts in any key or table header of the text (a linear scan, no parsing).
+
+    Dots in comments ("# Vr ......... 55 kt") and strings are no key's and are not counted; a float's one dot may
+    count as two parts, far below the limit.
+    """
+    # a string becomes one bare part (it may be a quoted key: "a"."b" has two parts), a comment nothing
+    bare = _NOT_KEYS.sub(lambda m: " " if m.group().startswith("#") else "s", text)
+    return max((m.group().count(".") + 1 for m in _DOTTED.finditer(bare)), default=0)
 
 
 def _depth(data) -> int:

@@ -119,8 +119,16 @@ def settings(tmp_path):
 def window(qtbot, fleet, settings, tmp_path):
     from kneeboard.app.window import MainWindow
 
+    def settle_before_close(w):
+        # pytest-qt closes and deletes the window before this fixture's own teardown runs: a render still running
+        # then was dropped with its widget, and waiting for it afterwards waited 10 s for nothing. So the fleet's
+        # checks and the renders are waited for here, while the window lives, and the wait's result is checked.
+        w.timer.stop()
+        w.fleet.check_all()
+        assert w.preview.wait_idle(10_000), "a render still running 10 s after the test"
+
     w = MainWindow(settings, recovery_dir=tmp_path / "recovery")
-    qtbot.addWidget(w)
+    qtbot.addWidget(w, before_close_func=settle_before_close)
     w.problems_seen = []
     w.show_problems = lambda title, text: w.problems_seen.append((title, text))
     w.answers = []
@@ -133,8 +141,4 @@ def window(qtbot, fleet, settings, tmp_path):
     w.open_profile(fleet / "demo_trainer.toml")
     qtbot.wait(w.timer.interval() + 20)
     assert w.preview.wait_idle(10_000)
-    yield w
-    # no render or fleet check may still run while the window and its documents are taken down
-    w.timer.stop()
-    w.fleet.check_all()
-    w.preview.wait_idle(10_000)
+    return w

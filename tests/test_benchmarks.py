@@ -10,7 +10,8 @@ from pathlib import Path
 import pytest
 
 ROOT = Path(__file__).resolve().parent.parent
-FIGURES = {"start-up", "one card", "layout of one card", "preview", "fleet", "large fleet time", "large fleet peak memory"}
+FIGURES = {"start-up", "one card", "layout of one card", "preview", "fleet", "large fleet time",
+           "large fleet peak memory"}
 
 
 def finite_positive(value) -> bool:

@@ -109,7 +109,7 @@ def test_failed_export_keeps_the_old_file(capsys, tmp_path, monkeypatch):
 
     monkeypatch.setattr(os, "replace", boom)
     code, _, err = run(capsys, "card", SAMPLES / "demo_trainer.toml", "-o", out)
-    assert code == 2 and "Input/output error" in err
+    assert code == 74 and "Input/output error" in err  # the output device failed: 74, not bad input
     assert out.read_bytes() == b"old card"
     assert [p.name for p in tmp_path.iterdir()] == ["fleet.pdf"]
 

@@ -1,6 +1,8 @@
 """The command line under the cases that once broke it: outputs onto inputs, closed pipes, full devices, typos,
 no display, a fleet with one file the program mishandles. Each case names what it once did."""
 
+import errno
+import json
 import os
 import shutil
 import subprocess
@@ -209,3 +211,76 @@ def test_a_weight_override_is_checked_like_the_files_own(capsys, fleet, weight):
     # these once made cards the reader would refuse, or ended in exit 70 for the whole fleet
     code, _, err = run(capsys, "card", fleet, "-o", fleet.parent / "w.pdf", "--weight", weight)
     assert code == 2 and "--weight" in err and "internal error" not in err
+
+
+@pytest.mark.parametrize("lines", ["front = []\n", "front = []\nback = []\n"])
+def test_a_style_that_shows_no_block_is_refused_naming_the_key(capsys, tmp_path, lines):
+    style = tmp_path / "empty.style.toml"
+    style.write_text(lines)
+    out = tmp_path / "card.pdf"
+    code, _out, err = run(capsys, "card", "--style", style, "-o", out, SAMPLES / "demo_trainer.toml")
+    assert code == 2 and "front" in err and "no block" in err
+    assert not out.exists()
+
+
+def test_a_style_whose_blocks_do_not_apply_to_the_aircraft_is_refused(capsys, tmp_path):
+    # circling is a glider's block: an aeroplane's card of it alone would print nothing but its caution
+    style = tmp_path / "glider_only.style.toml"
+    style.write_text('front = ["circling"]\n')
+    out = tmp_path / "card.pdf"
+    code, _out, err = run(capsys, "card", "--style", style, "-o", out, SAMPLES / "demo_trainer.toml")
+    assert code == 2 and "no block" in err and "circling" in err
+    assert not out.exists()
+
+
+CZECH = MINIMAL.replace('"TEST-1"', '"OK-ŘÍZ"').replace("(invented)", "(invented) – Čáp")
+
+
+@pytest.mark.parametrize("command", ["check", "table", "card", "compare"])
+def test_a_closed_stdout_is_exit_74_in_one_line(tmp_path, command):
+    # `kneeboard card ... >&-` wrote the card, then ended in a traceback (exit 1)
+    profile = SAMPLES / "demo_trainer.toml"
+    card = tmp_path / "card.pdf"
+    if command == "compare":
+        assert main(["card", "-o", str(card), str(profile)]) == 0
+    args = {"check": [profile], "table": [profile], "card": ["-o", card, profile], "compare": [card, profile]}
+    proc = kneeboard(command, *args[command], preexec_fn=lambda: os.close(1))
+    assert proc.returncode == 74, proc.stderr
+    assert "Traceback" not in proc.stderr and "internal error" not in proc.stderr
+    assert proc.stderr.strip().splitlines()[-1] == "kneeboard: the output could not be written (the standard " \
+                                                    "output is closed)"
+    if command == "card":
+        assert card.read_bytes().startswith(b"%PDF")  # the card itself was written before the message failed
+
+
+@pytest.mark.parametrize("command", [["check"], ["table"], ["table", "--format", "csv"], ["table", "--format", "json"]])
+def test_a_legacy_output_encoding_gets_replacements_never_an_internal_error(tmp_path, command):
+    # cp1252, as a redirect on a Windows console gives: "Ř" has no place in it
+    profile = tmp_path / "okriz.toml"
+    profile.write_text(CZECH, encoding="utf-8")
+    base = {k: v for k, v in os.environ.items() if k not in ("DISPLAY", "WAYLAND_DISPLAY", "QT_QPA_PLATFORM")}
+    proc = subprocess.run([sys.executable, "-m", "kneeboard", *command, str(profile)], capture_output=True,
+                          timeout=120, env={**base, "PYTHONIOENCODING": "cp1252"}, cwd=ROOT)
+    err = proc.stderr.decode("cp1252")
+    assert proc.returncode == 0, err
+    assert "internal error" not in err and "Traceback" not in err
+    out = proc.stdout.decode("cp1252")
+    if "json" in command:  # the machine interface escapes every non-ASCII letter: the registration stays whole
+        assert json.loads(out)["registration"] == "OK-ŘÍZ"
+    else:
+        assert "OK-?ÍZ" in out  # the letter cp1252 lacks is replaced, the ones it has are kept
+
+
+@pytest.mark.parametrize("code", [errno.ENOSPC, errno.EIO])
+def test_a_failing_output_device_is_exit_74_with_the_old_file_intact(capsys, monkeypatch, tmp_path, code):
+    out = tmp_path / "card.pdf"
+    out.write_bytes(b"the card printed last week")
+
+    def fail(_fd):
+        raise OSError(code, os.strerror(code))
+
+    monkeypatch.setattr(os, "fsync", fail)  # where a full disk or a failing medium shows itself at the latest
+    status, _out, err = run(capsys, "card", "-o", out, SAMPLES / "demo_trainer.toml")
+    assert status == 74 and os.strerror(code) in err and str(out) in err
+    assert out.read_bytes() == b"the card printed last week"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["card.pdf"]  # no temporary left

@@ -2,13 +2,16 @@
 cannot draw is found and marked, the built fonts are cached safely, and file names keep every letter."""
 
 import io
+import os
 import re
+import stat
 import unicodedata
 
 import pypdfium2 as pdfium
 import pytest
 from card_helpers import card_from_text, default_style
 from fontTools.ttLib import TTFont as FontFile
+from hostile_checks import hang_guard
 from pypdf import PdfReader
 
 from kneeboard.card import card_pdf, fonts
@@ -302,3 +305,31 @@ def test_each_registration_gets_its_own_file_and_one_registration_in_two_forms_i
         with pytest.raises(FileProblem, match="OK-ŘÍZ.pdf"):
             write_each(pair, tmp_path / "twins")
     assert not (tmp_path / "twins").exists()
+
+
+@pytest.mark.parametrize("kind", ["fifo", "link to a fifo", "dangling link"])
+def test_a_special_file_in_the_cache_is_replaced_never_waited_on(cache_home, tmp_path, kind):
+    # a FIFO where a cached font belongs hung every card: the cache was read with a plain blocking read
+    path = fonts.cached_file(fonts.REGULAR)
+    path.parent.mkdir(parents=True)
+    if kind == "fifo":
+        os.mkfifo(path)
+    elif kind == "link to a fifo":
+        os.mkfifo(tmp_path / "elsewhere")
+        path.symlink_to(tmp_path / "elsewhere")
+    else:
+        path.symlink_to(tmp_path / "nothing here")
+    with hang_guard():
+        font, data = fonts._load(fonts.REGULAR)
+    assert font.face.charToGlyph[ord("Ř")] and data == fonts.font_bytes(fonts.REGULAR)
+    assert not path.is_symlink() and path.is_file() and path.read_bytes() == data  # rebuilt as a regular file
+    assert stat.S_ISFIFO(os.stat(tmp_path / "elsewhere").st_mode) if kind == "link to a fifo" else True
+
+
+def test_an_oversized_cache_file_is_not_read(cache_home):
+    path = fonts.cached_file(fonts.BOLD)
+    path.parent.mkdir(parents=True)
+    with open(path, "wb") as f:
+        f.truncate(fonts.CACHED_FONT_LIMIT + 1)  # sparse: no disk is filled
+    font, data = fonts._load(fonts.BOLD)
+    assert font.face.charToGlyph[ord("Ж")] and path.read_bytes() == data == fonts.font_bytes(fonts.BOLD)

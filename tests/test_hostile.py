@@ -312,3 +312,28 @@ def test_dotted_keys_too_deep_are_refused_before_parsing():
     # tomllib's time grows with the square of a dotted key's depth; 20,000 levels took 7 s
     loaded = checked(MINIMAL + ".".join(["a"] * 20_000) + " = 1\n")
     assert loaded.profile is None and "nested more than" in loaded.errors[0].message
+
+
+def test_dots_in_comments_and_strings_are_no_keys_nesting():
+    # dotted leaders in a comment, as a pilot lines up figures, and dots in a string value: a valid profile
+    text = MINIMAL.replace('max_weight = "750 kg"', 'max_weight = "750 kg"  # MTOW ' + "." * 40 + " 750 kg") + (
+        "# Vr ......... 55 kt\n# Vx .......................... 62 kt\n"
+        'notes = "' + "." * 200 + '"\n')
+    loaded = checked(text)
+    assert_loaded(loaded)
+    assert not [p for p in loaded.errors if "nested" in p.message], loaded.errors
+
+
+@pytest.mark.parametrize("key", ['"a"', "'a'", "a"])
+def test_dotted_keys_of_quoted_parts_too_deep_are_refused_before_parsing(key):
+    loaded = checked(MINIMAL + " . ".join([key] * 20_000) + " = 1\n")
+    assert loaded.profile is None and "nested more than" in loaded.errors[0].message
+
+
+@pytest.mark.parametrize("junk", ['"\\', '"\\\n', "'", '"""\\', '"""a"', '""', "'''a'"])
+def test_unterminated_strings_are_measured_in_one_pass(junk):
+    # a start that failed to find its closing quote was tried again at every later quote: hours for a megabyte
+    with hang_guard():
+        loaded = checked(junk * (600_000 // len(junk)))
+    assert_loaded(loaded)
+    assert loaded.profile is None

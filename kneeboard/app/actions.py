@@ -232,7 +232,7 @@ class CardActions:
         return dialog
 
     def _pick_printed(self, registration: str):
-        from kneeboard.card.data import read_card_data
+        from kneeboard.card.data import CardDataProblem, read_card_data
         from kneeboard.fileio import read_bytes
 
         path = self.ask_open_path(f"The printed card of {registration}", str(self._folder()), "Cards (*.pdf)")
@@ -242,6 +242,9 @@ class CardActions:
             found = read_card_data(read_bytes(Path(path), 200 * 1024 * 1024))
         except FileProblem as exc:
             self.show_problems("Cannot read the card", str(exc))
+            return None
+        except CardDataProblem as exc:
+            self.show_problems("Cannot read the card", printable(f"{path}: {exc}"))
             return None
         from kneeboard.registrations import key
 
@@ -268,13 +271,15 @@ class CardActions:
         if style is None:
             style, _ = load_style(None)
         dialog = StyleDialog(style, self, faces=self._faces_with(style, target.parent))
-        if not self.ask_style(dialog):
-            return None
-        try:
-            style, problems = dialog.save(target)
-        except FileProblem as exc:
-            self.show_problems("The style was not saved", str(exc))
-            return None
+        while True:  # a style file that cannot be read or written: said, and the dialog comes back with the entries
+            if not self.ask_style(dialog):
+                return None
+            try:
+                style, problems = dialog.save(target)
+                break
+            except FileProblem as exc:
+                self.show_problems("The style was not saved", f"{exc}\nNothing was written. Your entries are kept: "
+                                   "mend or move the file, then save again, or cancel.")
         if style is None:
             self.show_problems("The style has problems", "\n".join(str(p) for p in problems))
         self.session.reload_styles()

@@ -23,7 +23,15 @@ import tomlkit
 from PySide6.QtCore import QFileSystemWatcher, QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
-from kneeboard.fileio import MAX_FILE_BYTES, FileProblem, decode_text, read_bytes, write_atomic
+from kneeboard.fileio import (
+    MAX_FILE_BYTES,
+    FileProblem,
+    decode_text,
+    folder_lock,
+    read_bytes,
+    same_file,
+    write_atomic,
+)
 from kneeboard.pipeline import Prepared
 from kneeboard.profile_io import (
     backup_path,
@@ -283,20 +291,25 @@ class ProfileDocument(QObject):
         target = Path(path) if path is not None else self.path
         if target is None:
             raise FileProblem("the profile has no file yet; choose where to save it")
-        if not force and target == self.path and self.changed_on_disk():
-            raise SaveConflict(f"{target}: was changed on disk since it was opened; saving would overwrite "
-                               "that change")
-        if self.migrated_from is not None and target == self.path and target.is_file():
-            backup = backup_path(target, self.migrated_from)
-            if not backup.exists():  # the first save over an older file keeps that file
-                write_atomic(backup, read_bytes(target))
-        write_atomic(target, self._text)
-        written = self._text.encode("utf-8")
-        try:
-            info = os.stat(target)
-            self.disk = DiskState(hashlib.sha256(written).hexdigest(), info.st_mtime_ns, info.st_size)
-        except OSError:
-            self.disk = None
+        # its own file by identity (device and inode), not by the path's text: Save as through a linked folder
+        # onto the open file is a save over it, and checked as one
+        own = self.path is not None and (target == self.path or same_file(target, self.path))
+        # the check and the write under one lock: a save a few milliseconds later checks after this one has written
+        with folder_lock(target):
+            if not force and own and self.changed_on_disk():
+                raise SaveConflict(f"{target}: was changed on disk since it was opened; saving would overwrite "
+                                   "that change")
+            if self.migrated_from is not None and own and target.is_file():
+                backup = backup_path(target, self.migrated_from)
+                if not backup.exists():  # the first save over an older file keeps that file
+                    write_atomic(backup, read_bytes(target))
+            write_atomic(target, self._text)
+            written = self._text.encode("utf-8")
+            try:
+                info = os.stat(target)
+                self.disk = DiskState(hashlib.sha256(written).hexdigest(), info.st_mtime_ns, info.st_size)
+            except OSError:
+                self.disk = None
         self.migrated_from = None if file_format(self._text) != 0 else self.migrated_from
         self.path = target
         self._told = None

@@ -275,6 +275,14 @@ class ProfileEditor(QScrollArea):
                 unit("weight_unit", units.WEIGHT_UNITS, "kg"))
 
     def refresh(self):
+        over = self._over_limits()
+        for i in range(self.box.count()):  # a profile past its limits is shown refused, its sections not editable
+            section = self.box.itemAt(i).widget()
+            if section is not None and section is not self.problems_box:
+                section.setEnabled(not over)
+        if over:
+            self._show_problems(list(self.doc.loaded.problems))
+            return
         self._sync_config_tabs()
         for path, field in self.fields.items():
             key = self.keys.get(path)
@@ -283,6 +291,20 @@ class ProfileEditor(QScrollArea):
         self._sync_modes()
         self._show_conversions()
         self._show_problems(list(self.doc.loaded.problems))
+
+    def _over_limits(self) -> list[str]:
+        """The lists past the profile's limits, checked before any widget is built for them: the editor built a
+        tab for each of 10,000 configurations (minutes, gigabytes) where the command line refused the file at
+        once. The Problems list then shows the command line's own refusal; Undo goes back."""
+        from kneeboard.schema import MAX_BANKS, MAX_CONFIGURATIONS, MAX_ITEMS
+        from kneeboard.values import MAX_POLAR_POINTS
+
+        limits = [((CONFIG,), MAX_CONFIGURATIONS), (("weight", "item"), MAX_ITEMS),
+                  (("card", "bank_angles"), MAX_BANKS), (("glider", "polar"), MAX_POLAR_POINTS),
+                  (("aircraft", "calibration"), MAX_POLAR_POINTS)]
+        limits += [((CONFIG, i, "calibration"), MAX_POLAR_POINTS)
+                   for i in range(min(self.doc.count((CONFIG,)), MAX_CONFIGURATIONS))]
+        return [key_text(key) for key, most in limits if self.doc.count(key) > most]
 
     def _sync_config_tabs(self):
         n = self.doc.count((CONFIG,))

@@ -9,29 +9,22 @@ is dropped too. Results reach the GUI thread through a relay owned by the applic
 widget, so a result arriving after the widget is gone finds a living receiver that discards it.
 """
 
-import logging
-import weakref
-from collections.abc import Callable
-from dataclasses import dataclass
 from time import perf_counter
 
 import shiboken6
 from PySide6.QtCore import (
     QBuffer,
     QByteArray,
-    QCoreApplication,
     QEventLoop,
     QIODevice,
     QObject,
     QPointF,
-    QRunnable,
     QSize,
     QSizeF,
     Qt,
     QThreadPool,
     QTimer,
     Signal,
-    Slot,
 )
 from PySide6.QtGui import QAction, QActionGroup, QColor, QImage, QKeySequence, QPainter
 from PySide6.QtPdf import QPdfDocument
@@ -39,18 +32,15 @@ from PySide6.QtPdfWidgets import QPdfView
 from PySide6.QtWidgets import QComboBox, QGridLayout, QLabel, QSizePolicy, QToolBar, QVBoxLayout, QWidget
 
 from kneeboard.app.pages import page_labels
+from kneeboard.app.preview_jobs import Job, Relay, Request, Runner
 
 __all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
-
-log = logging.getLogger(__name__)
 
 #: Custom zoom factors the zoom buttons step through (1.0 = the page at its true size on screen).
 ZOOM_STEPS = (0.25, 0.33, 0.5, 0.67, 0.75, 0.9, 1.0, 1.1, 1.25, 1.5, 1.75, 2.0, 2.5, 3.0, 4.0)
 #: What the preview can show: (mode, label). The window decides which job each mode sends.
 MODES = (("card", "Card"), ("letter", "Sheet (Letter)"), ("a4", "Sheet (A4)"))
 BUSY_DELAY_MS = 300  #: renders quicker than this never flash the "Updating" note
-
-Job = Callable[[], bytes]
 
 
 def open_pdf(pdf: bytes, parent: QObject | None = None) -> QPdfDocument:
@@ -72,71 +62,6 @@ def open_pdf(pdf: bytes, parent: QObject | None = None) -> QPdfDocument:
         doc.deleteLater()
         raise ValueError(f"the PDF could not be read ({reason})")
     return doc
-
-
-def _failure_text(exc: Exception) -> str:
-    # a LayoutError's text is already a sentence for the pilot; anything else at least names itself
-    return str(exc) or f"The card could not be drawn ({type(exc).__name__})."
-
-
-@dataclass
-class _Request:
-    generation: int
-    job: Job
-    started: float  #: perf_counter() when request() was called [s]
-
-
-class _Relay(QObject):
-    """Carries finished jobs from pool threads to the GUI thread, and outlives its widget.
-
-    It is a child of the application, so a worker never emits on a deleted object; once its
-    widget is gone it discards what still arrives and deletes itself after the last result.
-    """
-
-    done = Signal(int, object, str)  #: generation, PDF bytes or None, failure text ("" on success)
-
-    def __init__(self, widget: "CardPreview"):
-        super().__init__(QCoreApplication.instance())
-        self.outstanding = 0  #: jobs started whose result has not come back yet
-        self._target = weakref.WeakMethod(widget._finished)
-        # emitted from a pool thread, received here in the GUI thread: a queued connection
-        self.done.connect(self._deliver)
-
-    def detach(self) -> None:
-        self._target = None
-        if self.outstanding == 0:
-            self.deleteLater()
-
-    @Slot(int, object, str)
-    def _deliver(self, generation: int, data: bytes | None, error: str) -> None:
-        self.outstanding -= 1
-        method = self._target() if self._target is not None else None
-        if method is not None and shiboken6.isValid(method.__self__):
-            method(generation, data, error)
-        elif self.outstanding == 0:
-            self._target = None
-            self.deleteLater()
-
-
-class _Runner(QRunnable):
-    """Runs one job on a pool thread and always reports back, whatever the job does."""
-
-    def __init__(self, request: _Request, relay: _Relay):
-        super().__init__()
-        self._request = request
-        self._relay = relay
-
-    def run(self) -> None:
-        data, error = None, ""
-        try:
-            data = self._request.job()
-            if not isinstance(data, bytes | bytearray):
-                raise TypeError(f"a preview job must return PDF bytes, not {type(data).__name__}")
-            data = bytes(data)
-        except Exception as exc:  # every failure must reach the user; a lost one would hang the preview
-            log.debug("preview job %d failed", self._request.generation, exc_info=True)
-            data, error = None, _failure_text(exc)
-        self._relay.done.emit(self._request.generation, data, error)
 
 
 class CardPreview(QWidget):
@@ -164,24 +89,17 @@ class CardPreview(QWidget):
         super().__init__(parent)
         self._generation = 0  #: the newest generation requested
         self.shown_generation = 0  #: the generation of the PDF shown now (0: none)
-        self._running: _Request | None = None
-        self._pending: _Request | None = None
+        self._running: Request | None = None
+        self._pending: Request | None = None
         self._doc: QPdfDocument | None = None
         self._pdf: bytes | None = None
         self._idle_waiters: list[QEventLoop] = []  #: wait_idle() loops to end when the work is done
-        self._relay = _Relay(self)
+        self._relay = Relay(self)
         self.destroyed.connect(self._relay.detach)
         self._busy_timer = QTimer(self, singleShot=True, interval=BUSY_DELAY_MS)
         self._busy_timer.timeout.connect(lambda: self._busy_action.setVisible(True))
 
-        self._view = QPdfView(self)
-        self._view.setObjectName("previewView")
-        self._view.setPageMode(QPdfView.PageMode.SinglePage)
-        self._view.setZoomMode(QPdfView.ZoomMode.FitInView)
-        self._view.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
-        self._view.pageNavigator().currentPageChanged.connect(self._sync_page_selector)
-        self._view.zoomModeChanged.connect(self._sync_zoom_controls)
-        self._view.zoomFactorChanged.connect(self._sync_zoom_controls)
+        self._view = self._new_view(QPdfView.ZoomMode.FitInView, 1.0)
 
         # the message lies over the last good page: a translucent veil greys it without hiding it
         self._error = QWidget(self)
@@ -200,7 +118,7 @@ class CardPreview(QWidget):
         self._error.hide()
 
         self._toolbar = self._build_toolbar()
-        stack = QGridLayout()
+        self._stack = stack = QGridLayout()
         stack.setContentsMargins(0, 0, 0, 0)
         stack.addWidget(self._view, 0, 0)
         stack.addWidget(self._error, 0, 0)
@@ -210,6 +128,25 @@ class CardPreview(QWidget):
         layout.addWidget(self._toolbar)
         layout.addLayout(stack, 1)
         self._sync_zoom_controls()
+
+    def _new_view(self, zoom_mode: QPdfView.ZoomMode, zoom: float) -> QPdfView:
+        """A page view for one document: every PDF shown gets a view of its own.
+
+        QPdfView renders pages on a worker thread and caches each image under the page's number alone. A render of
+        the previous document that finishes after setDocument() lands in that cache as the new document's page and
+        stays there for good: the header named the new card while the page showed the old one. A fresh view has
+        no render in flight, and the old view takes its late renders with it.
+        """
+        view = QPdfView(self)
+        view.setObjectName("previewView")
+        view.setPageMode(QPdfView.PageMode.SinglePage)
+        view.setZoomMode(zoom_mode)
+        view.setZoomFactor(zoom)
+        view.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Expanding)
+        view.pageNavigator().currentPageChanged.connect(self._sync_page_selector)
+        view.zoomModeChanged.connect(self._sync_zoom_controls)
+        view.zoomFactorChanged.connect(self._sync_zoom_controls)
+        return view
 
     # ------------------------------------------------------------------ controls
 
@@ -345,19 +282,19 @@ class CardPreview(QWidget):
         dropped without running, since its result would be stale before it was shown.
         """
         self._generation += 1
-        request = _Request(self._generation, job, perf_counter())
+        request = Request(self._generation, job, perf_counter())
         if self._running is None:
             self._start(request)
         else:
             self._pending = request
         return request.generation
 
-    def _start(self, request: _Request) -> None:
+    def _start(self, request: Request) -> None:
         self._running = request
         self._relay.outstanding += 1
         if not self._busy_timer.isActive() and not self._busy_action.isVisible():
             self._busy_timer.start()
-        QThreadPool.globalInstance().start(_Runner(request, self._relay))
+        QThreadPool.globalInstance().start(Runner(request, self._relay))
 
     def _finished(self, generation: int, data: bytes | None, error: str) -> None:
         """A job came back (GUI thread): show it unless a newer one was asked for since."""
@@ -373,10 +310,22 @@ class CardPreview(QWidget):
         else:
             self._busy_timer.stop()
             self._busy_action.setVisible(False)
+        self._wake_waiters()
+
+    def _working(self) -> bool:
+        """Whether a render whose result is still wanted runs or waits. One cancelled by clear() or mark_stale(),
+        or one whose widget was deleted, is not: it ends on its own, and its result is dropped when it comes."""
+        if not shiboken6.isValid(self):
+            return False  # the widget is gone: its relay drops whatever still comes back
+        running = self._running is not None and self._running.generation == self._generation
+        return running or self._pending is not None
+
+    def _wake_waiters(self) -> None:
+        if not self._working():
             for loop in self._idle_waiters:
                 loop.quit()
 
-    def _show(self, data: bytes, request: _Request) -> None:
+    def _show(self, data: bytes, request: Request) -> None:
         try:
             doc = open_pdf(data, self)
         except ValueError as exc:
@@ -385,20 +334,38 @@ class CardPreview(QWidget):
         # a new render of the same card must not move the reader: keep page, zoom and scroll
         page = max(0, self.current_page())
         scroll = (self._view.horizontalScrollBar().value(), self._view.verticalScrollBar().value())
-        old, self._doc, self._pdf = self._doc, doc, data
+        self._doc, self._pdf = doc, data
         self.shown_generation = request.generation
-        self._view.setDocument(doc)
+        view = self._replace_view(doc)
         page = min(page, doc.pageCount() - 1)
-        if self._view.pageNavigator().currentPage() != page:
-            self._view.pageNavigator().jump(page, QPointF(), 0)
-        self._view.horizontalScrollBar().setValue(scroll[0])
-        self._view.verticalScrollBar().setValue(scroll[1])
-        if old is not None:
-            old.deleteLater()  # after the view has let go of it
+        if view.pageNavigator().currentPage() != page:
+            view.pageNavigator().jump(page, QPointF(), 0)
+        view.horizontalScrollBar().setValue(scroll[0])
+        view.verticalScrollBar().setValue(scroll[1])
         self._fill_page_selector(doc.pageCount(), page)
         self._error.hide()
         self._sync_zoom_controls()
         self.rendered.emit(request.generation, (perf_counter() - request.started) * 1000.0)
+
+    def _replace_view(self, doc: QPdfDocument | None) -> QPdfView:
+        """A new view in the old one's place, showing `doc`; the old view goes, then the document it showed.
+
+        The order matters: the old view's renderer waits for its worker thread, which may still be reading that
+        document, and the view listens to the document until it is gone. So the document is never the view's
+        child (a child dies before its parent's connections do) and is deleted after it."""
+        old, old_doc = self._view, self._view.document()
+        self._view = view = self._new_view(old.zoomMode(), old.zoomFactor())
+        self._stack.replaceWidget(old, view)
+        view.setGeometry(old.geometry())  # the page is laid out for the view's size before it is shown
+        if doc is not None:
+            view.setDocument(doc)
+        view.setVisible(old.isVisible())
+        self._error.raise_()
+        old.hide()
+        old.deleteLater()
+        if old_doc is not None:
+            old_doc.deleteLater()  # posted after the view: deleted after it
+        return view
 
     def _show_error(self, message: str) -> None:
         self._error_text.setText(message)
@@ -406,21 +373,32 @@ class CardPreview(QWidget):
         self._error.raise_()
         self.failed.emit(message)
 
+    def mark_stale(self, message: str) -> None:
+        """The page shown is no longer the card as it prints: grey it under `message`, and drop every render still
+        running or waiting, since each is of data older than what made the card stale. The next request() that
+        finishes shows its card as current again."""
+        self._generation += 1
+        self._pending = None
+        self._error_text.setText(message)
+        self._error.show()
+        self._error.raise_()
+        self._wake_waiters()
+
     def clear(self) -> None:
         """Show nothing; results of jobs still running are dropped, a waiting job never runs."""
         self._generation += 1
         self._pending = None
-        self._view.setDocument(None)
-        if self._doc is not None:
-            self._doc.deleteLater()
+        self._replace_view(None)  # the shown document goes with its view
         self._doc = self._pdf = None
         self.shown_generation = 0
         self._error.hide()
         self._fill_page_selector(0, -1)
+        self._wake_waiters()
 
     def wait_idle(self, timeout_ms: int = 5000) -> bool:
-        """Process events until no job runs or waits (for tests); False if `timeout_ms` ran out first."""
-        if self._running is None and self._pending is None:
+        """Process events until no job whose result is wanted runs or waits (for tests); False if `timeout_ms`
+        ran out first. A render cancelled by clear() or mark_stale() is not waited for."""
+        if not self._working():
             return True
         loop = QEventLoop()
         timer = QTimer(singleShot=True, interval=timeout_ms)
@@ -430,7 +408,7 @@ class CardPreview(QWidget):
         loop.exec()
         timer.stop()
         self._idle_waiters.remove(loop)
-        return self._running is None and self._pending is None
+        return not self._working()
 
     # ------------------------------------------------------------------ what is shown
 

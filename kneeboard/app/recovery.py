@@ -7,6 +7,7 @@ second instance never takes the edits of one still running; each window writes i
 overwrites another's; a record that cannot be read is reported, never silently dropped.
 """
 
+import contextlib
 import hashlib
 import itertools
 import json
@@ -31,6 +32,8 @@ class Pending:
     path: Path | None  #: the profile the edits belong to; None for a profile never saved
     text: str  #: the edited profile text
     when: str  #: local time of the autosave, for the question to the person
+    base: str | None = None  #: SHA-256 of the file the edits started from (None: unknown, or never saved)
+    host: str | None = None  #: the machine name the record was written under, when it is not this machine's
 
 
 def key_for(path: Path | None, untitled_id: str) -> str:
@@ -70,9 +73,13 @@ class Recovery:
         o = self.owner
         return self.folder / f"{key}.{o['host']}-{o['pid']}-{o['window']}.json"
 
-    def save(self, key: str, path: Path | None, text: str) -> Path:
-        self.folder.mkdir(parents=True, exist_ok=True)
-        record = {"path": str(path) if path else None, "text": text,
+    def save(self, key: str, path: Path | None, text: str, base: str | None = None) -> Path:
+        """Write the record of `key`; raises FileProblem (naming the folder and the reason) when it cannot."""
+        try:
+            self.folder.mkdir(parents=True, exist_ok=True)
+        except OSError as exc:  # a read-only home, a file where the folder belongs
+            raise FileProblem(f"{self.folder}: cannot be made ({exc.strerror or exc})", exc.errno) from None
+        record = {"path": str(path) if path else None, "text": text, "base": base,
                   "when": time.strftime("%Y-%m-%d %H:%M:%S"), "owner": self.owner}
         target = self._file(key)
         write_atomic(target, json.dumps(record, ensure_ascii=False))  # UTF-8 as typed, not escaped
@@ -92,11 +99,15 @@ class Recovery:
         return bool(owner.get("started")) and owner.get("started") != _started(pid)
 
     def discard(self, key: str) -> None:
-        self._file(key).unlink(missing_ok=True)
+        with contextlib.suppress(FileNotFoundError, NotADirectoryError):  # never written: a folder that cannot be
+            self._file(key).unlink()
 
     def pending(self) -> list[Pending]:
         """Records left by a session that did not end normally (their owner is gone), oldest first. A record that
-        cannot be read is named in `unreadable` and left where it is, for the person to look at."""
+        cannot be read is named in `unreadable` and left where it is, for the person to look at.
+
+        A record written under another machine name (this machine's previous name, or another machine sharing the
+        folder) cannot be told alive or gone: it is listed with its `host`, for the person to open or discard."""
         found = []
         self.unreadable = []
         if not self.folder.is_dir():
@@ -112,8 +123,14 @@ class Recovery:
                 self.unreadable.append(f"{file}: unsaved edits that cannot be read back ({exc}); the file is "
                                        "kept for you to open")
                 continue
-            if self.owner_gone(owner):
-                found.append(Pending(file, Path(path) if isinstance(path, str) else None, text, str(when)))
+            base = record.get("base")
+            base = base if isinstance(base, str) else None
+            host = owner.get("host") if isinstance(owner, dict) else None
+            if isinstance(host, str) and host != self.owner["host"]:
+                found.append(Pending(file, Path(path) if isinstance(path, str) else None, text, str(when), base,
+                                     host))
+            elif self.owner_gone(owner):
+                found.append(Pending(file, Path(path) if isinstance(path, str) else None, text, str(when), base))
         return sorted(found, key=lambda p: p.when)
 
     def remove(self, pending: Pending) -> None:

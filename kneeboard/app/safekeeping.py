@@ -11,6 +11,7 @@ from PySide6.QtWidgets import QMessageBox
 
 from kneeboard.app.recovery import Pending, key_for
 from kneeboard.fileio import FileProblem
+from kneeboard.problems import printable
 
 
 class Safekeeping:
@@ -76,12 +77,27 @@ class Safekeeping:
             return None
         if self._autosaved is not None and self._autosaved[0] != key:
             self.recovery.discard(self._autosaved[0])
+        base = self.doc.disk.sha256 if self.doc.disk is not None else None  # what the edits started from
         try:
-            path = self.recovery.save(key, self.doc.path, text)
-        except FileProblem:
-            return None  # a full or read-only disk must not interrupt the editing itself
+            path = self.recovery.save(key, self.doc.path, text, base)
+        except FileProblem as exc:
+            # a full or read-only disk must not interrupt the editing itself, but the person must know that a crash
+            # would now lose the edits: said once in the window, retried quietly at every tick
+            self._recovery_failed(str(exc))
+            return None
         self._autosaved = (key, text)
+        if not self.recovery_note.isHidden():
+            self.recovery_note.hide()
+            self.statusBar().showMessage("Unsaved edits are copied aside again for crash recovery.", 8000)
         return path
+
+    def _recovery_failed(self, reason: str) -> None:
+        if not self.recovery_note.isHidden():
+            return
+        self.recovery_note.setText(f"Crash recovery is off, save often: {printable(reason)}")
+        self.recovery_note.setToolTip(f"Unsaved edits cannot be copied aside into {self.recovery.folder}, so a "
+                                      "crash would lose them. kneeboard tries again every few seconds.")
+        self.recovery_note.show()
 
     def _forget_autosave(self) -> None:
         if self._autosaved is not None:
@@ -96,40 +112,65 @@ class Safekeeping:
         for pending in self.recovery.pending():
             if not self.ask_restore(pending):
                 self.recovery.remove(pending)  # declined: forgotten
-            elif self._restore(pending):
+                continue
+            outcome = self._restore(pending)
+            if outcome == "restored":
                 restored += 1
+            if outcome in ("restored", "theirs"):
                 self.recovery.remove(pending)  # the edits are in the window now, and autosaved from there
-            # a restore that failed keeps its record: offered again at the next start, never lost
+            # a restore that failed or was put off keeps its record: offered again at the next start, never lost
         if self.recovery.unreadable:
             self.show_problems("Unsaved edits that cannot be read", "\n".join(self.recovery.unreadable))
         return restored
 
-    def _restore(self, pending: Pending) -> bool:
+    def _restore(self, pending: Pending) -> str:
+        """"restored", "theirs" (the file changed and the person kept it), or "failed" / "later" (record kept)."""
         if pending.path is not None and pending.path.is_file():
             if not self.open_profile(pending.path):
-                return False
+                return "failed"
+            # the edits were made to the file as it was then: another program may have changed it since, and
+            # putting the edits back would silently revert that change
+            if pending.base is not None and self.doc.disk is not None and self.doc.disk.sha256 != pending.base:
+                answer = self.ask_restore_changed(pending)
+                if answer != "restore":
+                    return answer if answer == "theirs" else "later"
         else:
             try:
                 from kneeboard.app.document import ProfileDocument
 
                 self._set_document(ProfileDocument(pending.text, None, self, session=self.session))
             except FileProblem:
-                return False
+                return "failed"
             self.doc.undo_stack.resetClean()
-            return True
+            return "restored"
         try:
             self.doc.replace_text(pending.text, "Restore unsaved changes")
         except FileProblem:
-            return False
-        return True
+            return "failed"
+        return "restored"
 
     def _ask_restore(self, pending: Pending) -> bool:
         name = pending.path.name if pending.path else "a new profile"
+        where = (f" It was written on the machine named {pending.host!r} (this machine under an earlier name, or "
+                 "another one sharing this folder); if kneeboard still runs there, its edits are that window's."
+                 if pending.host else "")
         answer = QMessageBox.question(
             self, "Restore unsaved changes?",
-            f"kneeboard stopped at {pending.when} with unsaved changes to {name}. Restore them?",
+            f"kneeboard stopped at {pending.when} with unsaved changes to {name}.{where} Restore them? "
+            "(No discards them.)",
         )
         return answer == QMessageBox.StandardButton.Yes
+
+    def _ask_restore_changed(self, pending: Pending) -> str:
+        """The file changed since the edits began: -> "restore" (mine over theirs) | "theirs" | "later"."""
+        box = QMessageBox(QMessageBox.Icon.Warning, "Changed since the crash",
+                          f"{pending.path.name} was changed by another program after kneeboard stopped. Restoring "
+                          "your unsaved changes would replace that change.", parent=self)
+        choices = {box.addButton("Restore mine (replace theirs)", QMessageBox.ButtonRole.DestructiveRole): "restore",
+                   box.addButton("Keep theirs, discard mine", QMessageBox.ButtonRole.RejectRole): "theirs"}
+        box.setDefaultButton(box.addButton("Decide later", QMessageBox.ButtonRole.ActionRole))
+        box.exec()
+        return choices.get(box.clickedButton(), "later")
 
     def _update_title(self) -> None:
         if self.doc is None:

@@ -3,6 +3,7 @@
 from pathlib import Path
 
 import tomlkit
+import tomlkit.exceptions
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor
 from PySide6.QtWidgets import (
@@ -24,7 +25,7 @@ from PySide6.QtWidgets import (
 from kneeboard.card.blocks import registry
 from kneeboard.card.geometry import CARD_SIZES
 from kneeboard.card.style import BINDINGS, LEGACY_ORGANIZATION, CardStyle, load_style
-from kneeboard.fileio import read_text, write_atomic
+from kneeboard.fileio import FileProblem, read_text, write_atomic
 from kneeboard.shipped import default_style_path
 
 #: What the card sizes are, as a person buying card stock reads them.
@@ -124,7 +125,12 @@ class StyleDialog(QDialog):
     def save(self, path: Path):
         """Write the style to `path` and read it back; returns (style or None, problems)."""
         source = path if path.is_file() else (self.style_in.source or default_style_path())
-        doc = tomlkit.parse(read_text(source))
+        text = read_text(source)
+        try:
+            doc = tomlkit.parse(text)
+        except (tomlkit.exceptions.TOMLKitError, ValueError, RecursionError) as exc:
+            # its comments and other keys would be lost: a style file the person must mend is never replaced
+            raise FileProblem(f"{source}: is not valid TOML ({str(exc)[:120]}); it was left as it is") from None
         for key, value in self.values().items():
             doc[key] = value
         doc.pop(LEGACY_ORGANIZATION, None)  # its value is in organization now: the file speaks one spelling

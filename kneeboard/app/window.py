@@ -50,6 +50,7 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         # hooks a test replaces: the questions and file choices a person would answer
         self.ask_unsaved = self._ask_unsaved
         self.ask_restore = self._ask_restore
+        self.ask_restore_changed = self._ask_restore_changed  # -> "restore" | "theirs" | "later"
         self.ask_save_path = self._ask_save_path
         self.show_problems = self._show_problems
         self.ask_conflict = self._ask_conflict  # -> "reload" | "overwrite" | "save-as" | "cancel"
@@ -99,6 +100,10 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         self.caution.setStyleSheet("color: #5a3b00;")
         # at the right, its natural width: the left keeps room for confirmations ("... exported to PATH")
         self.statusBar().addPermanentWidget(self.caution)
+        self.recovery_note = QLabel()  # shown while unsaved edits cannot be copied aside (safekeeping.py)
+        self.recovery_note.setStyleSheet("color: #A11D1D; font-weight: bold;")
+        self.recovery_note.hide()
+        self.statusBar().addPermanentWidget(self.recovery_note)
         self.resize(1400, 900)
         geometry = self.settings.value("window/geometry")
         if geometry is not None:
@@ -326,6 +331,11 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
             n = len(prepared.errors)
             self.preview_note.setText(f"The card is not updated: the profile has {n} error(s) (see Problems).")
             self.preview_note.show()
+            # the card on show was made before the error: greyed and named as not current, never left as if it were
+            before = ("This is the card as it was before them; it is neither exported nor printed."
+                      if self.preview.page_count() else "No card until they are fixed.")
+            self.preview.mark_stale(f"NOT CURRENT: the profile has {n} error(s) (see Problems). {before}")
+            self._requested = None
             self.readout.show_nothing("Fix the problems marked in the editor to see the figures.")
             return
         self.preview_note.hide()
@@ -368,8 +378,12 @@ class MainWindow(CardActions, Safekeeping, QMainWindow):
         path = self.ask_save_path("Save profile as", str(start), "Profiles (*.toml)")
         if path is None:
             return False
+        from kneeboard.app.document import SaveConflict
+
         try:
             self.doc.save(path)
+        except SaveConflict:  # the open file itself, reached by another path, changed on disk: asked as Save is
+            return self._settle_conflict()
         except FileProblem as exc:
             self.show_problems("The profile was not saved", f"{exc}\nYour changes are still here.")
             return False

@@ -5,11 +5,13 @@ fingerprint, the date, the card weight (and, for a card made for a weight given 
 export, that weight as given: `weight_given`) and every figure the laid-out card prints (the blocks' `ops.Figure`
 tags), and carries the fingerprint in the document's keywords. `kneeboard compare CARD.pdf PROFILE` reads it back and
 compares it with what the profile prints now. The data is compressed in a stream marked as a card's, so it is read
-back with zlib and no PDF library: a PDF that does not hold it (a card re-saved by another program, or any other
-PDF) is not a card.
+back with zlib and no PDF library, with its work bounded per file (see `read_card_data`): a PDF library would parse
+the whole of a hostile file to find it. An embedded file whose mark another program dropped is still found; a PDF
+that holds no card data is not a card.
 """
 
 import json
+import re
 import zlib
 
 from kneeboard.card.ops import Figure
@@ -44,46 +46,117 @@ def card_json(card) -> bytes:
         '{"kneeboard_card":', '{"kneeboard_card": ', 1).encode("ascii")
 
 
+class CardDataProblem(ValueError):
+    """A PDF whose card data cannot be read within the reader's bounds; the message says why (not which file)."""
+
+
+MAX_TOTAL = 32 * 1024 * 1024  #: [bytes] all card data of one PDF, inflated (largest sample card 22 KB: 1,500 cards)
+MAX_CANDIDATES = 5000  #: streams tried in one PDF: a card's one, a fleet's one per card
+MAX_NESTING = 32  #: JSON levels in one card's data (it has four)
+#: a stream's dictionary either carries our mark, or is an embedded file (a card re-saved by another program may
+#: have dropped the mark but keeps the file); `/EmbeddedFiles` (the name tree) is not a stream
+_CANDIDATE = re.compile(rb"/" + COMPRESSED_MARK.encode() + rb"\s*/Card|/EmbeddedFile(?![A-Za-z0-9#_.-])")
+_STRING = re.compile(r'"(?:[^"\\]|\\.)*+"', re.DOTALL)
+_NOT_BRACKET = re.compile(r"[^\[\]{}]+")
+_PAIR = re.compile(r"\{\}|\[\]")
+
+
 def read_card_data(pdf: bytes) -> list[dict]:
     """Every card's data found in the bytes of a PDF, in the order they are stored (may be empty).
 
-    Each card's data is a compressed stream marked `COMPRESSED_MARK` (read with zlib alone); cards made before the
-    data was compressed hold it in clear, and are read too.
+    Each card's data is a compressed embedded file (read with zlib alone), marked `COMPRESSED_MARK`; an embedded
+    file without the mark is tried too. Cards made before the data was compressed hold it in clear, and are read
+    too. The work is bounded per file, whatever the file holds: each stream is read once however many marks point
+    at it, at most MAX_CANDIDATES streams and MAX_TOTAL decompressed bytes in all, and data nested more than
+    MAX_NESTING levels is refused.
+
+    Raises
+    ------
+    CardDataProblem
+        When the PDF holds more than those bounds allow.
     """
-    return [data for data in (_parse(chunk) for chunk in _compressed(pdf) + _clear(pdf)) if data is not None]
+    budget = _Budget()
+    found = []
+    for chunk in _compressed(pdf, budget) + _clear(pdf, budget):
+        data = _parse(chunk)
+        if data is not None:
+            found.append(data)
+    return found
 
 
-def _compressed(pdf: bytes) -> list[str]:
-    found, start = [], 0
-    while (at := pdf.find(_COMPRESSED, start)) >= 0:
-        start = at + len(_COMPRESSED)
-        begin = pdf.find(b"stream", start)
+class _Budget:
+    """What one PDF may still cost: candidate streams and decompressed bytes."""
+
+    def __init__(self):
+        self.candidates, self.left = MAX_CANDIDATES, MAX_TOTAL
+
+    def take_candidate(self) -> None:
+        self.candidates -= 1
+        if self.candidates < 0:
+            raise CardDataProblem(f"holds more than {MAX_CANDIDATES} streams that may be card data; refused")
+
+    def take(self, size: int) -> None:
+        self.left -= size
+        if self.left < 0:
+            raise CardDataProblem(f"holds more than {MAX_TOTAL // (1024 * 1024)} MiB of card data; refused")
+
+
+def _compressed(pdf: bytes, budget: _Budget) -> list[str]:
+    found, position, view = [], 0, memoryview(pdf)
+    while (mark := _CANDIDATE.search(pdf, position)) is not None:
+        begin = pdf.find(b"stream", mark.end())
         if begin < 0:
             break
         begin += len(b"stream")
         begin += 2 if pdf[begin:begin + 2] == b"\r\n" else 1  # the end of line after the keyword
+        # the search goes on after this stream's keyword: many marks before one stream make one candidate, and no
+        # byte is searched twice
+        position = begin
+        budget.take_candidate()
+        data = view[begin:begin + MAX_DATA]  # a view: thousands of candidates copy nothing
         try:
-            inflate = zlib.decompressobj()
-            text = inflate.decompress(pdf[begin:begin + MAX_DATA], MAX_DATA)  # a bomb stops at MAX_DATA
+            head = zlib.decompressobj().decompress(data, len(MARKER) + 16)
+            if not head.lstrip().startswith(MARKER):
+                continue  # another embedded file: not inflated further
+            text = zlib.decompressobj().decompress(data, min(MAX_DATA, budget.left + 1))
         except zlib.error:
             continue
+        budget.take(len(text))
         found.append(text.decode("ascii", errors="replace"))
     return found
 
 
-def _clear(pdf: bytes) -> list[str]:
+def _clear(pdf: bytes, budget: _Budget) -> list[str]:
     found, start = [], 0
     while (at := pdf.find(MARKER, start)) >= 0:
         end = pdf.find(b"endstream", at)
-        found.append(pdf[at:end if end > 0 else len(pdf)].decode("ascii", errors="replace"))
-        start = at + len(MARKER)
+        end = end if end > 0 else len(pdf)
+        budget.take_candidate()
+        budget.take(end - at)
+        found.append(pdf[at:end].decode("ascii", errors="replace"))
+        start = max(end, at + len(MARKER))  # a second marker inside the same stream is the same data
     return found
 
 
+def _nesting_within(text: str, limit: int) -> bool:
+    """Whether the JSON text nests at most `limit` levels: strings dropped, then innermost pairs removed level by
+    level (linear passes, no recursion)."""
+    brackets = _NOT_BRACKET.sub("", _STRING.sub("", text))
+    for _level in range(limit):
+        if not brackets:
+            return True
+        brackets, removed = _PAIR.subn("", brackets)
+        if not removed:
+            return True  # unbalanced: not nesting, and json says what is wrong
+    return not brackets
+
+
 def _parse(chunk: str) -> dict | None:
+    if not _nesting_within(chunk, MAX_NESTING):
+        raise CardDataProblem(f"holds card data nested more than {MAX_NESTING} levels deep; refused")
     try:
         data, _ = json.JSONDecoder().raw_decode(chunk.lstrip())
-    except ValueError:
+    except (ValueError, RecursionError):
         return None
     if isinstance(data, dict) and data.get("kneeboard_card") == DATA_VERSION and isinstance(data.get("figures"), list):
         return data

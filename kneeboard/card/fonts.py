@@ -20,6 +20,7 @@ import contextlib
 import io
 import os
 import re
+import stat
 import threading
 import unicodedata
 import zlib
@@ -124,19 +125,38 @@ def _feature_glyph(font, tag: str, glyph: str | None) -> str | None:
     return None
 
 
+CACHED_FONT_LIMIT = 8 * 1024 * 1024  #: a built card font is about half a MiB; a larger cache file is not ours
+
+
 def _load(name: str) -> tuple[TTFont, bytes]:
     """The reportlab font of `name` and its file's bytes: from the cache, else built (and cached if it can be)."""
-    from kneeboard.fileio import FileProblem, write_atomic
+    from kneeboard.fileio import FileProblem, read_bytes, write_atomic
 
     cached = cached_file(name)
-    with contextlib.suppress(OSError, TTFError):  # no cache yet, or a damaged one: built again below
-        data = cached.read_bytes()
+    # read as every other input is: a regular file only, opened without blocking (a FIFO there hung every card),
+    # its size capped; anything else is no cache and is built again below
+    with contextlib.suppress(FileProblem, OSError, TTFError):
+        data = read_bytes(cached, CACHED_FONT_LIMIT, "a built card font is about half a MiB")
         return TTFont(name, io.BytesIO(data), validate=1), data  # checksums: a damaged file is rebuilt
     data = _build(source_file(name))
     with contextlib.suppress(OSError, FileProblem):  # a read-only home or cache: the fonts live in memory
         cached.parent.mkdir(parents=True, exist_ok=True)
+        _clear_special(cached)
         write_atomic(cached, data)
     return TTFont(name, io.BytesIO(data)), data
+
+
+def _clear_special(path: Path) -> None:
+    """Remove a FIFO, socket, device or link found where a cached font belongs, so the rebuilt font replaces it.
+
+    The cache folder is kneeboard's own; a folder there is left alone (the font then lives in memory).
+    """
+    try:
+        info = os.lstat(path)
+    except FileNotFoundError:
+        return
+    if not stat.S_ISREG(info.st_mode) and not stat.S_ISDIR(info.st_mode):
+        os.unlink(path)
 
 
 _files: dict[str, bytes] = {}

@@ -139,6 +139,10 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
         bad("max_faces", "is not accepted", f"a whole number of faces from 1 to {MAX_FACES} (two to a card)",
             max_faces)
         max_faces = None
+    if front is not None and not front and not back:
+        # the card would print its caution and footer alone: no registration heading, no figure
+        bad("front", "shows no block: the card would print no figure", "at least one block, e.g. \"header\", "
+            "\"margin-table\"", data.get("front"))
     logo, logo_bytes = _logo(data.get("logo"), folder, bad)
     banks = data.get("bank_angles")
     if banks is not None and not (
