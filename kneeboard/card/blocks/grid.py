@@ -19,6 +19,7 @@ __all__ = ["BLACK", "HATCHED", "NO_VALUE", "Cell", "Grid"]
 
 NAME_LINES = 3  #: a configuration's name wraps to at most this many lines
 CONTINUED = "continued"
+NAME_SHARE = 0.45  #: the most of a table's width its column of configuration names may take
 
 
 class Grid:
@@ -190,6 +191,15 @@ class ColumnHeads:
 def column_headers(d: Draw, block: str, top: float, names, columns, width: float) -> float:
     """The columns' small labels (`sub_headers`) over a rule across `width`; returns the rule's height."""
     return ColumnHeads(d.ctx, block, names, columns, width).draw(d, top)
+
+
+def name_column(ctx, width: float, configurations) -> float:
+    """The width of a table's column of configuration names: a fifth of the table, wider where a name holds a word
+    too long for that (a name breaks only between words), at most NAME_SHARE of it."""
+    ls = ctx.size(LABEL)
+    longest = max((fonts.width(word, fonts.BOLD, ls) for c in configurations for word in c.name.split()),
+                  default=0.0)
+    return min(max(width * 0.2, longest + 6), width * NAME_SHARE)
 
 
 class NamedRow:

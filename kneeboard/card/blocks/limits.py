@@ -8,7 +8,7 @@ text itself not retrieved).
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow
+from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow, name_column
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
@@ -37,7 +37,7 @@ class Limits(Plan):
                                printed.limits_heading(t))
         names = ["", f"stall {su} IAS", f"pattern {su} IAS", "buffer bank", "zero-margin bank", f"VFE {su} IAS",
                  "limit g / bank"]
-        name_w = width * 0.2
+        name_w = name_column(ctx, width, t.configurations)
         weights = (1.0, 1.0, 1.0, 1.0, 1.0, 1.45)  # the limit column holds "2.0/60°"
         unit = (width - name_w) / sum(weights)
         columns, x = [(0, name_w)], name_w

@@ -86,7 +86,8 @@ class MarginTable(Plan):
         self.ctx, self.width = ctx, width
         fs, ss = ctx.figure, ctx.size(SMALL)
         bank_w = max(fonts.width("88°", fonts.BOLD, fs), fonts.width("bank", fonts.REGULAR, ss)) + fs * 0.7
-        n_w = max(fonts.width("5.76", fonts.BOLD, ctx.secondary_figure),
+        widest_load = max((r.load_factor.text for r in t.configurations[0].rows), key=len, default="5.76")
+        n_w = max(fonts.width(max(widest_load, "5.76", key=len), fonts.BOLD, ctx.secondary_figure),
                   fonts.width("load", fonts.REGULAR, ss)) + fs * 0.5
         configs = t.configurations
         self.parts = split_configurations(ctx, len(configs), lambda g: _Group(ctx, width, bank_w, n_w,

@@ -4,7 +4,7 @@ stalls the wing in any attitude. Marked where the structure's limit load comes b
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow
+from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow, name_column
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, Context, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import SMALL
@@ -22,7 +22,7 @@ class Pull(Plan):
         su = t.speed_unit
         loads = [n for n, _ in t.configurations[0].stall_at_load]
         names = ["", "pattern stalls at"] + [f"stall {n} g" for n in loads]
-        name_w = width * 0.2
+        name_w = name_column(ctx, width, t.configurations)
         col_w = (width - name_w) / (len(names) - 1)
         columns = [(0, name_w)] + [(name_w + i * col_w, col_w) for i in range(len(names) - 1)]
         self.heading = Heading(ctx, width, TITLE)
