@@ -293,3 +293,53 @@ def test_the_command_line_names_the_blocks_a_capped_style_leaves_out(tmp_path):
                           str(style), "-o", str(tmp_path / "c.pdf")], capture_output=True, text=True)
     assert run.returncode == 2 and "Left out:" in run.stderr and "max_faces" in run.stderr
     assert not (tmp_path / "c.pdf").exists()
+
+
+# --- aircraft no test has seen --------------------------------------------------------------------------------
+
+WORDS = ("Gear", "down,", "flaps", "up", "Flaps", "landing", "clean", "Wheels", "floats", "brakes", "out",
+         "take-off", "approach", "Ferry", "tanks", "full", "Schleppkupplung", "Landeklappen", "Vztlakové", "klapky")
+
+
+@st.composite
+def invented_profiles(draw):
+    """A profile within the file format's limits: 1 to 12 configurations with names of up to 24 characters, 1 to 24
+    banks from 0 to 85 degrees, 1 to 6 turn-back headings, a registration of up to 16 characters, notes of up to
+    600 characters (invented, for the layout only)."""
+    n = draw(st.integers(1, 12))
+    stall = draw(st.integers(35, 70))
+    names = []
+    for k in range(n):
+        name = " ".join(draw(st.lists(st.sampled_from(WORDS), min_size=1, max_size=4)))[:20].strip() + f" {k}"
+        names.append(name)
+    configurations = "".join(
+        f'[[configuration]]\nname = "{name}"\nstall_speed = "{stall - k % 5} kt"\n'
+        + (f'flap_limit_speed = "{2 * stall} kt"\nextended = "flaps"\n' if k else "")
+        for k, name in enumerate(names))
+    banks = sorted(draw(st.sets(st.integers(0, 85), min_size=1, max_size=24)))
+    headings = sorted(draw(st.sets(st.integers(10, 360), min_size=1, max_size=6)))
+    registration = draw(st.text("ABCDEFGHIJKLMNOPQRSTUVWXYZW0123456789-", min_size=2, max_size=16))
+    notes = " ".join(draw(st.lists(st.sampled_from(WORDS + ("https://example.invalid/" + "x" * 60,)),
+                                   max_size=80)))[:600]
+    glide = f'best_glide_speed = "{stall + 20} kt"\nglide_ratio = 9\n' if draw(st.booleans()) else ""
+    return (f'schema = 1\n[aircraft]\nregistration = "{registration}"\nmodel = "Invented test aircraft"\n'
+            f'category = "{draw(st.sampled_from(["normal", "utility", "acrobatic"]))}"\nmax_weight = "1200 kg"\n'
+            f'maneuvering_speed = "{2 * stall} kt"\n{glide}\n{configurations}\n[card]\nbank_angles = {banks}\n'
+            f'buffer = "{draw(st.integers(0, 15))} kt"\nturn_back_degrees = {headings}\nnotes = """{notes}"""\n')
+
+
+@settings(max_examples=25, derandomize=True, deadline=None)
+@given(invented_profiles(), st.sampled_from(ALL_SIZES), st.sampled_from(SCALES))
+def test_an_aircraft_no_test_has_seen_makes_a_card_at_any_size(text, size, scale):
+    from kneeboard.pipeline import prepare_text
+
+    style = default_style().with_changes(size=size[0], landscape=size[1], font_scale=scale)
+    p = prepare_text(text, style, Overrides())
+    assert p.table is not None, [str(e) for e in p.errors]
+    c = make_card(p, MADE_ON)  # never a LayoutError with the default style
+    floor = 10.0 if size[0] in LARGE_CARDS else 8.0
+    for page in c.pages:
+        assert page.blocks[-1] == "caution"
+        for op in page.ops:
+            if isinstance(op, Text) and op.role == FIGURE:
+                assert op.size >= floor - 1e-9
