@@ -355,7 +355,10 @@ class CardPreview(QWidget):
         child (a child dies before its parent's connections do) and is deleted after it."""
         old, old_doc = self._view, self._view.document()
         self._view = view = self._new_view(old.zoomMode(), old.zoomFactor())
-        self._stack.replaceWidget(old, view)
+        # removeWidget() deletes the layout's item itself; replaceWidget() would hand it to Python, to be freed
+        # whenever the garbage collector gets to it, perhaps after the widget it points at is gone
+        self._stack.removeWidget(old)
+        self._stack.addWidget(view, 0, 0)
         view.setGeometry(old.geometry())  # the page is laid out for the view's size before it is shown
         if doc is not None:
             view.setDocument(doc)
