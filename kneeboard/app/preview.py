@@ -99,7 +99,11 @@ class CardPreview(QWidget):
         self._busy_timer = QTimer(self, singleShot=True, interval=BUSY_DELAY_MS)
         self._busy_timer.timeout.connect(lambda: self._busy_action.setVisible(True))
 
+        # two page views, in turn: the one shown, and one resting (see _replace_view)
         self._view = self._new_view(QPdfView.ZoomMode.FitInView, 1.0)
+        self._resting = self._new_view(QPdfView.ZoomMode.FitInView, 1.0)
+        self._resting.setObjectName("previewViewResting")
+        self._resting.hide()
 
         # the message lies over the last good page: a translucent veil greys it without hiding it
         self._error = QWidget(self)
@@ -121,6 +125,7 @@ class CardPreview(QWidget):
         self._stack = stack = QGridLayout()
         stack.setContentsMargins(0, 0, 0, 0)
         stack.addWidget(self._view, 0, 0)
+        stack.addWidget(self._resting, 0, 0)
         stack.addWidget(self._error, 0, 0)
         layout = QVBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 0)
@@ -130,13 +135,7 @@ class CardPreview(QWidget):
         self._sync_zoom_controls()
 
     def _new_view(self, zoom_mode: QPdfView.ZoomMode, zoom: float) -> QPdfView:
-        """A page view for one document: every PDF shown gets a view of its own.
-
-        QPdfView renders pages on a worker thread and caches each image under the page's number alone. A render of
-        the previous document that finishes after setDocument() lands in that cache as the new document's page and
-        stays there for good: the header named the new card while the page showed the old one. A fresh view has
-        no render in flight, and the old view takes its late renders with it.
-        """
+        """One of the preview's two page views (see _replace_view for why two)."""
         view = QPdfView(self)
         view.setObjectName("previewView")
         view.setPageMode(QPdfView.PageMode.SinglePage)
@@ -348,26 +347,32 @@ class CardPreview(QWidget):
         self.rendered.emit(request.generation, (perf_counter() - request.started) * 1000.0)
 
     def _replace_view(self, doc: QPdfDocument | None) -> QPdfView:
-        """A new view in the old one's place, showing `doc`; the old view goes, then the document it showed.
+        """Show `doc` in the resting view and put the shown one to rest; returns the view now shown.
 
-        The order matters: the old view's renderer waits for its worker thread, which may still be reading that
-        document, and the view listens to the document until it is gone. So the document is never the view's
-        child (a child dies before its parent's connections do) and is deleted after it."""
-        old, old_doc = self._view, self._view.document()
-        self._view = view = self._new_view(old.zoomMode(), old.zoomFactor())
-        # removeWidget() deletes the layout's item itself; replaceWidget() would hand it to Python, to be freed
-        # whenever the garbage collector gets to it, perhaps after the widget it points at is gone
-        self._stack.removeWidget(old)
-        self._stack.addWidget(view, 0, 0)
-        view.setGeometry(old.geometry())  # the page is laid out for the view's size before it is shown
-        if doc is not None:
-            view.setDocument(doc)
-        view.setVisible(old.isVisible())
+        QPdfView renders pages on a worker thread and caches each image under the page's number alone: a render
+        of the previous document that finished after setDocument() landed in that cache as the new document's
+        page, and stayed there for good (the header named the new card, the page showed the old one). So a new
+        document never goes to the view that showed the last one. It goes to the resting view, which has painted
+        nothing since it was put to rest a whole render ago: what its worker still had to deliver was posted to
+        this thread before the render that brings `doc` came back, so it has landed already, and setDocument()
+        clears it away. The views live as long as the preview (creating and deleting a view per card was tried:
+        rare heap corruption in full test runs). A document is deleted only once its view shows another one:
+        setDocument() waits for the view's worker to finish what it was reading.
+        """
+        shown, view = self._view, self._resting
+        previous = view.document()
+        view.setZoomMode(shown.zoomMode())
+        view.setZoomFactor(shown.zoomFactor())
+        view.setGeometry(shown.geometry())  # the page is laid out for the view's size before it is shown
+        view.setDocument(doc)
+        if previous is not None and previous is not doc:
+            previous.deleteLater()
+        self._view, self._resting = view, shown
+        view.setObjectName("previewView")
+        shown.setObjectName("previewViewResting")
+        view.setHidden(shown.isHidden())  # hidden only if the shown one was, not merely while the window is
+        shown.hide()
         self._error.raise_()
-        old.hide()
-        old.deleteLater()
-        if old_doc is not None:
-            old_doc.deleteLater()  # posted after the view: deleted after it
         return view
 
     def _show_error(self, message: str) -> None:
@@ -391,7 +396,7 @@ class CardPreview(QWidget):
         """Show nothing; results of jobs still running are dropped, a waiting job never runs."""
         self._generation += 1
         self._pending = None
-        self._replace_view(None)  # the shown document goes with its view
+        self._replace_view(None)  # an empty view is shown; the card shown rests, deleted when its view is reused
         self._doc = self._pdf = None
         self.shown_generation = 0
         self._error.hide()
