@@ -11,7 +11,7 @@ import os
 import pytest
 
 from kneeboard import fileio
-from kneeboard.app.document import ProfileDocument, SaveConflict
+from kneeboard.app.document import SaveConflict
 from kneeboard.fileio import FileProblem
 
 WATCH_MS = 10_000  #: how long to wait for the file watcher's signal; reached only when it never comes
@@ -47,8 +47,8 @@ def second_window(qtbot, settings, tmp_path, path):
 # --- the document -------------------------------------------------------------------------------
 
 
-def test_a_change_on_disk_stops_the_save(qtbot, profile, minimal_text):
-    doc = ProfileDocument.open(profile)
+def test_a_change_on_disk_stops_the_save(qtbot, open_document, profile, minimal_text):
+    doc = open_document(profile)
     assert not doc.changed_on_disk()
     doc.set(("aircraft", "model"), "Mine (invented)")
     profile.write_text(theirs(minimal_text))  # written in place, as some programs do
@@ -61,8 +61,8 @@ def test_a_change_on_disk_stops_the_save(qtbot, profile, minimal_text):
     assert "Mine (invented)" in profile.read_text() and not doc.changed_on_disk() and not doc.modified
 
 
-def test_own_saves_and_touches_are_no_change(qtbot, profile):
-    doc = ProfileDocument.open(profile)
+def test_own_saves_and_touches_are_no_change(qtbot, open_document, profile):
+    doc = open_document(profile)
     doc.set(("aircraft", "model"), "Mine (invented)")
     doc.save()
     assert not doc.changed_on_disk()
@@ -73,8 +73,8 @@ def test_own_saves_and_touches_are_no_change(qtbot, profile):
     assert "Mine again" in profile.read_text()
 
 
-def test_a_deleted_file_is_a_change(qtbot, profile):
-    doc = ProfileDocument.open(profile)
+def test_a_deleted_file_is_a_change(qtbot, open_document, profile):
+    doc = open_document(profile)
     profile.unlink()
     assert doc.changed_on_disk()
     with pytest.raises(SaveConflict):
@@ -84,8 +84,8 @@ def test_a_deleted_file_is_a_change(qtbot, profile):
     assert profile.is_file()
 
 
-def test_reload_is_one_undoable_step(qtbot, profile, minimal_text):
-    doc = ProfileDocument.open(profile)
+def test_reload_is_one_undoable_step(qtbot, open_document, profile, minimal_text):
+    doc = open_document(profile)
     doc.set(("aircraft", "model"), "Mine (invented)")
     mine = doc.text()
     fileio.write_atomic(profile, theirs(minimal_text))
@@ -98,8 +98,8 @@ def test_reload_is_one_undoable_step(qtbot, profile, minimal_text):
     assert profile.read_text() == theirs(minimal_text)
 
 
-def test_the_watcher_notices_every_change_even_after_atomic_replaces(qtbot, profile, minimal_text):
-    doc = ProfileDocument.open(profile)
+def test_the_watcher_notices_every_change_even_after_atomic_replaces(qtbot, open_document, profile, minimal_text):
+    doc = open_document(profile)
     with qtbot.waitSignal(doc.changedOnDisk, timeout=WATCH_MS):
         fileio.write_atomic(profile, theirs(minimal_text))  # a rename: the watched file is another one now
     doc.reload_from_disk()
@@ -111,8 +111,8 @@ def test_the_watcher_notices_every_change_even_after_atomic_replaces(qtbot, prof
     assert doc.changed_on_disk()
 
 
-def test_own_saves_raise_no_signal(qtbot, profile):
-    doc = ProfileDocument.open(profile)
+def test_own_saves_raise_no_signal(qtbot, open_document, profile):
+    doc = open_document(profile)
     seen = []
     doc.changedOnDisk.connect(lambda: seen.append(1))
     doc.set(("aircraft", "model"), "Mine (invented)")
@@ -121,10 +121,10 @@ def test_own_saves_raise_no_signal(qtbot, profile):
     assert seen == [] and not doc.changed_on_disk()
 
 
-def test_a_linked_profile_is_saved_at_its_target(qtbot, tmp_path, profile):
+def test_a_linked_profile_is_saved_at_its_target(qtbot, open_document, tmp_path, profile):
     link = tmp_path / "mine.toml"
     link.symlink_to(profile)
-    doc = ProfileDocument.open(link)
+    doc = open_document(link)
     doc.set(("aircraft", "model"), "Mine (invented)")
     doc.save()
     assert link.is_symlink() and "Mine (invented)" in profile.read_text()
