@@ -27,13 +27,15 @@ def run(smoke: bool = False, env: dict | None = None, work: Path | None = None) 
         settings = QSettings(str(Path(tmp) / "s.ini"), QSettings.Format.IniFormat)
         window = MainWindow(settings, recovery_dir=Path(tmp) / "recovery")
         window.show()
-        window.open_profile(LARGEST)
-        window.preview.wait_idle(10_000)
+        controller = window.controller
+        controller.open_profile(LARGEST)
+        wait_renders(controller, 10_000)
         done = []
         loop = QEventLoop()
         guard = QTimer(singleShot=True)  # one timer, stopped after each wait: no stale quit ends a later wait
         guard.timeout.connect(loop.quit)
-        window.preview.rendered.connect(lambda *_: (done.append(time.perf_counter()), loop.quit()))
+        # after the viewer's own connection: the time at which the new card is on screen
+        controller.cardReady.connect(lambda *_: (done.append(time.perf_counter()), loop.quit()))
         field = window.editor.fields["aircraft.max_weight"]
         samples, floors = [], []
         for i in range(repeats + WARM):
@@ -50,7 +52,7 @@ def run(smoke: bool = False, env: dict | None = None, work: Path | None = None) 
                 guard.stop()
             if not done:
                 raise RuntimeError("the preview did not update within 10 s")
-            window.preview.wait_idle(5000)
+            wait_renders(controller, 5000)
             if i >= WARM:
                 samples.append((done[0] - t) * 1000)
                 floors.append(floor())
@@ -66,6 +68,22 @@ def run(smoke: bool = False, env: dict | None = None, work: Path | None = None) 
     return {"preview": result}
 
 
+def wait_renders(controller, timeout_ms: int) -> None:
+    """Idle in an event loop until no render whose result is wanted runs or waits, or `timeout_ms` ran out."""
+    from PySide6.QtCore import QEventLoop, QTimer
+
+    if not controller.renders.busy():
+        return
+    loop, timer = QEventLoop(), QTimer(singleShot=True)
+    timer.timeout.connect(loop.quit)
+    controller.renders.busyChanged.connect(loop.quit)
+    timer.start(timeout_ms)
+    while controller.renders.busy() and timer.isActive():
+        loop.exec()
+    timer.stop()
+    controller.renders.busyChanged.disconnect(loop.quit)
+
+
 SAME = ("{}.0 kg", "{}.00 kg", " {} kg", "{} kg")  #: the weight as it stands, written differently: nothing to print
 
 
@@ -79,5 +97,5 @@ def renders_for_unchanged(window, field, loop, guard, done, value: int) -> int:
         guard.start(400)  # the preview is not debounced: a render would have started by then
         while guard.isActive():  # a render's own quit ends one turn early; wait out the rest
             loop.exec()
-        window.preview.wait_idle(5000)
+        wait_renders(window.controller, 5000)
     return len(done)

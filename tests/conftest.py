@@ -115,6 +115,29 @@ def settings(tmp_path):
     return QSettings(str(tmp_path / "settings.ini"), QSettings.Format.IniFormat)
 
 
+WAIT_MS = 10_000  #: generous: a loaded test machine must not fail a test, only slow it
+
+
+def settle(qtbot, controller, timeout=WAIT_MS):
+    """Let the preview's debounce fire and every render whose result is wanted end."""
+    qtbot.wait(controller.timer.interval() + 20)
+    qtbot.waitUntil(lambda: not controller.renders.busy(), timeout=timeout)
+
+
+def check_fleet(qtbot, controller, timeout=WAIT_MS):
+    """Wait until every profile of the fleet has its mark."""
+    qtbot.waitUntil(lambda: controller.checks_pending == 0, timeout=timeout)
+
+
+def fleet_rows(controller):
+    """(mark, registration, path) per row of the fleet, read through the model's named roles."""
+    from kneeboard.app.fleet import MARK_ROLE, PATH_ROLE, REGISTRATION_ROLE
+
+    model = controller.fleet
+    return [(model.index(i, 0).data(MARK_ROLE), model.index(i, 0).data(REGISTRATION_ROLE),
+             model.index(i, 0).data(PATH_ROLE)) for i in range(model.rowCount())]
+
+
 @pytest.fixture
 def window(qtbot, fleet, settings, tmp_path):
     from kneeboard.app.window import MainWindow
@@ -122,10 +145,10 @@ def window(qtbot, fleet, settings, tmp_path):
     def settle_before_close(w):
         # pytest-qt closes and deletes the window before this fixture's own teardown runs: a render still running
         # then was dropped with its widget, and waiting for it afterwards waited 10 s for nothing. So the fleet's
-        # checks and the renders are waited for here, while the window lives, and the wait's result is checked.
-        w.timer.stop()
-        w.fleet.check_all()
-        assert w.preview.wait_idle(10_000), "a render still running 10 s after the test"
+        # checks and the renders are waited for here, while the window lives.
+        w.controller.timer.stop()
+        check_fleet(qtbot, w.controller)
+        qtbot.waitUntil(lambda: not w.controller.renders.busy(), timeout=WAIT_MS)
 
     w = MainWindow(settings, recovery_dir=tmp_path / "recovery")
     qtbot.addWidget(w, before_close_func=settle_before_close)
@@ -138,7 +161,136 @@ def window(qtbot, fleet, settings, tmp_path):
     w.categories = []  # File › New profile's question: a test sets the category; unanswered, it is cancelled
     w.ask_category = lambda _current: w.categories.pop(0) if w.categories else None
     w.show()
-    w.open_profile(fleet / "demo_trainer.toml")
-    qtbot.wait(w.timer.interval() + 20)
-    assert w.preview.wait_idle(10_000)
+    w.controller.open_profile(fleet / "demo_trainer.toml")
+    settle(qtbot, w.controller)
     return w
+
+
+# --- the app's flows without a window: the controller and a person answering its questions ---
+
+
+class Person:
+    """The controller's `ui`, answering as a test scripts it: each question takes the next answer of its list.
+
+    A question with no answer left fails the test (asked, it would have opened a dialog nobody expected), except
+    the few a test sets a standing answer for. Every question asked is recorded in `asked`, problems in `problems`.
+    """
+
+    def __init__(self):
+        self.answers: dict[str, list] = {}
+        self.asked: list[str] = []
+        self.problems: list[tuple[str, str]] = []
+        self.printed: list[tuple[bytes, str]] = []
+        self.progresses: list = []
+
+    def answer(self, question: str, *answers) -> "Person":
+        self.answers.setdefault(question, []).extend(answers)
+        return self
+
+    def _next(self, question: str, *args):
+        self.asked.append(question)
+        waiting = self.answers.get(question)
+        if not waiting:
+            raise AssertionError(f"{question} was asked, and the test gave no answer")
+        answer = waiting.pop(0)
+        return answer(*args) if callable(answer) else answer
+
+    def ask_unsaved(self):
+        return self._next("ask_unsaved")
+
+    def ask_conflict(self):
+        return self._next("ask_conflict")
+
+    def ask_save_path(self, title, start, filters):
+        return self._next("ask_save_path", title, start, filters)
+
+    def ask_open_path(self, title, start, filters):
+        return self._next("ask_open_path", title, start, filters)
+
+    def ask_folder(self, title, start):
+        return self._next("ask_folder", title, start)
+
+    def ask_category(self, current):
+        return self._next("ask_category", current)
+
+    def ask_restore(self, pending):
+        return self._next("ask_restore", pending)
+
+    def ask_restore_changed(self, pending):
+        return self._next("ask_restore_changed", pending)
+
+    def show_problems(self, title, text):
+        self.problems.append((title, text))
+
+    def progress(self, total):
+        progress = Progress(total)
+        self.progresses.append(progress)
+        return progress
+
+    def print_pdf(self, pdf, name):
+        self.printed.append((pdf, name))
+        return self._next("print_pdf")
+
+
+class Progress:
+    """The fleet export's progress, as a person sees it, without a dialog."""
+
+    def __init__(self, total):
+        self.total, self.value, self.labels, self.closed = total, 0, [], False
+
+    def setValue(self, value):  # noqa: N802 - Qt's name
+        self.value = value
+
+    def setLabelText(self, text):  # noqa: N802 - Qt's name
+        self.labels.append(text)
+
+    def wasCanceled(self):  # noqa: N802 - Qt's name
+        return False
+
+    def close(self):
+        self.closed = True
+
+
+@pytest.fixture
+def person():
+    return Person()
+
+
+@pytest.fixture
+def make_controller(qtbot, settings, tmp_path):
+    """Controllers with no window, deleted on the main thread when the test ends; no widget is ever made."""
+    import shiboken6
+    from PySide6.QtCore import QEvent
+    from PySide6.QtWidgets import QApplication
+
+    from kneeboard.app.controller import Controller
+
+    def widgets() -> set[int]:
+        QApplication.sendPostedEvents(None, QEvent.Type.DeferredDelete)  # widgets of earlier tests, deleted later
+        return {shiboken6.getCppPointer(w)[0] for w in QApplication.allWidgets()}
+
+    before = widgets()
+    made = []
+
+    def make(person, recovery_dir=None):
+        made.append(Controller(person, settings, recovery_dir or tmp_path / "recovery"))
+        return made[-1]
+
+    yield make
+    for c in made:
+        c.timer.stop()
+        qtbot.waitUntil(lambda c=c: not c.renders.busy(), timeout=WAIT_MS)
+        c.autosave_timer.stop()
+    assert widgets() <= before, "the controller made a widget"
+    for c in made:
+        if shiboken6.isValid(c):
+            shiboken6.delete(c)
+
+
+@pytest.fixture
+def controller(make_controller, person, fleet, qtbot):
+    """A controller on a private copy of the sample fleet, with the trainer open and its card rendered."""
+    c = make_controller(person)
+    assert c.open_profile(fleet / "demo_trainer.toml")
+    settle(qtbot, c)
+    return c

@@ -37,8 +37,8 @@ def test_the_first_frame_needs_neither_units_nor_numpy_nor_reportlab():
         "from kneeboard.app.dialogs import show_caution_once\n"
         "tmp = tempfile.mkdtemp()\n"
         "w = MainWindow(QSettings(tmp + '/s.ini', QSettings.Format.IniFormat), Path(tmp) / 'r')\n"
-        "w.show(); w.show_fleet(Path(sys.argv[1])); app.processEvents()\n"
-        "assert len(w.fleet.rows()) == 5, w.fleet.rows()\n"
+        "w.show(); w.controller.show_fleet(Path(sys.argv[1])); app.processEvents()\n"
+        "assert w.fleet.tree.model().rowCount() == 5, w.fleet.tree.model().rowCount()\n"
         "bad = sorted({m.split('.')[0] for m in sys.modules} & {'pint', 'numpy', 'reportlab'})\n"
         "print(bad); sys.exit(1 if bad else 0)"
     )

@@ -212,7 +212,7 @@ class ProblemsDialog(QDialog):
         return _cell_texts(self.table)
 
 
-def _progress_dialog(parent: QWidget | None, total: int) -> QProgressDialog:
+def progress_dialog(parent: QWidget | None, total: int) -> QProgressDialog:
     dialog = QProgressDialog("Making cards", "Cancel", 0, total, parent)
     dialog.setWindowTitle("Making cards")
     # Window-modal: setValue then processes events, so Cancel answers while cards are being made.
@@ -235,7 +235,7 @@ def export_fleet(parent: QWidget | None, paths: list[Path], styles: Styles, out:
 
     if out is None and each is None:
         raise ValueError("export_fleet needs out, each, or both")
-    dialog = (progress_factory or _progress_dialog)(parent, len(paths))
+    dialog = (progress_factory or progress_dialog)(parent, len(paths))
 
     def progress(done: int, total: int, name: str) -> bool:
         if name:

@@ -22,7 +22,7 @@ from PySide6.QtWidgets import (
 
 from kneeboard import fields as declared
 from kneeboard import terms, units
-from kneeboard.aero.limits import CATEGORY_LIMIT_LOAD
+from kneeboard.app import hints
 from kneeboard.app.document import ProfileDocument, key_text
 from kneeboard.app.fields import ChoiceField, Field, NotesField, NumberField, PairsField, TextField
 from kneeboard.app.items import ItemsField
@@ -221,18 +221,12 @@ class ProfileEditor(QScrollArea):
         del c
 
     def _pattern_speed_text(self, loaded, i: int) -> str:
-        unit = self.card_units()[0]
-        if loaded.table is not None:  # the speed the card prints now
-            table = loaded.table
-            return f"{table.configurations[i].pattern_speed.text} {table.speed_unit}"
-        return f"70 {unit}"
+        return hints.pattern_speed_text(loaded, i, self.card_units()[0])  # the speed the card prints now
 
     def _set_weight_mode(self, mode: str):
         loaded = self.doc.loaded
         unit = self.card_units()[2]
-        current = None
-        if loaded.profile is not None:
-            current = units.format_quantity(loaded.profile.weight, units.MASS, unit)
+        current = hints.weight_text(loaded, unit)
 
         def change(doc):
             if mode == "reference":
@@ -264,15 +258,7 @@ class ProfileEditor(QScrollArea):
     # --- showing the document ------------------------------------------------------------------
     def card_units(self) -> tuple[str, str, str]:
         """Speed, distance and weight units of the card (the profile's, or defaults while it has errors)."""
-        p = self.doc.loaded.profile
-        if p is not None:
-            return p.card.speed_unit, p.card.distance_unit, p.card.weight_unit
-        def unit(key, options, default):
-            value = self.doc.get(("card", key))
-            return value if value in options else default  # the file may hold anything; show known units only
-
-        return (unit("speed_unit", units.SPEED_UNITS, "kt"), unit("distance_unit", units.DISTANCE_UNITS, "ft"),
-                unit("weight_unit", units.WEIGHT_UNITS, "kg"))
+        return hints.card_units(self.doc.loaded, self.doc.peek(("card",)))
 
     def refresh(self):
         over = self._over_limits()
@@ -346,26 +332,17 @@ class ProfileEditor(QScrollArea):
         for path in ("glider.polar_weight", "glider.polar"):
             self.fields[path].setEnabled(glider)
         category = self.doc.get(("aircraft", "category")) or "normal"
-        results = self.doc.loaded.results
-        if results is not None:  # the default the card uses: the category's, by maximum weight for normal
-            n = f"{results.design_limit_load_factor:.2f}".rstrip("0").rstrip(".")
-            self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(
-                f"{n} for the {category} category at this maximum weight")
-        elif category in CATEGORY_LIMIT_LOAD:
-            self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(
-                f"{CATEGORY_LIMIT_LOAD[category]} for the {category} category")
+        hint = hints.limit_load_hint(self.doc.loaded, category)  # the default the card uses
+        if hint is not None:
+            self.fields["aircraft.limit_load_factor"].input.setPlaceholderText(hint)
 
     def _show_conversions(self):
-        speed_unit, distance_unit, weight_unit = self.card_units()
-        targets = {units.SPEED.name: speed_unit, units.MASS.name: weight_unit, units.LENGTH.name: distance_unit,
-                   units.TEMPERATURE.name: "degC"}
-        from kneeboard.tables import SINK_UNIT
-
+        shown = self.card_units()
         for path, kind in self.kinds.items():
             field = self.fields.get(path)
             if field is not None:
-                target = SINK_UNIT.get(distance_unit) if path in self.sink_fields else targets.get(kind.name)
-                field.set_beside(converted(field.value() if hasattr(field, "value") else "", kind, target))
+                target = hints.target_unit(kind, path in self.sink_fields, shown)
+                field.set_beside(hints.converted(field.value() if hasattr(field, "value") else "", kind, target))
 
     def _show_problems(self, problems: list[Problem]):
         errors = [p for p in problems if p.is_error]
@@ -401,21 +378,6 @@ class ProfileEditor(QScrollArea):
             self.config_tabs.setCurrentIndex(int(path[len(CONFIG) + 1:].split("]")[0]) - 1)
         self.ensureWidgetVisible(field)
         field.input.setFocus()
-
-
-def converted(text: str, kind: units.Kind, unit: str | None) -> str:
-    """ "= 25.4 kt" for a valid entry in another unit than the card's; "" otherwise."""
-    if not unit or not isinstance(text, str) or not text.strip():
-        return ""
-    try:
-        si = units.parse(text, kind)
-    except units.QuantityError:
-        return ""
-    if units.display_unit(text, (unit,)) == unit:
-        return ""
-    value = units.from_si(si, kind, unit)
-    shown = "°C" if unit == "degC" else unit
-    return f"= {value:.1f} {shown}" if abs(value) < 100 else f"= {value:.0f} {shown}"
 
 
 class BanksField(TextField):

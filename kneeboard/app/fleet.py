@@ -1,200 +1,153 @@
-"""The fleet panel: the profiles of a folder, with a mark on the ones that have problems."""
+"""The fleet: the profiles of a folder as a Qt item model with named roles. No widget, and nothing computed here.
 
+Rows are listed from the files at once (registration and model as written; each file read once, and its data kept
+for the check). The controller checks each profile through the pipeline, one per event-loop turn, and gives the
+model what it found (`set_checked`). A view shows the roles; tests read them without one.
+"""
+
+from dataclasses import dataclass
 from pathlib import Path
 
-from PySide6.QtCore import Qt, QTimer, Signal
-from PySide6.QtGui import QIcon
-from PySide6.QtWidgets import (
-    QHBoxLayout,
-    QLabel,
-    QPushButton,
-    QStyle,
-    QTreeWidget,
-    QTreeWidgetItem,
-    QVBoxLayout,
-    QWidget,
-)
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
 
-from kneeboard.profile_io import profile_files, read_source
+from kneeboard.profile_io import Source, profile_files, read_source
 from kneeboard.registrations import duplicates, others
 
-PATH_ROLE = Qt.ItemDataRole.UserRole
-CHECK_DELAY_MS = 50  #: [ms] from listing a folder to checking its first profile, so the list is drawn first
+#: The roles a view or a test reads (every column answers every role).
+REGISTRATION_ROLE = Qt.ItemDataRole.UserRole + 1  #: the registration as written (the file's name when it has none)
+MODEL_ROLE = Qt.ItemDataRole.UserRole + 2  #: the aircraft's model as written
+PATH_ROLE = Qt.ItemDataRole.UserRole + 3  #: the profile file (a Path)
+PROBLEMS_ROLE = Qt.ItemDataRole.UserRole + 4  #: what is wrong with it, one line each (a list of str)
+MARK_ROLE = Qt.ItemDataRole.UserRole + 5  #: ERROR, DUPLICATE, WARNING, or "" (none, or not checked yet)
+FINGERPRINT_ROLE = Qt.ItemDataRole.UserRole + 6  #: what its card prints beside the date ("" until checked)
+CHECKED_ROLE = Qt.ItemDataRole.UserRole + 7  #: whether its mark is made (False from listing until its check)
+
 COLUMNS = ("", "Registration", "Model")
+MARK_COLUMN, REGISTRATION_COLUMN, MODEL_COLUMN = range(3)
+ERROR = "error"
+WARNING = "warning"
 DUPLICATE = "duplicate registration"  #: the mark of a profile whose registration another one of the folder has
-EMPTY_HINT = ("No profiles (*.toml) in this folder. File › New profile from template makes one; "
-              "save it here and it appears in this list.")
+UNREADABLE = "cannot be read"  #: the model shown for a file that cannot be read
+MOST_SHOWN = 8  #: problems named per profile; the rest are in the editor's list
 
 
-class FleetPanel(QWidget):
-    opened = Signal(Path)  #: the person chose a profile
-    checked = Signal()  #: every profile of the folder has its mark
+@dataclass
+class Row:
+    path: Path
+    registration: str
+    model: str
+    source: Source  #: the file as it was read for the list: checked from this, never read again
+    duplicate: str = ""  #: why it is marked: another profile of the folder has its registration
+    problems: tuple[str, ...] = ()
+    mark: str = ""
+    fingerprint: str = ""
+    checked: bool = False
 
-    def __init__(self, prepare=None, parent=None):
-        """`prepare(source)` takes a profile to its problems the way its card is made (the session's)."""
+
+class FleetModel(QAbstractTableModel):
+    def __init__(self, parent=None):
         super().__init__(parent)
-        if prepare is None:
-            from kneeboard.app.session import Session
-
-            prepare = Session().prepare_source
-        self._prepare = prepare
         self.folder: Path | None = None
-        self._items: dict[str, QTreeWidgetItem] = {}
-        self._duplicates: dict[str, str] = {}  #: path -> why it is marked: another profile has its registration
-        self._unchecked: list[str] = []  #: paths of the listed profiles not yet marked
-        self._check_timer = QTimer(self, singleShot=True, interval=0)
-        self._check_timer.timeout.connect(self._check_next)
-        self.tree = QTreeWidget()
-        self.tree.setHeaderLabels(list(COLUMNS))
-        self.tree.setRootIsDecorated(False)
-        self.tree.setColumnWidth(0, 28)
-        self.tree.setColumnWidth(1, 110)
-        self.tree.itemActivated.connect(self._chosen)
-        self.tree.itemClicked.connect(self._chosen)
-        self.hint = QLabel(EMPTY_HINT)
-        self.hint.setWordWrap(True)
-        self.hint.hide()
-        self.title = QLabel("No folder open")
-        self.title.setStyleSheet("font-weight: bold;")
-        self.title.setWordWrap(True)
-        self.where = QLabel()  #: where the folder is (the sample fleet's copy lives in the app's data folder)
-        self.where.setStyleSheet("color: #555;")
-        self.where.setWordWrap(True)
-        self.where.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
-        self.where.hide()
-        self._current: Path | None = None  #: the profile highlighted: the one being edited
-        self.open_folder = QPushButton("Open folder…")
-        self.reload = QPushButton("Reload")
-        self.reload.clicked.connect(lambda: self.folder and self.show_folder(self.folder, self._current))
-        buttons = QHBoxLayout()
-        buttons.addWidget(self.open_folder)
-        buttons.addWidget(self.reload)
-        box = QVBoxLayout(self)
-        box.setContentsMargins(0, 0, 0, 0)
-        box.addWidget(self.title)
-        box.addWidget(self.where)
-        box.addWidget(self.hint)
-        box.addWidget(self.tree)
-        box.addLayout(buttons)
+        self._rows: list[Row] = []
 
-    def show_folder(self, folder: Path, current: Path | None = None) -> None:
-        """List the folder's profiles at once (registration and model as written); their marks follow, one
-        profile checked per event-loop turn, so a large fleet never holds the window up."""
+    # --- listing ---------------------------------------------------------------------------------
+    def list_folder(self, folder: Path) -> None:
+        """The folder's profiles, sorted by registration, unchecked (a duplicate registration is marked at once)."""
+        self.beginResetModel()
         self.folder = Path(folder)
-        self._current = Path(current) if current is not None else None
-        self.title.setText(f"Fleet: {self.folder.name}")
-        self.title.setToolTip(str(self.folder))
-        self.where.setText(shown_folder(self.folder.parent))
-        self.where.setToolTip(str(self.folder))
-        self.where.show()
-        self._items: dict[str, QTreeWidgetItem] = {}  # emptied with the tree, whose clear() deletes the items
-        self._unchecked = []
-        self.tree.clear()
-        written = []
+        rows, written = [], []
         for path in profile_files(self.folder):
             source = read_source(path)
             aircraft = (source.data or {}).get("aircraft")
             aircraft = aircraft if isinstance(aircraft, dict) else {}
             registration, model = aircraft.get("registration"), aircraft.get("model")
-            item = QTreeWidgetItem(["", registration if isinstance(registration, str) else path.stem,
-                                    model if isinstance(model, str) else "cannot be read"])
-            item.setData(0, PATH_ROLE, str(path))
+            rows.append(Row(path, registration if isinstance(registration, str) else path.stem,
+                            model if isinstance(model, str) else UNREADABLE, source))
             written.append((registration if isinstance(registration, str) and registration.strip() else None, path))
-            item.setToolTip(1, str(path))
-            item.setToolTip(2, item.text(2))
-            self.tree.addTopLevelItem(item)
-            self._unchecked.append(str(path))
-            self._items[str(path)] = item
-            if current is not None and Path(current) == path:
-                self.tree.setCurrentItem(item)
-        self._duplicates = {str(path): f"{registration} is also the registration of {others(path, files)}: "
-                            "compare and one card per aircraft cannot tell them apart"
-                            for registration, files in duplicates(written).items() for path in files}
-        for path, why in self._duplicates.items():
-            self._mark_duplicate(self._items[path], why)
-        self.tree.sortItems(1, Qt.SortOrder.AscendingOrder)
-        self.tree.resizeColumnToContents(1)
-        self.hint.setVisible(not self._unchecked)
-        self.tree.setVisible(bool(self._unchecked))
-        self._check_timer.start(CHECK_DELAY_MS)  # the list paints first; then one profile per turn
+        why = {path: f"{registration} is also the registration of {others(path, files)}: compare and one card per "
+                     "aircraft cannot tell them apart"
+               for registration, files in duplicates(written).items() for path in files}
+        for row in rows:
+            row.duplicate = why.get(row.path, "")
+            row.mark = DUPLICATE if row.duplicate else ""
+        self._rows = sorted(rows, key=lambda r: (r.registration, str(r.path)))
+        self.endResetModel()
 
-    def _check_next(self) -> None:
-        if self._unchecked:
-            self._mark(self._unchecked.pop(0))
-            self._check_timer.start(0)
-        else:
-            self.checked.emit()
+    def forget_checks(self) -> None:
+        """Every mark is to be made again (the card style changed, and with it what a profile's card can be)."""
+        for row in self._rows:
+            row.problems, row.fingerprint, row.checked = (), "", False
+            row.mark = DUPLICATE if row.duplicate else ""
+        self._changed(0, len(self._rows) - 1)
 
-    def recheck(self) -> None:
-        """Check every listed profile again (the card style changed, and with it what a profile's card can be)."""
-        for path, item in self._items.items():
-            item.setIcon(0, QIcon())
-            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, None)
-            item.setToolTip(0, "")
-            if path in self._duplicates:
-                self._mark_duplicate(item, self._duplicates[path])
-        self._unchecked = list(self._items)
-        self._check_timer.start(0)
-
-    def check_all(self) -> None:
-        """Give every listed profile its mark now (a test, or before a whole-fleet action)."""
-        self._check_timer.stop()
-        while self._unchecked:
-            self._mark(self._unchecked.pop(0))
-        self.checked.emit()
-
-    def _item(self, path: str) -> QTreeWidgetItem | None:
-        return self._items.get(path)
-
-    def _mark(self, path: str) -> None:
-        item = self._item(path)
-        if item is None:
+    def set_checked(self, path: Path, prepared) -> None:
+        """What the pipeline found for `path` (a `pipeline.Prepared`): its mark, the reasons and its fingerprint."""
+        i = self.row_of(path)
+        if i < 0:
             return
-        prepared = self._prepare(read_source(Path(path)))
-        style = self.style()
-        if prepared.fingerprint:  # what a printed card of this aircraft carries beside its date
-            item.setToolTip(1, f"{path}\nfingerprint {prepared.fingerprint}")
-        duplicate = [self._duplicates[path]] if path in self._duplicates else []
+        row = self._rows[i]
+        duplicate = [row.duplicate] if row.duplicate else []
         if prepared.errors:
-            item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxCritical))
-            item.setToolTip(0, "\n".join(duplicate + [str(p.path) + ": " + p.message for p in prepared.errors[:8]]))
-            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, "has errors")
-        elif duplicate or prepared.warnings:
-            # a warning in the words the card prints it in (`Problem.plain`), as a pilot reads it
-            item.setIcon(0, style.standardIcon(QStyle.StandardPixmap.SP_MessageBoxWarning))
-            item.setToolTip(0, "\n".join(duplicate + [p.plain or (str(p.path) + ": " + p.message)
-                                                       for p in prepared.warnings[:8]]))
-            item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole,
-                         DUPLICATE if duplicate else "has warnings")
+            row.mark = ERROR
+            row.problems = tuple(duplicate + [f"{p.path}: {p.message}" for p in prepared.errors[:MOST_SHOWN]])
+        else:  # a warning in the words the card prints it in (`Problem.plain`), as a pilot reads it
+            row.mark = DUPLICATE if duplicate else (WARNING if prepared.warnings else "")
+            row.problems = tuple(duplicate + [p.plain or f"{p.path}: {p.message}"
+                                              for p in prepared.warnings[:MOST_SHOWN]])
+        row.fingerprint, row.checked = prepared.fingerprint, True
+        self._changed(i, i)
 
-    def _mark_duplicate(self, item: QTreeWidgetItem, why: str) -> None:
-        """A profile whose registration another profile of the folder has: marked, and both named, at once."""
-        item.setIcon(0, self.style().standardIcon(QStyle.StandardPixmap.SP_MessageBoxWarning))
-        item.setToolTip(0, why)
-        item.setData(1, Qt.ItemDataRole.AccessibleDescriptionRole, DUPLICATE)
+    # --- reading ---------------------------------------------------------------------------------
+    def paths(self) -> list[Path]:
+        return [row.path for row in self._rows]
 
-    def rows(self) -> list[tuple[str, str, str]]:
-        """(mark, registration, path) per row: mark is "error", "duplicate registration", "warning" or ""."""
-        out = []
-        for i in range(self.tree.topLevelItemCount()):
-            item = self.tree.topLevelItem(i)
-            mark = item.data(1, Qt.ItemDataRole.AccessibleDescriptionRole) or ""
-            out.append((mark.replace("has ", "").rstrip("s"), item.text(1), item.data(0, PATH_ROLE)))
-        return out
+    def row_of(self, path: Path | None) -> int:
+        """The row of the profile at `path`; -1 when it is not listed."""
+        if path is None:
+            return -1
+        return next((i for i, row in enumerate(self._rows) if row.path == Path(path)), -1)
 
-    def select(self, path: Path | None) -> None:
-        """Highlight the profile at `path`; None (a new profile, not in the fleet): highlight none."""
-        self._current = Path(path) if path is not None else None
-        for i in range(self.tree.topLevelItemCount()):
-            item = self.tree.topLevelItem(i)
-            if path is not None and item.data(0, PATH_ROLE) == str(path):
-                self.tree.setCurrentItem(item)
-                return
-        self.tree.setCurrentItem(None)
-        self.tree.clearSelection()
+    def source(self, path: Path) -> Source | None:
+        """The file as it was read for the list."""
+        i = self.row_of(path)
+        return self._rows[i].source if i >= 0 else None
 
-    def _chosen(self, item, _column=0):
-        self.opened.emit(Path(item.data(0, PATH_ROLE)))
+    # --- the model -------------------------------------------------------------------------------
+    def rowCount(self, parent=QModelIndex()) -> int:  # noqa: N802, B008 - Qt's name and signature
+        return 0 if parent.isValid() else len(self._rows)
+
+    def columnCount(self, parent=QModelIndex()) -> int:  # noqa: N802, B008 - Qt's name and signature
+        return 0 if parent.isValid() else len(COLUMNS)
+
+    def headerData(self, section, orientation, role=Qt.ItemDataRole.DisplayRole):  # noqa: N802 - Qt's name
+        if orientation == Qt.Orientation.Horizontal and role == Qt.ItemDataRole.DisplayRole:
+            return COLUMNS[section]
+        return None
+
+    def data(self, index: QModelIndex | QPersistentModelIndex, role=Qt.ItemDataRole.DisplayRole):
+        if not index.isValid() or not 0 <= index.row() < len(self._rows):
+            return None
+        row, column = self._rows[index.row()], index.column()
+        named = {REGISTRATION_ROLE: row.registration, MODEL_ROLE: row.model, PATH_ROLE: row.path,
+                 PROBLEMS_ROLE: list(row.problems), MARK_ROLE: row.mark, FINGERPRINT_ROLE: row.fingerprint,
+                 CHECKED_ROLE: row.checked}
+        if role in named:
+            return named[role]
+        if role == Qt.ItemDataRole.DisplayRole:
+            return {REGISTRATION_COLUMN: row.registration, MODEL_COLUMN: row.model}.get(column, "")
+        if role == Qt.ItemDataRole.ToolTipRole:
+            if column == MARK_COLUMN:
+                return "\n".join(row.problems or ([row.duplicate] if row.duplicate else []))
+            if column == REGISTRATION_COLUMN:  # the fingerprint: what a printed card of this aircraft carries
+                return f"{row.path}\nfingerprint {row.fingerprint}" if row.fingerprint else str(row.path)
+            return row.model
+        if role == Qt.ItemDataRole.AccessibleDescriptionRole and column == MARK_COLUMN:
+            return row.mark  # what a screen reader says for the mark's icon
+        return None
+
+    def _changed(self, first: int, last: int) -> None:
+        if last >= first:
+            self.dataChanged.emit(self.index(first, 0), self.index(last, len(COLUMNS) - 1))
 
 
 def shown_folder(folder: Path) -> str:

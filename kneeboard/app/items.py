@@ -4,9 +4,8 @@ The amount column takes "80 kg" or "60 L": a volume makes the item a volume (wit
 column, default aviation gasoline), anything else is stored as its mass, exactly as typed.
 """
 
-
-from kneeboard import units
 from kneeboard.app.fields import TableField
+from kneeboard.app.hints import is_volume
 
 COLUMNS = ("Item", "Mass or volume", "Density")  #: a density is only read for a volume
 
@@ -32,7 +31,7 @@ class ItemsField(TableField):
         out = []
         for name, amount, density in rows:
             item = {"name": name}
-            if _is_volume(amount):
+            if is_volume(amount):
                 item["volume"] = amount
                 if density.strip():
                     item["density"] = density
@@ -44,10 +43,3 @@ class ItemsField(TableField):
     def new_row(self) -> list[str]:
         return ["New item", "0 kg", ""]
 
-
-def _is_volume(text: str) -> bool:
-    try:
-        units.parse(text, units.VOLUME)
-        return True
-    except units.QuantityError:
-        return False

@@ -19,7 +19,8 @@ def run(target: str | None = None) -> int:
     app.setApplicationName("kneeboard")
     app.setOrganizationName("kneeboard")
     window = MainWindow()
-    last = window.settings.value("last_folder")
+    controller = window.controller
+    last = controller.settings.value("last_folder")
     if target is not None and not Path(target).exists():
         print(f"kneeboard: {target}: no such file or folder", file=sys.stderr)
         return 2
@@ -29,16 +30,16 @@ def run(target: str | None = None) -> int:
     # The window is on screen before the units library, numpy and the card machinery load; the fleet's list
     # follows on the next turn of the event loop, then the first profile and its card, then each profile's mark.
     def fleet_shown() -> None:
-        window.show_fleet(start)
+        controller.show_fleet(start)
         if os.environ.get("KNEEBOARD_STARTUP_PROBE"):  # the benchmark: report when the fleet is shown, then quit
             QTimer.singleShot(0, lambda: _probe_and_quit(app))
             return
         QTimer.singleShot(0, first_profile)
 
     def first_profile() -> None:
-        window.open_path(start)
-        show_caution_once(window, window.settings)
-        window.offer_recovery()
+        controller.open_path(start)
+        show_caution_once(window, controller.settings)
+        controller.offer_recovery()
 
     QTimer.singleShot(0, fleet_shown)
     return app.exec()

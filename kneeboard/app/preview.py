@@ -1,44 +1,33 @@
-"""The live card preview: the card's own PDF bytes, built off the GUI thread and shown with QtPdf.
+"""The card viewer: the card's own PDF bytes shown with QtPdf, with page, zoom and mode controls.
 
-There is one renderer: a job returns exactly the bytes that would be written or printed, and this
-widget only displays them. This is the only module of the app that imports QtPdf.
-
-Threading: a job runs on the global QThreadPool. At most one job of a widget runs and at most one
-waits (the newest; those in between are dropped unseen); a result older than the newest request
-is dropped too. Results reach the GUI thread through a relay owned by the application, not by the
-widget, so a result arriving after the widget is gone finds a living receiver that discards it.
+There is one renderer: the bytes shown are exactly the bytes that would be written or printed, and this widget
+only displays them; the renders that make them run elsewhere (`preview_jobs.Renders`, scheduled by the controller).
+This is the only module of the app that imports QtPdf.
 """
 
-from time import perf_counter
-
-import shiboken6
 from PySide6.QtCore import (
     QBuffer,
     QByteArray,
-    QEventLoop,
     QIODevice,
     QObject,
     QPointF,
-    QSize,
     QSizeF,
     Qt,
-    QThreadPool,
     QTimer,
     Signal,
 )
-from PySide6.QtGui import QAction, QActionGroup, QColor, QImage, QKeySequence, QPainter
+from PySide6.QtGui import QAction, QActionGroup, QKeySequence
 from PySide6.QtPdf import QPdfDocument
 from PySide6.QtPdfWidgets import QPdfView
 from PySide6.QtWidgets import QComboBox, QGridLayout, QLabel, QSizePolicy, QToolBar, QVBoxLayout, QWidget
 
 from kneeboard.app.pages import page_labels
-from kneeboard.app.preview_jobs import Job, Relay, Request, Runner
 
 __all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
 
 #: Custom zoom factors the zoom buttons step through (1.0 = the page at its true size on screen).
 ZOOM_STEPS = (0.25, 0.33, 0.5, 0.67, 0.75, 0.9, 1.0, 1.1, 1.25, 1.5, 1.75, 2.0, 2.5, 3.0, 4.0)
-#: What the preview can show: (mode, label). The window decides which job each mode sends.
+#: What the preview can show: (mode, label). The controller decides which card each mode renders.
 MODES = (("card", "Card"), ("letter", "Sheet (Letter)"), ("a4", "Sheet (A4)"))
 BUSY_DELAY_MS = 300  #: renders quicker than this never flash the "Updating" note
 
@@ -69,33 +58,23 @@ class CardPreview(QWidget):
 
     Signals
     -------
-    rendered(int generation, float milliseconds)
-        A new PDF is shown; the time runs from its `request()` to the page being ready.
     failed(str message)
-        The newest job raised; the message is shown over the last good page, which stays.
+        Bytes given to `show_pdf` could not be read; the message is shown over the last good page, which stays.
     modeChanged(str mode)
-        The user chose "card", "letter" or "a4"; the window answers with a new `request()`.
+        The user chose "card", "letter" or "a4"; the controller answers with a new render.
 
     Child widgets have object names for tests and style sheets: ``previewView``, ``previewError``,
     ``pageSelector``, ``modeSelector``, and the actions ``zoomOut``, ``zoomIn``, ``fitWidth``,
     ``wholePage``.
     """
 
-    rendered = Signal(int, float)
     failed = Signal(str)
     modeChanged = Signal(str)
 
     def __init__(self, parent: QWidget | None = None):
         super().__init__(parent)
-        self._generation = 0  #: the newest generation requested
-        self.shown_generation = 0  #: the generation of the PDF shown now (0: none)
-        self._running: Request | None = None
-        self._pending: Request | None = None
         self._doc: QPdfDocument | None = None
         self._pdf: bytes | None = None
-        self._idle_waiters: list[QEventLoop] = []  #: wait_idle() loops to end when the work is done
-        self._relay = Relay(self)
-        self.destroyed.connect(self._relay.detach)
         self._busy_timer = QTimer(self, singleShot=True, interval=BUSY_DELAY_MS)
         self._busy_timer.timeout.connect(lambda: self._busy_action.setVisible(True))
 
@@ -272,69 +251,29 @@ class CardPreview(QWidget):
         self._pages.blockSignals(False)
         self._pages_action.setVisible(count > 1)
 
-    # ------------------------------------------------------------------ jobs
+    # ------------------------------------------------------------------ what to show
 
-    def request(self, job: Job) -> int:
-        """Schedule `job` (it builds the PDF bytes) on a worker thread; returns its generation.
-
-        Never blocks. If a job is running, `job` waits in its place; a job already waiting is
-        dropped without running, since its result would be stale before it was shown.
-        """
-        self._generation += 1
-        request = Request(self._generation, job, perf_counter())
-        if self._running is None:
-            self._start(request)
-        else:
-            self._pending = request
-        return request.generation
-
-    def _start(self, request: Request) -> None:
-        self._running = request
-        self._relay.outstanding += 1
-        if not self._busy_timer.isActive() and not self._busy_action.isVisible():
-            self._busy_timer.start()
-        QThreadPool.globalInstance().start(Runner(request, self._relay))
-
-    def _finished(self, generation: int, data: bytes | None, error: str) -> None:
-        """A job came back (GUI thread): show it unless a newer one was asked for since."""
-        request, self._running = self._running, None
-        if generation == self._generation and request is not None:
-            if data is not None:
-                self._show(data, request)
-            else:
-                self._show_error(error)
-        if self._pending is not None:
-            request, self._pending = self._pending, None
-            self._start(request)
+    def set_busy(self, busy: bool) -> None:
+        """A render is running for this view: "Updating" shows once it has taken longer than BUSY_DELAY_MS."""
+        if busy:
+            if not self._busy_timer.isActive() and not self._busy_action.isVisible():
+                self._busy_timer.start()
         else:
             self._busy_timer.stop()
             self._busy_action.setVisible(False)
-        self._wake_waiters()
 
-    def _working(self) -> bool:
-        """Whether a render whose result is still wanted runs or waits. One cancelled by clear() or mark_stale(),
-        or one whose widget was deleted, is not: it ends on its own, and its result is dropped when it comes."""
-        if not shiboken6.isValid(self):
-            return False  # the widget is gone: its relay drops whatever still comes back
-        running = self._running is not None and self._running.generation == self._generation
-        return running or self._pending is not None
-
-    def _wake_waiters(self) -> None:
-        if not self._working():
-            for loop in self._idle_waiters:
-                loop.quit()
-
-    def _show(self, data: bytes, request: Request) -> None:
+    def show_pdf(self, data: bytes) -> bool:
+        """Show `data`, a card's PDF, as current; False (and the reason shown over the last good page) when it
+        cannot be read."""
         try:
             doc = open_pdf(data, self)
         except ValueError as exc:
-            self._show_error(f"The preview could not show this card: {exc}.")
-            return
+            self.show_error(f"The preview could not show this card: {exc}.")
+            return False
         # a new render of the same card must not move the reader: keep page, zoom and scroll
         page = max(0, self.current_page())
         scroll = (self._view.horizontalScrollBar().value(), self._view.verticalScrollBar().value())
         self._doc, self._pdf = doc, data
-        self.shown_generation = request.generation
         view = self._replace_view(doc)
         page = min(page, doc.pageCount() - 1)
         if view.pageNavigator().currentPage() != page:
@@ -344,7 +283,7 @@ class CardPreview(QWidget):
         self._fill_page_selector(doc.pageCount(), page)
         self._error.hide()
         self._sync_zoom_controls()
-        self.rendered.emit(request.generation, (perf_counter() - request.started) * 1000.0)
+        return True
 
     def _replace_view(self, doc: QPdfDocument | None) -> QPdfView:
         """Show `doc` in the resting view and put the shown one to rest; returns the view now shown.
@@ -375,50 +314,26 @@ class CardPreview(QWidget):
         self._error.raise_()
         return view
 
-    def _show_error(self, message: str) -> None:
-        self._error_text.setText(message)
-        self._error.show()
-        self._error.raise_()
+    def show_error(self, message: str) -> None:
+        """The newest card could not be made: `message` over the last good page, which stays, greyed."""
+        self.mark_stale(message)
         self.failed.emit(message)
 
     def mark_stale(self, message: str) -> None:
-        """The page shown is no longer the card as it prints: grey it under `message`, and drop every render still
-        running or waiting, since each is of data older than what made the card stale. The next request() that
-        finishes shows its card as current again."""
-        self._generation += 1
-        self._pending = None
+        """The page shown is no longer the card as it prints: grey it under `message`. The next `show_pdf` shows
+        its card as current again."""
         self._error_text.setText(message)
         self._error.show()
         self._error.raise_()
-        self._wake_waiters()
 
     def clear(self) -> None:
-        """Show nothing; results of jobs still running are dropped, a waiting job never runs."""
-        self._generation += 1
-        self._pending = None
+        """Show nothing."""
         self._replace_view(None)  # an empty view is shown; the card shown rests, deleted when its view is reused
         self._doc = self._pdf = None
-        self.shown_generation = 0
         self._error.hide()
         self._fill_page_selector(0, -1)
-        self._wake_waiters()
 
-    def wait_idle(self, timeout_ms: int = 5000) -> bool:
-        """Process events until no job whose result is wanted runs or waits (for tests); False if `timeout_ms`
-        ran out first. A render cancelled by clear() or mark_stale() is not waited for."""
-        if not self._working():
-            return True
-        loop = QEventLoop()
-        timer = QTimer(singleShot=True, interval=timeout_ms)
-        timer.timeout.connect(loop.quit)
-        self._idle_waiters.append(loop)
-        timer.start()
-        loop.exec()
-        timer.stop()
-        self._idle_waiters.remove(loop)
-        return not self._working()
-
-    # ------------------------------------------------------------------ what is shown
+    # ------------------------------------------------------------------ what is shown now
 
     def pdf_bytes(self) -> bytes | None:
         """The PDF shown now (the last good one while an error is displayed), or None."""
@@ -462,19 +377,6 @@ class CardPreview(QWidget):
         if index < 0:
             raise ValueError(f"unknown preview mode {mode!r}; expected one of {[m for m, _ in MODES]}")
         self._modes.setCurrentIndex(index)
-
-    def image(self, page: int = 0, dpi: float = 60) -> QImage:
-        """Page `page` of the shown PDF rendered at `dpi` on white (for tests and screenshots)."""
-        self._check_page(page)
-        points = self._doc.pagePointSize(page)
-        size = QSize(max(1, round(points.width() * dpi / 72)), max(1, round(points.height() * dpi / 72)))
-        # QtPdf leaves the paper transparent; a screenshot wants the white of the card
-        flat = QImage(size, QImage.Format.Format_RGB32)
-        flat.fill(QColor("white"))
-        painter = QPainter(flat)
-        painter.drawImage(0, 0, self._doc.render(page, size))
-        painter.end()
-        return flat
 
     def _check_page(self, i: int) -> None:
         if not 0 <= i < self.page_count():

@@ -1,9 +1,10 @@
 """What the app works on, without a widget: the fleet folder, the card style by the one rule, the open profile
 through the pipeline, and the figures of the cards this session printed.
 
-The window shows a `Session`; tests drive one without any window. Every figure the app shows comes from
-`kneeboard.pipeline`, exactly as the command line gets it: the same style rule (`Styles`: a chosen style file,
-else the folder's `fleet.style.toml`, else the shipped default), the same validation, the same card.
+The controller (`app.controller.Controller`) works through a `Session`, and so do its tests, without any window.
+Every figure the app shows comes from `kneeboard.pipeline`, exactly as the command line gets it: the same style rule
+(`Styles`: a chosen style file, else the folder's `fleet.style.toml`, else the shipped default), the same
+validation, the same card.
 """
 
 from __future__ import annotations

@@ -3,7 +3,8 @@
 Another program (here: a plain write, or fileio's atomic replace as an editor would do it) or a
 second window changes the open file; the document notices (watcher and a check before every
 save), and the window asks through its `ask_conflict` hook: reload theirs, keep mine, save mine
-elsewhere, or cancel. Nothing either side wrote is lost.
+elsewhere, or cancel. Nothing either side wrote is lost. The document is tested here, the answers
+without a window in tests/test_app_controller.py.
 """
 
 import os
@@ -30,18 +31,6 @@ def theirs(text: str) -> str:
 
 def edit(window, text="1450 lb"):
     window.editor.fields["weight.total"].edited.emit(text)
-
-
-def second_window(qtbot, settings, tmp_path, path):
-    from kneeboard.app.window import MainWindow
-
-    w = MainWindow(settings, recovery_dir=tmp_path / "recovery2")
-    qtbot.addWidget(w)
-    w.problems_seen = []
-    w.show_problems = lambda title, text: w.problems_seen.append((title, text))
-    w.ask_unsaved = lambda: "discard"
-    assert w.open_profile(path)
-    return w
 
 
 # --- the document -------------------------------------------------------------------------------
@@ -132,79 +121,17 @@ def test_a_linked_profile_is_saved_at_its_target(qtbot, open_document, tmp_path,
 
 
 # --- the window ----------------------------------------------------------------------------------
+# Each answer, two apps on one file and the watcher's question are tested without a window
+# (tests/test_app_controller.py); here File › Save asks, as a person meets it.
 
 
-def test_an_unedited_window_takes_their_change_and_undo_brings_back_the_old(qtbot, window, fleet):
-    path = fleet / "demo_trainer.toml"
-    before = path.read_text()
-    asked = []
-    window.ask_conflict = lambda: asked.append(1) or "cancel"
-    fileio.write_atomic(path, before.replace("DEMO-TRN", "DEMO-TRX"))
-    qtbot.waitUntil(lambda: window.doc.text() == path.read_text(), timeout=WATCH_MS)
-    assert asked == [] and not window.doc.modified
-    assert window.doc.loaded.profile.aircraft.registration == "DEMO-TRX"
-    window.doc.undo_stack.undo()
-    assert window.doc.text() == before
-
-
-def test_an_edited_window_asks_and_cancel_keeps_both(qtbot, window, fleet):
+def test_file_save_asks_when_the_file_changed_on_disk(qtbot, window, fleet):
     path = fleet / "demo_trainer.toml"
     edit(window)
     mine = window.doc.text()
-    answers = ["cancel", "cancel"]
-    window.ask_conflict = lambda: answers.pop(0)
     other = path.read_text().replace("DEMO-TRN", "DEMO-TRX")
+    window.conflicts.extend(["cancel", "overwrite"])  # the watcher's question: not now; then File › Save's
     fileio.write_atomic(path, other)
-    qtbot.waitUntil(lambda: answers == ["cancel"], timeout=WATCH_MS)  # the watcher asked
-    assert window.doc.text() == mine
-    assert window.save() is False and answers == []  # the save asked again
-    assert path.read_text() == other and window.doc.text() == mine and window.doc.modified
-
-
-@pytest.mark.parametrize("answer", ["reload", "overwrite", "save-as"])
-def test_each_answer_on_save(qtbot, window, fleet, tmp_path, answer):
-    path = fleet / "demo_trainer.toml"
-    window.ask_conflict = lambda: "cancel"  # the watcher's question: not now
-    edit(window)
-    mine = window.doc.text()
-    other = path.read_text().replace("DEMO-TRN", "DEMO-TRX")
-    path.write_text(other)
-    window.ask_conflict = lambda: answer
-    elsewhere = tmp_path / "mine.toml"
-    window.ask_save_path = lambda *args: elsewhere
-    saved = window.save()
-    if answer == "reload":
-        assert saved is False and window.doc.text() == other and path.read_text() == other
-        window.doc.undo_stack.undo()
-        assert window.doc.text() == mine
-    elif answer == "overwrite":
-        assert saved and path.read_text() == mine and not window.doc.modified
-    else:
-        assert saved and elsewhere.read_text() == mine and path.read_text() == other
-        assert window.doc.path == elsewhere
-
-
-def test_two_windows_on_one_file_never_overwrite_each_other(qtbot, window, settings, tmp_path, fleet):
-    path = fleet / "demo_trainer.toml"
-    w2 = second_window(qtbot, settings, tmp_path, path)
-    asked = {window: [], w2: []}
-    window.ask_conflict = lambda: asked[window].append("cancel") or "cancel"
-    w2.ask_conflict = lambda: asked[w2].append("cancel") or "cancel"
-    edit(window, "1450 lb")
-    w2.editor.fields["aircraft.model"].edited.emit("Renamed in the second window (invented)")
-    mine2 = w2.doc.text()
-    assert window.save()  # the first save meets no change
-    first = path.read_text()
-    assert "1450 lb" in first
-    qtbot.waitUntil(lambda: asked[w2] == ["cancel"], timeout=WATCH_MS)  # the second window was told at once
-    assert w2.save() is False and path.read_text() == first  # and its save asks instead of overwriting
-    w2.ask_conflict = lambda: "reload"
-    assert w2.save() is False
-    assert w2.doc.text() == first and "1450 lb" in w2.doc.text()
-    w2.doc.undo_stack.undo()
-    assert w2.doc.text() == mine2  # the second window's own edit is one undo away
-    w2.ask_conflict = lambda: "overwrite"
-    assert w2.save() and path.read_text() == mine2
-    # the first window, unedited since its save, takes the second's file
-    qtbot.waitUntil(lambda: window.doc.text() == mine2, timeout=WATCH_MS)
-    assert asked[window] == []
+    qtbot.waitUntil(lambda: window.conflicts == ["overwrite"], timeout=WATCH_MS)
+    window.act_save.trigger()
+    assert window.conflicts == [] and path.read_text() == mine and not window.isWindowModified()

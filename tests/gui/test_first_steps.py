@@ -12,9 +12,10 @@ from kneeboard.pipeline import PLACEHOLDER
 
 def highlighted(window) -> list[str]:
     """The registrations the fleet highlights: selected or current (where the keyboard is)."""
-    current = window.fleet.tree.currentItem()
-    return sorted({item.text(1) for item in window.fleet.tree.selectedItems()} | ({current.text(1)} if current else
-                                                                                  set()))
+    tree = window.fleet.tree
+    rows = {index.row() for index in tree.selectionModel().selectedRows()}
+    rows |= {tree.currentIndex().row()} if tree.currentIndex().isValid() else set()
+    return sorted(tree.model().index(row, 1).data() for row in rows)
 
 
 def test_ctrl_n_asks_the_category_offering_the_open_ones_and_opens_its_template(qtbot, window):
@@ -70,9 +71,10 @@ def test_the_fleet_highlights_the_profile_being_edited(qtbot, window, fleet):
     assert window.doc.modified and highlighted(window) == []
     # a click on an aircraft, then Cancel at "save the changes?": the new profile stays, and nothing is highlighted
     window.answers.append("cancel")
-    tourer = next(window.fleet.tree.topLevelItem(i) for i in range(window.fleet.tree.topLevelItemCount())
-                  if window.fleet.tree.topLevelItem(i).text(1) == "DEMO-TOUR")
-    rect = window.fleet.tree.visualItemRect(tourer)
+    tree = window.fleet.tree
+    tourer = next(tree.model().index(i, 1) for i in range(tree.model().rowCount())
+                  if tree.model().index(i, 1).data() == "DEMO-TOUR")
+    rect = tree.visualRect(tourer)
     qtbot.mouseClick(window.fleet.tree.viewport(), Qt.MouseButton.LeftButton, pos=rect.center())
     assert window.doc.path is None and highlighted(window) == []
     window.ask_save_path = lambda *_: fleet / "mine.toml"
@@ -108,7 +110,8 @@ def test_the_sample_fleet_lives_in_one_kneeboard_folder_and_the_fleet_says_where
     folder = sample_fleet()
     assert folder == data_folder() / "sample fleet" and len(list(folder.glob("demo_*.toml"))) == 5
     assert (folder / "fleet.style.toml").is_file()  # the fleet's style, to edit
-    window.open_folder(folder)
+    window.ask_folder = lambda *_: folder
+    window.act_open_folder.trigger()
     assert window.fleet.title.text() == "Fleet: sample fleet"
     assert window.fleet.where.isVisible() and window.fleet.where.text() == "in ~/.local/share/kneeboard"
     assert window.fleet.where.toolTip() == str(Path(folder))

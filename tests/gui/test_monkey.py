@@ -90,8 +90,8 @@ def test_thousands_of_random_edits(qtbot, window):
         else:
             assert not ed.problem_list.isVisible() or loaded.warnings
         if step % 250 == 0:
-            qtbot.wait(window.timer.interval() + 5)  # let the preview catch up now and then
-    assert window.preview.wait_idle(20_000)
+            qtbot.wait(window.controller.timer.interval() + 5)  # let the preview catch up now and then
+    qtbot.waitUntil(lambda: not window.controller.renders.busy(), timeout=20_000)
     assert all(n > STEPS // 60 for n in done.values()), done
     while window.doc.undo_stack.canUndo():
         window.doc.undo_stack.undo()

@@ -4,11 +4,9 @@ The pixels on screen are compared with a fresh preview of the exported bytes: a 
 of an earlier card, say) fails, whatever the widget believes it shows.
 """
 
-import threading
-
 import numpy as np
-import pytest
 from card_helpers import card_of
+from conftest import settle
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QImage
 from PySide6.QtTest import QTest
@@ -52,8 +50,7 @@ def pixels_of(qtbot, pdf: bytes, like: CardPreview) -> QImage:
     qtbot.addWidget(reference)
     reference.resize(like.size())
     reference.show()
-    with qtbot.waitSignal(reference.rendered, timeout=WAIT_MS):
-        reference.request(lambda: pdf)
+    assert reference.show_pdf(pdf)
     return view_pixels(qtbot, reference)
 
 
@@ -64,19 +61,14 @@ def type_and_tab(field, text: str) -> None:
     QTest.keyClick(field.input, Qt.Key.Key_Tab)
 
 
-def settle(qtbot, window) -> None:
-    qtbot.wait(window.timer.interval() + 20)
-    assert window.preview.wait_idle(WAIT_MS)
-
-
 def test_the_page_on_screen_is_the_exported_card_in_20_of_20_tries(qtbot, window, tmp_path):
     """The reported steps: a new profile from the normal template, a maximum weight, Tab, a VA, Tab; then export."""
     for attempt in range(20):
         window.act_new["normal"].trigger()
-        settle(qtbot, window)
+        settle(qtbot, window.controller)
         type_and_tab(window.editor.fields["aircraft.max_weight"], f"{1010 + 10 * attempt} kg")
         type_and_tab(window.editor.fields["aircraft.maneuvering_speed"], f"{101 + attempt} kt")
-        settle(qtbot, window)
+        settle(qtbot, window.controller)
         out = tmp_path / f"card{attempt}.pdf"
         window.ask_save_path = lambda *_args, out=out: out
         window.act_export.trigger()
@@ -96,23 +88,21 @@ def test_a_page_drawn_for_the_previous_card_never_shows_as_the_new_one(qtbot):
     preview.show()
     for attempt in range(20):
         old, new = cards[attempt % 2], cards[1 - attempt % 2]
-        with qtbot.waitSignal(preview.rendered, timeout=WAIT_MS):
-            preview.request(lambda old=old: old)
+        assert preview.show_pdf(old)
         preview.findChild(QWidget, "previewView").viewport().repaint()  # the old page goes to the view's renderer
-        with qtbot.waitSignal(preview.rendered, timeout=WAIT_MS):
-            preview.request(lambda new=new: new)
+        assert preview.show_pdf(new)
         assert preview.pdf_bytes() == new
         assert view_pixels(qtbot, preview) == pixels_of(qtbot, new, preview), attempt
 
 
 def test_an_input_error_greys_the_last_card_and_says_it_is_not_current(qtbot, window, tmp_path):
-    settle(qtbot, window)
+    settle(qtbot, window.controller)
     good = window.preview.pdf_bytes()
     field = window.editor.fields["weight.total"]
     field.input.setFocus()
     field.input.selectAll()
     QTest.keyClicks(field.input, "1450 kt")  # a speed for a weight: an error
-    settle(qtbot, window)
+    settle(qtbot, window.controller)
     veil = window.preview.findChild(QWidget, "previewError")
     assert veil.isVisible()
     assert "NOT CURRENT" in window.preview.error_text() and "1 error" in window.preview.error_text()
@@ -124,68 +114,20 @@ def test_an_input_error_greys_the_last_card_and_says_it_is_not_current(qtbot, wi
     # the value as it was (the very card under the veil) is current again, drawn anew
     field.input.selectAll()
     QTest.keyClicks(field.input, "1560 lb")
-    settle(qtbot, window)
+    settle(qtbot, window.controller)
     assert window.preview.error_text() == "" and not veil.isVisible()
     assert window.preview.pdf_bytes() == good
 
 
 def test_a_render_running_when_the_profile_breaks_does_not_clear_the_mark(qtbot, window):
     """An edit starts a render, the next edit breaks the profile before it ends: the finished render is dropped."""
-    settle(qtbot, window)
+    settle(qtbot, window.controller)
     weight = window.editor.fields["weight.total"]
     weight.input.setFocus()
     weight.input.selectAll()
     QTest.keyClicks(weight.input, "1500 lb")
-    qtbot.wait(window.timer.interval() + 5)  # its render is running now
+    qtbot.wait(window.controller.timer.interval() + 5)  # its render is running now
     QTest.keyClicks(weight.input, " kt")  # "1500 lb kt": an error
-    settle(qtbot, window)
+    settle(qtbot, window.controller)
     assert "NOT CURRENT" in window.preview.error_text()
     assert window.preview.findChild(QWidget, "previewError").isVisible()
-
-
-@pytest.mark.parametrize("cancel", ["clear", "mark_stale"])
-def test_waiting_for_renders_never_waits_for_one_that_was_cancelled(qtbot, cancel):
-    """A render cancelled while it runs (its card closed, or made stale by an input error) is dropped when it ends:
-    waiting for the preview's work must not wait for it (test teardowns waited 10 s for such renders)."""
-    preview = CardPreview()
-    qtbot.addWidget(preview)
-    preview.show()
-    released = threading.Event()
-    style, _ = load_style()
-    card = card_pdf(card_of("demo_tourer", style))
-    preview.request(lambda: released.wait(3 * WAIT_MS / 1000) and card)  # blocked until released
-    assert preview.wait_idle(timeout_ms=20) is False  # wanted, and still running
-    if cancel == "clear":
-        preview.clear()
-    else:
-        preview.mark_stale("NOT CURRENT: test")
-    try:
-        assert preview.wait_idle(timeout_ms=2000) is True  # the cancelled render is blocked for 30 s yet
-    finally:
-        released.set()
-    qtbot.wait(50)
-    assert preview.pdf_bytes() is None  # its result was dropped, never shown
-    # a new request after it is waited for, and shown
-    with qtbot.waitSignal(preview.rendered, timeout=WAIT_MS):
-        preview.request(lambda: card)
-    assert preview.pdf_bytes() == card and preview.error_text() == ""
-
-
-def test_waiting_for_renders_of_a_deleted_preview_returns_at_once(qtbot):
-    """pytest-qt deletes a test's window before the fixture's teardown runs: a render running then is dropped with
-    its widget, and the teardown waited 10 s for it (about half the runs of one test)."""
-    import shiboken6
-
-    preview = CardPreview()
-    preview.show()
-    released = threading.Event()
-    style, _ = load_style()
-    card = card_pdf(card_of("demo_tourer", style))
-    preview.request(lambda: released.wait(3 * WAIT_MS / 1000) and card)
-    assert preview.wait_idle(timeout_ms=20) is False
-    shiboken6.delete(preview)
-    try:
-        assert preview.wait_idle(timeout_ms=2000) is True
-    finally:
-        released.set()
-    qtbot.wait(100)  # the dropped result reaches the relay, which discards it
