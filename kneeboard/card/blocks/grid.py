@@ -18,7 +18,6 @@ from kneeboard.printed import BLACK, HATCHED, NO_VALUE, Cell
 __all__ = ["BLACK", "HATCHED", "NO_VALUE", "Cell", "Grid"]
 
 NAME_LINES = 3  #: a configuration's name wraps to at most this many lines
-CONTINUED = "continued"
 
 
 class Grid:
@@ -158,7 +157,8 @@ class Heading:
 
     def draw_again(self, d: Draw, top: float) -> float:
         """The title of a piece that continues the block: "TITLE (continued)"; the figures stay with the first."""
-        d.text(0, top - self.hs, f"{self.title} ({CONTINUED})", HEADING, True, color=self.ctx.style.accent)
+        d.text(0, top - self.hs, self.ctx.tr("{title} (continued)", title=self.title), HEADING, True,
+               color=self.ctx.style.accent)
         return top - self.again
 
 
