@@ -38,6 +38,7 @@ DECIMAL = {"en": ".", "de": ",", "fr": ",", "es": ",", "cs": ",", "pl": ","}
 LOCALE_DIR = Path(__file__).parent / "locale"
 
 _DECIMAL_POINT = re.compile(r"(?<=\d)\.(?=\d)")
+SOFT_HYPHEN = "\u00ad"
 
 
 class Word(str):
@@ -94,20 +95,32 @@ class Translator:
     values too) and fills its values in; `tr.number(text)` writes a figure's decimal separator; `tr.label(label)`
     shows a figure's label."""
 
-    def __init__(self, language: str, catalogue: gettext.NullTranslations):
+    def __init__(self, language: str, catalogue: gettext.NullTranslations, soft_hyphens: bool = False):
         self.language = language
         self.decimal = DECIMAL[language]
         self._catalogue = catalogue
+        self._soft = soft_hyphens
+
+    def _gettext(self, message: str) -> str:
+        text = self._catalogue.gettext(message)
+        return text if self._soft else text.replace(SOFT_HYPHEN, "")
 
     def __call__(self, message: str, /, **params) -> str:
         if isinstance(message, Msg) and not params:
             message, params = message.template, message.params
-        text = self._catalogue.gettext(message) if message else message
+        text = self._gettext(message) if message else message
         return _fill(text, params, self) if params else text
+
+    def pgettext(self, context: str, message: str, /, **params) -> str:
+        """`message` as said in `context` (a narrow column head may take a shorter word than the text does)."""
+        text = self._catalogue.pgettext(context, message)
+        return _fill(text if self._soft else text.replace(SOFT_HYPHEN, ""), params, self) if params else \
+            (text if self._soft else text.replace(SOFT_HYPHEN, ""))
 
     def plural(self, singular: str, plural: str, n: int, /, **params) -> str:
         """The form of a message for `n` (Czech and Polish have three); `{n}` is filled in with the others."""
-        return _fill(self._catalogue.ngettext(singular, plural, n), {"n": n, **params}, self)
+        text = self._catalogue.ngettext(singular, plural, n)
+        return _fill(text if self._soft else text.replace(SOFT_HYPHEN, ""), {"n": n, **params}, self)
 
     def number(self, text: str) -> str:
         """A printed figure's text ("1.41", "3.8/60°") with the language's decimal separator ("1,41")."""
@@ -124,7 +137,7 @@ class Translator:
         if isinstance(value, Msg):
             return self(value)
         if isinstance(value, Word):
-            return self._catalogue.gettext(value)
+            return self._gettext(value)
         if isinstance(value, Num):
             return self.number(value)
         if isinstance(value, str):
@@ -144,8 +157,11 @@ def _fill(template: str, params: dict, tr: "Translator") -> str:
 
 
 @cache
-def translator(language: str = ENGLISH) -> Translator:
+def translator(language: str = ENGLISH, soft_hyphens: bool = False) -> Translator:
     """The translator of `language` (a key of LANGUAGES); English reads no catalogue.
+
+    A translation may mark where a long word can break with a soft hyphen (U+00AD): the card's translator keeps
+    them (`soft_hyphens`; its wrapping breaks there with a hyphen printed), every other one leaves them out.
 
     Raises
     ------
@@ -155,7 +171,9 @@ def translator(language: str = ENGLISH) -> Translator:
     if language not in LANGUAGES:
         raise ValueError(f"no catalogue for language {language!r}; expected one of {', '.join(LANGUAGES)}")
     if language == ENGLISH:
-        return Translator(ENGLISH, gettext.NullTranslations())
+        return Translator(ENGLISH, gettext.NullTranslations(), soft_hyphens)
+    if soft_hyphens:
+        return Translator(language, translator(language)._catalogue, True)  # the catalogue is read once
     with open(catalogue_path(language), "rb") as f:
         return Translator(language, gettext.GNUTranslations(f))
 

@@ -230,7 +230,7 @@ def to_text(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
                             unit=su)
     lines = [
         f"{table.registration}  {table.model}" + (f"  ({made})" if made else ""),
-        weight + (f"  {tr('ABOVE MAXIMUM WEIGHT')}" if table.over_max_weight else ""),
+        weight + ("  " + tr("ABOVE MAXIMUM WEIGHT") if table.over_max_weight else ""),
         limits,
         tr("turns at pressure altitude {pressure} {unit}, {temperature} degC, density altitude {density} {unit}; "
            "buffer {buffer} {speed_unit}", pressure=table.pressure_altitude, unit=du, temperature=table.temperature_c,

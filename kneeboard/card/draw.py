@@ -59,8 +59,9 @@ class Context:
 
     @property
     def tr(self) -> Translator:
-        """The card's words and decimal separator, in its table's language (`kneeboard.i18n`)."""
-        return translator(self.table.language)
+        """The card's words and decimal separator, in its table's language (`kneeboard.i18n`), with the soft hyphens
+        its wrapping may break long words at."""
+        return translator(self.table.language, soft_hyphens=True)
 
     def size(self, role: str) -> float:
         size = BASE_SIZE[role] * self.scale

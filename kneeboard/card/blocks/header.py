@@ -118,8 +118,8 @@ class Header(Plan):
             y -= ls * 0.7
             h = ls * 1.6
             d.rect(0, y, width, h, fill=INK)
-            above = ctx.tr("ABOVE THE MAXIMUM WEIGHT OF {weight}",
-                           weight=f"{ctx.tr.number(t.max_weight.text)} {t.weight_unit}")
+            most = f"{ctx.tr.number(t.max_weight.text)} {t.weight_unit}"
+            above = ctx.tr("ABOVE THE MAXIMUM WEIGHT OF {weight}", weight=most)
             d.text(width / 2, y - h + ls * 0.45, above, LABEL, True, "centre", WHITE, figures=tags["over"])
         d.line(0, self.rule_y, width, self.rule_y, ctx.style.accent, 2.2)
         return d.block(NAME, -self.rule_y + ls * 0.6)

@@ -6,9 +6,9 @@ of bank (14 CFR 23.3(a) before amendment 23-64, steep turns of not more than 60 
 text itself not retrieved).
 """
 
-from kneeboard import printed, terms
+from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
@@ -36,8 +36,10 @@ class Limits(Plan):
             detail += " " + tr("VA at this weight {speed} {unit} IAS.", speed=t.maneuvering_speed, unit=su)
         self.heading = Heading(ctx, width, tr("LIMITS AT {weight}", weight=weight_text(t)), detail,
                                printed.limits_heading(t))
-        names = ["", tr("stall {unit} IAS", unit=su), tr("pattern {unit} IAS", unit=su), tr(terms.BUFFER_BANK),
-                 tr(terms.ZERO_MARGIN_BANK), tr("VFE {unit} IAS", unit=su), tr("limit g / bank")]
+        # the heads of narrow columns: the terms' words in English, a language may abbreviate them there
+        names = ["", tr("stall {unit} IAS", unit=su), tr("pattern {unit} IAS", unit=su),
+                 tr.pgettext("column head", "buffer bank"), tr.pgettext("column head", "zero-margin bank"),
+                 tr("VFE {unit} IAS", unit=su), tr("limit g / bank")]
         name_w = width * 0.2
         weights = (1.0, 1.0, 1.0, 1.0, 1.0, 1.45)  # the limit column holds "2.0/60°"
         unit = (width - name_w) / sum(weights)
@@ -51,7 +53,7 @@ class Limits(Plan):
         ss = ctx.size(SMALL)
         past = any(b is not None and b.past_limit
                    for c in t.configurations for b in (c.buffer_bank, c.zero_margin_bank))
-        self.note = fit_lines(NAME, tr(PAST_NOTE), fonts.REGULAR, ss, width, 3) if past else []
+        self.note = fit_lines(NAME, tr(PAST_NOTE), fonts.REGULAR, ss, width, NOTE_LINES) if past else []
         self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
                                lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8,
                                again=self.heading.again)

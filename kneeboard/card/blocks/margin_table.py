@@ -8,7 +8,7 @@ its heads repeated.
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHeads, split_configurations
+from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHeads, head_width, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import (
     GREY,
@@ -86,9 +86,9 @@ class MarginTable(Plan):
         t = ctx.table
         self.ctx, self.width = ctx, width
         fs, ss, tr = ctx.figure, ctx.size(SMALL), ctx.tr
-        bank_w = max(fonts.width("88°", fonts.BOLD, fs), fonts.width(tr("bank"), fonts.REGULAR, ss)) + fs * 0.7
+        bank_w = max(fonts.width("88°", fonts.BOLD, fs), head_width(tr("bank"), ss)) + fs * 0.7
         n_w = max(fonts.width(tr.number("5.76"), fonts.BOLD, ctx.secondary_figure),
-                  fonts.width(tr("load"), fonts.REGULAR, ss)) + fs * 0.5
+                  head_width(tr("load"), ss)) + fs * 0.5
         configs = t.configurations
         self.parts = split_configurations(ctx, len(configs), lambda g: _Group(ctx, width, bank_w, n_w,
                                                                               [configs[i] for i in g]))

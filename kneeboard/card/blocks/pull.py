@@ -4,7 +4,7 @@ stalls the wing in any attitude. Marked where the structure's limit load comes b
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, Context, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import SMALL
@@ -39,7 +39,7 @@ class Pull(Plan):
         if framed:
             note += " " + tr("Framed: a load factor above that configuration's limit load factor.")
         ss = ctx.size(SMALL)
-        self.note = fit_lines(NAME, note, fonts.REGULAR, ss, width, 3)
+        self.note = fit_lines(NAME, note, fonts.REGULAR, ss, width, NOTE_LINES)
         self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
                                lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8,
                                again=self.heading.again)

@@ -5,7 +5,7 @@ of the reaction time; the bank of least loss in bold. The figures are `aero.glid
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import ColumnHeads, Grid, Heading, even_columns
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Grid, Heading, even_columns
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import CAUTION, LABEL, SMALL
@@ -44,7 +44,7 @@ class TurnBack(Plan):
         if any(r.past_limit for r in tb.rows):
             caution = tr("Framed rows: at or past {configuration}'s limit bank of {bank}°, a load the structure is "
                          "not built for.", configuration=tb.clean, bank=tb.limit_bank) + " " + caution
-        self.caution = fit_lines(NAME, caution, fonts.REGULAR, cs, width, 5)
+        self.caution = fit_lines(NAME, caution, fonts.REGULAR, cs, width, NOTE_LINES + 2)  # a translation: longer
         foot = ctx.size(SMALL) * 0.2 + cs * 1.2 * len(self.caution) + ctx.size(LABEL) * 0.6
         self.measure = Measure((Section(self.heads.height, (fs * 1.3,) * len(rows)),),
                                lead=self.heading.height, foot=foot, again=self.heading.again)

@@ -2,7 +2,7 @@
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NO_VALUE, Grid, GroupHeads, Heading, SubHeads, split_configurations
+from kneeboard.card.blocks.grid import NO_VALUE, Grid, GroupHeads, Heading, SubHeads, head_width, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, INK, RULE, Context, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import SMALL
@@ -65,7 +65,7 @@ class Turns(Plan):
                                   "{temperature} °C)", density=t.density_altitude, pressure=t.pressure_altitude,
                                   temperature=t.temperature_c, unit=du),
                                printed.turns_heading(t))
-        bank_w = fonts.width("88°", fonts.BOLD, fs) + fs
+        bank_w = max(fonts.width("88°", fonts.BOLD, fs) + fs, head_width(self.ctx.tr("bank"), ss) + ss * 0.5)
         configs = t.configurations
         self.parts = split_configurations(ctx, len(configs),
                                           lambda g: _Group(ctx, width, bank_w, [configs[i] for i in g]))
