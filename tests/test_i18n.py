@@ -294,3 +294,36 @@ def test_a_message_keeps_its_values_through_copies_and_is_told_in_any_language()
 def test_an_unknown_language_is_refused_by_name():
     with pytest.raises(ValueError, match="'xx'.*en, de, fr, es, cs, pl"):
         translator("xx")
+
+
+# --- the glossaries ------------------------------------------------------------------------------------------------
+
+SOURCES = ("regulation", "public page", "common practice", "from memory", "our own word")
+
+
+def _stem(word: str) -> str:
+    """A word's stem, so an inflected form matches (Czech and Polish decline: "klapky", "klapkami")."""
+    return word if len(word) <= 3 else word[:max(4, len(word) - 2)]
+
+
+@pytest.mark.parametrize("language", TRANSLATED)
+def test_each_glossary_word_has_its_source_and_is_the_word_its_catalogue_prints(language):
+    text = (ROOT / "docs" / "glossary" / f"{language}.md").read_text(encoding="utf-8")
+    rows = [[cell.strip() for cell in line.strip("|").split("|")] for line in text.splitlines()
+            if line.startswith("| ") and not line.startswith("| trade term")]
+    terms_found = {row[0] for row in rows}
+    assert {"bank angle", "load factor", "stall speed", "pattern, traffic circuit", "base leg", "final", "margin",
+            "buffer", "flaps", "air brakes", "VA", "VFE", "IAS / CAS / TAS", "density altitude", "best glide",
+            "minimum sink", "ballast"} <= terms_found
+    messages = {m.id: m.string for m in catalogues.read(language) if m.id and isinstance(m.id, str)}
+    for term, word, message, source in rows:
+        assert any(kind in source for kind in SOURCES), (term, source)
+        if message == "—":
+            continue
+        msgid = message.strip("`")
+        if msgid.endswith("…"):
+            (msgid,) = [m for m in messages if m.startswith(msgid[:-1])]
+        printed = messages[msgid].replace(fonts.SOFT_HYPHEN, "").lower()
+        alternatives = [w.strip() for w in re.split(r"[,/]", word)]
+        assert any(all(_stem(w.lower()) in printed for w in alt.split()) for alt in alternatives), (term, word,
+                                                                                                     printed)
