@@ -245,19 +245,11 @@ def to_text(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
                   buffer=buffer_bank, load=c.limit_load_factor, bank=c.limit_bank)
         if c.flap_limit_speed:
             line += ", " + tr("flap limit speed VFE {speed} {unit}", speed=c.flap_limit_speed, unit=su)
-        lines += [
-            "",
-            line,
-            _pull_line(c, su, tr),
-            _columns(heads, (5, 5, 6, 7, 7, 5, 5)),
-            _columns([tr("deg"), "", su, su, du, "s", "s"], (5, 5, 6, 7, 7, 5, 5)),
-        ]
-        for row in c.rows:
-            radius, t180, t360 = _turn(row)
-            lines.append(
-                f"{n(row.bank_text):>5} {n(row.load_factor.text):>5} {row.stall_speed.text:>6} {row.margin.text:>7} "
-                f"{radius:>7} {t180:>5} {t360:>5}  {_mark(row, tr)}"
-            )
+        rows = [[n(row.bank_text), n(row.load_factor.text), row.stall_speed.text, row.margin.text, *_turn(row)]
+                for row in c.rows]
+        lines += ["", line, _pull_line(c, su, tr)]
+        lines += _aligned([heads, [tr("deg"), "", su, su, du, "s", "s"]], rows, (5, 5, 6, 7, 7, 5, 5),
+                          [f"  {_mark(row, tr)}" for row in c.rows])
     if table.glider:
         g = table.glider
         sink = table.sink_unit
@@ -265,13 +257,11 @@ def to_text(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
             "",
             tr("circling at minimum-sink angle of attack (straight: {speed} {unit}, sink {sink} {sink_unit})",
                speed=g.min_sink_speed, unit=su, sink=g.min_sink_rate, sink_unit=sink),
-            _columns([tr("bank"), tr("speed"), tr("sink"), tr("radius"), tr("circle"), tr("180 loss")],
-                     (5, 6, 5, 7, 7, 9)),
-            _columns([tr("deg"), su, sink, du, "s", du], (5, 6, 5, 7, 7, 9)),
         ]
-        for row in g.rows:
-            lines.append(f"{n(row.bank_text):>5} {row.speed.text:>6} {n(row.sink_rate.text):>5} "
-                         f"{_text(row.turn_radius):>7} {_text(row.circle_time):>7} {_text(row.height_loss_180):>9}")
+        rows = [[n(row.bank_text), row.speed.text, n(row.sink_rate.text), _text(row.turn_radius),
+                 _text(row.circle_time), _text(row.height_loss_180)] for row in g.rows]
+        lines += _aligned([[tr("bank"), tr("speed"), tr("sink"), tr("radius"), tr("circle"), tr("180 loss")],
+                           [tr("deg"), su, sink, du, "s", du]], rows, (5, 6, 5, 7, 7, 9))
     if table.turn_back is not None and table.turn_back.rows:
         lines += ["", *_turn_back_lines(table, tr)]
     if table.notes:
@@ -281,9 +271,15 @@ def to_text(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
     return "\n".join(lines) + "\n"
 
 
-def _columns(heads, widths) -> str:
-    """Column heads right-aligned in their widths; a word longer than its column widens it (never cut)."""
-    return " ".join(f"{h:>{w}}" for h, w in zip(heads, widths)).rstrip()
+def _aligned(heads: list[list[str]], rows: list[list[str]], least: tuple[int, ...],
+             tails: list[str] | None = None) -> list[str]:
+    """Head lines and rows of cells right-aligned in columns at least `least` wide, each column as wide as its widest
+    head or cell, so a translated head that is longer than the English widens its column and never pushes the
+    figures under it out of line; `tails`: text after each row (its marks)."""
+    widths = [max(w, *(len(r[j]) for r in heads + rows)) for j, w in enumerate(least)]
+    out = [" ".join(f"{cell:>{w}}" for cell, w in zip(r, widths)) for r in heads]
+    return out + [" ".join(f"{cell:>{w}}" for cell, w in zip(r, widths)) + (tails[i] if tails else "")
+                  for i, r in enumerate(rows)]
 
 
 def _bank_text(bank, tr: Translator) -> str:
@@ -321,14 +317,11 @@ def _turn_back_lines(table: CardTable, tr: Translator) -> list[str]:
                    "gliding in {configuration}: margin over its stall speed, {mark} at or past its limit bank {bank} "
                    "deg", **values)
     heads = [tr("{heading} deg", heading=Num(h)) for h in tb.headings]
-    widths = (5, 6, 7) + (8,) * len(heads)
-    lines = [
-        first,
-        _columns([tr("bank"), tr("speed"), tr("margin"), *heads], widths),
-        _columns([tr("deg"), tr("{unit} IAS", unit=su), su, *[tr("{unit} loss", unit=du) for _ in heads]], widths),
-    ]
-    for r in tb.rows:
-        lines.append(f"{tr.number(r.bank_text):>5} {r.speed.text:>6} {r.margin.text:>7}"
-                     + "".join(f" {loss.text:>8}" for loss in r.height_loss)
-                     + "".join(f"  {tr(m)}" for m, on in ((N_("least"), r.least), (PAST, r.past_limit)) if on))
+    rows = [[tr.number(r.bank_text), r.speed.text, r.margin.text, *(loss.text for loss in r.height_loss)]
+            for r in tb.rows]
+    tails = ["".join(f"  {tr(m)}" for m, on in ((N_("least"), r.least), (PAST, r.past_limit)) if on) for r in tb.rows]
+    lines = [first]
+    lines += _aligned([[tr("bank"), tr("speed"), tr("margin"), *heads],
+                       [tr("deg"), tr("{unit} IAS", unit=su), su, *[tr("{unit} loss", unit=du) for _ in heads]]],
+                      rows, (5, 6, 7) + (8,) * len(heads), tails)
     return lines + [tr(CAUTION_TURN_BACK)]
