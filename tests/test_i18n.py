@@ -327,3 +327,14 @@ def test_each_glossary_word_has_its_source_and_is_the_word_its_catalogue_prints(
         alternatives = [w.strip() for w in re.split(r"[,/]", word)]
         assert any(all(_stem(w.lower()) in printed for w in alt.split()) for alt in alternatives), (term, word,
                                                                                                      printed)
+
+
+def test_a_translated_head_widens_its_column_in_the_text_table_and_keeps_the_figures_under_it():
+    """Polish "przechylenie" is longer than the bank column's five characters: the column widens, and the load
+    factors still end under the "n" of their head."""
+    text = report_text(prepared(ROOT / "tests" / "aircraft" / "ballast_glider.toml", "pl"), "text", MADE_ON)
+    lines = text.splitlines()
+    head = next(i for i, line in enumerate(lines) if line.lstrip().startswith("przechylenie ") and " n " in line)
+    end = lines[head].index(" n ") + 1  # the column of the head's "n"
+    rows = lines[head + 2:head + 11]
+    assert len(rows) == 9 and all(re.fullmatch(r"\s*\d+ +\d,\d\d", row[:end + 1]) for row in rows), rows
