@@ -5,7 +5,7 @@ BIN := $(VENV)/bin
 # make run's private copy of the sample fleet (ignored by git, never removed by make)
 FLEET := my-fleet
 
-.PHONY: run cards test lint bench bundle clean
+.PHONY: run cards test lint bench bundle catalogues clean
 
 $(BIN)/python:
 	@echo "Creating $(VENV) with $(PYTHON)..."
@@ -58,6 +58,11 @@ bundle: $(VENV)/.installed-bundle
 
 bench: $(VENV)/.installed-test
 	$(BIN)/python -m benchmarks
+
+# The translation catalogues: extract the marked messages, bring translations/*.po up to date, compile the .mo files
+# the package carries (README, "Languages"). After translating, run it again (or `packaging/catalogues.py compile`).
+catalogues: $(VENV)/.installed-test
+	$(BIN)/python packaging/catalogues.py
 
 lint: $(VENV)/.installed-test
 	$(BIN)/ruff check kneeboard tests benchmarks packaging

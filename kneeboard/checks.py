@@ -9,6 +9,7 @@ import numpy as np
 from kneeboard import rounding, units
 from kneeboard.aero import atmosphere
 from kneeboard.compute import Airspeeds, Results, glide_configuration
+from kneeboard.i18n import Msg, Num
 from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import NOTHING, Profile
 
@@ -33,8 +34,8 @@ def physics_checks(profile: Profile, results: Results) -> list[Problem]:
             found.append(_speed_at_or_below_zero("aircraft.calibration", "the maneuvering speed"))
         elif results.va_extrapolated:
             found.append(_beyond_table("aircraft.calibration", "the maneuvering speed VA",
-                                       "The calibration table does not reach VA; its last correction is carried on. "
-                                       "Check VA in the flight manual"))
+                                       Msg("The calibration table does not reach VA; its last correction is carried "
+                                           "on. Check VA in the flight manual")))
     unit = profile.card.speed_unit
     for i, (c, r) in enumerate(zip(profile.configurations, results.configurations), start=1):
         path = f"configuration[{i}]"
@@ -56,25 +57,27 @@ def physics_checks(profile: Profile, results: Results) -> list[Problem]:
             found.append(Problem(
                 f"{path}.{field}", f"the pattern speed is {ratio} x the stall speed at the card weight in CAS, less "
                 "than the least usual 1.3 (FAA-H-8083-3)", "1.3 x stall speed or more, in CAS", severity=WARNING,
-                plain=f"{c.name}: pattern speed {pattern:g} {unit} is {ratio} x stall speed (CAS), under the "
-                      "least usual 1.3 (Airplane Flying Handbook). Check the flight manual's approach speeds",
+                plain=Msg("{name}: pattern speed {speed} {unit} is {ratio} x stall speed (CAS), under the least usual "
+                          "1.3 (Airplane Flying Handbook). Check the flight manual's approach speeds", name=c.name,
+                          speed=float(pattern), unit=unit, ratio=Num(ratio)),
             ))
         if r.flap_limit_speed is not None and r.pattern_speed > r.flap_limit_speed:
             vfe = rounding.down(float(units.from_si(r.flap_limit_speed, units.SPEED, unit)))
             found.append(Problem(f"{path}.flap_limit_speed", "the pattern speed is above the flap limit speed",
                                  "a pattern speed at or below VFE", severity=WARNING,
-                                 plain=f"{c.name}: pattern speed {pattern:g} {unit} is above VFE {vfe:g} {unit}. "
-                                       "Check both in the flight manual"))
+                                 plain=Msg("{name}: pattern speed {speed} {unit} is above VFE {vfe} {unit}. Check "
+                                           "both in the flight manual", name=c.name, speed=float(pattern), unit=unit,
+                                           vfe=float(vfe))))
         if r.calibration_extrapolated:
             found.append(_beyond_table(table, f"the speeds of {c.name}",
-                                       f"{c.name}: the calibration table does not reach all its speeds; its last "
-                                       "correction is carried on. Check them in the flight manual"))
+                                       Msg("{name}: the calibration table does not reach all its speeds; its last "
+                                           "correction is carried on. Check them in the flight manual", name=c.name)))
         if c.limit_load_factor is not None and c.limit_load_factor > results.design_limit_load_factor:
             found.append(Problem(f"{path}.limit_load_factor", "is above the aircraft's limit load factor",
                                  f"at most {results.design_limit_load_factor:g}", c.limit_load_factor, WARNING,
-                                 plain=f"{c.name}: limit load factor {c.limit_load_factor:g} is above the "
-                                       f"aircraft's {results.design_limit_load_factor:g}. Check both in the flight "
-                                       "manual"))
+                                 plain=Msg("{name}: limit load factor {load} is above the aircraft's {limit}. Check "
+                                           "both in the flight manual", name=c.name, load=float(c.limit_load_factor),
+                                           limit=float(results.design_limit_load_factor))))
     found += _glide_checks(profile, results)
     found += _atmosphere_checks(profile, results)
     if profile.glider is not None:
@@ -113,13 +116,15 @@ def _atmosphere_checks(profile: Profile, results: Results) -> list[Problem]:
     standard = float(atmosphere.isa_temperature(card.pressure_altitude))
     plausible = 203.15 <= card.temperature <= 333.15  # outside -70..+60 degC the file's reader warns already
     if plausible and abs(card.temperature - standard) > FAR_FROM_STANDARD:
+        oat, difference = Num(f"{card.temperature - 273.15:.0f}"), Num(f"{abs(card.temperature - standard):.0f}")
         return [Problem("card.temperature", f"is {card.temperature - standard:+.0f} degC from the standard "
                         f"temperature at this pressure altitude ({standard - 273.15:.0f} degC); check it",
                         "an outside air temperature as measured", severity=WARNING,
-                        plain=f"Temperature {card.temperature - 273.15:.0f} °C is "
-                              f"{abs(card.temperature - standard):.0f} °C "
-                              f"{'above' if card.temperature > standard else 'below'} standard at this altitude: "
-                              "check the temperature of the turn figures")]
+                        plain=Msg("Temperature {temperature} °C is {difference} °C above standard at this altitude: "
+                                  "check the temperature of the turn figures", temperature=oat, difference=difference)
+                        if card.temperature > standard else
+                        Msg("Temperature {temperature} °C is {difference} °C below standard at this altitude: check "
+                            "the temperature of the turn figures", temperature=oat, difference=difference))]
     return []
 
 
@@ -134,8 +139,8 @@ def _glide_checks(profile: Profile, results: Results) -> list[Problem]:
     return [Problem("aircraft.glide_configuration", f"no configuration has nothing extended, so the turn back's "
                     f"margins are taken over {name}'s stall speed, the highest", "the name of the configuration the "
                     "flight manual's best glide is flown in", severity=WARNING,
-                    plain=f"No configuration is clean: turn-back margins are over {name}'s stall speed, the "
-                          "highest. Check the flight manual's best-glide configuration")]
+                    plain=Msg("No configuration is clean: turn-back margins are over {name}'s stall speed, the "
+                              "highest. Check the flight manual's best-glide configuration", name=name))]
 
 
 def _printed_speed(v: float, unit: str) -> float:

@@ -22,6 +22,7 @@ CARD_SIZES = ("a5", "half-letter", "5x8", "4x6")
 SHEET_SIZES = ("letter", "a4")
 SPEED_UNITS = ("kt", "mph", "km/h")
 DISTANCE_UNITS = ("ft", "m")
+LANGUAGES = ("en", "de", "fr", "es", "cs", "pl")  #: kneeboard.i18n.LANGUAGES, named here so help loads no catalogue
 
 EXIT_OK, EXIT_PROBLEMS, EXIT_BUG, EXIT_OUTPUT = 0, 2, 70, 74  #: 74: the output device failed (EX_IOERR)
 EXIT_PIPE = 141  #: the reader of the output went away (128 + SIGPIPE), as a shell tool's exit
@@ -57,6 +58,8 @@ def _parser() -> argparse.ArgumentParser:
                               formatter_class=argparse.RawDescriptionHelpFormatter)
 
     style_help = "card style (default: the fleet.style.toml beside each profile, else the shipped default)"
+    language_help = ("the language of the card's words (default: the style's, else the profile's, else en); the "
+                     "figures are the same in every language")
     check = command("check", "validate profiles and list every problem")
     check.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
     check.add_argument("--style", metavar="STYLE.toml", help=style_help)
@@ -68,6 +71,7 @@ def _parser() -> argparse.ArgumentParser:
     table.add_argument("--speed-unit", choices=SPEED_UNITS)
     table.add_argument("--distance-unit", choices=DISTANCE_UNITS)
     table.add_argument("--format", choices=("text", "csv", "json"), default="text")
+    table.add_argument("--language", choices=LANGUAGES, help=language_help)
     table.add_argument("--style", metavar="STYLE.toml", help=style_help)
     card = command("card", "make cockpit cards as PDF (one aircraft or a whole folder)")
     card.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
@@ -79,10 +83,12 @@ def _parser() -> argparse.ArgumentParser:
     card.add_argument("--weight", metavar="QTY", help='weight for every card, e.g. "690 kg"')
     card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help="impose several cards on Letter or A4 sheets")
     card.add_argument("--png", metavar="DPI", type=int, help="also write each card page as PNG at DPI")
+    card.add_argument("--language", choices=LANGUAGES, help=language_help)
     compare = command("compare", "compare a printed card with what its profile prints now (exit 1 when it changed)")
     compare.add_argument("card", metavar="CARD.pdf_OR_FOLDER", help="a card PDF, or a folder of them")
     compare.add_argument("profile", metavar="PROFILE_OR_FOLDER", help="its profile, or the fleet folder")
     compare.add_argument("--style", metavar="STYLE.toml", help=style_help)
+    compare.add_argument("--language", choices=LANGUAGES, help=language_help)
     compare.add_argument("--weight", metavar="QTY", help="compare at this weight, not at the weight the card was "
                          'made for, e.g. "690 kg"')
     starter.add_commands(command)
@@ -160,7 +166,7 @@ def cmd_table(args) -> int:
     from kneeboard.pipeline import prepare_file, report_text
 
     styles = _styles(args, weight=args.weight, bank_angles=_parse_banks(args.bank), speed_unit=args.speed_unit,
-                     distance_unit=args.distance_unit)
+                     distance_unit=args.distance_unit, language=args.language)
     path = Path(args.profile)
     _print_style_problems(styles, [path])
     prepared = prepare_file(path, styles)
@@ -170,7 +176,9 @@ def cmd_table(args) -> int:
         print(f"{printable(args.profile)}: {len(prepared.errors)} error(s); no table can be made", file=sys.stderr)
         return EXIT_PROBLEMS
     sys.stdout.write(report_text(prepared, args.format))
-    print(CAUTION, file=sys.stderr if machine else sys.stdout)
+    # the caution in the table's language; JSON is the machine interface, in English (its keys and its texts)
+    caution = CAUTION if args.format == "json" else _translated(CAUTION, prepared.table.language)
+    print(caution, file=sys.stderr if machine else sys.stdout)
     return EXIT_OK
 
 
@@ -182,7 +190,8 @@ def cmd_card(args) -> int:
         raise UsageProblem("say where to write: -o OUT.pdf, --each DIR, or both")
     if args.png is not None and not 36 <= args.png <= 1200:
         raise UsageProblem(f"--png {args.png}: expected a resolution from 36 to 1200 dpi")
-    styles = _styles(args, weight=args.weight, size=args.size, landscape=True if args.landscape else None)
+    styles = _styles(args, weight=args.weight, size=args.size, landscape=True if args.landscape else None,
+                     language=args.language)
     paths = expand_paths(args.profiles)
     if not paths:
         print("kneeboard card: no profile files (*.toml) found", file=sys.stderr)
@@ -202,7 +211,7 @@ def cmd_card(args) -> int:
                             progress=progress)
     except FileProblem as exc:
         print(f"kneeboard card: {printable(exc)}", file=sys.stderr)
-        print(CAUTION)
+        print(_translated(CAUTION, args.language))
         return EXIT_OUTPUT if exc.device_failed else EXIT_PROBLEMS  # a full disk is no bad input
     _print_problems(made.warnings, sys.stderr)
     _print_problems(made.clashes, sys.stderr)  # each file of a duplicate named, instead of a numbered file name
@@ -227,8 +236,15 @@ def cmd_card(args) -> int:
     if len(paths) > 1 or made.failures:
         skipped = f"; {len(made.failures)} skipped (see above)" if made.failures else ""
         print(f"{made.cards} of {len(paths)} cards made{skipped}")
-    print(CAUTION)
+    print(_translated(CAUTION, args.language))
     return EXIT_PROBLEMS if made.failures or made.clashes or not made.cards else EXIT_OK
+
+
+def _translated(text: str, language: str | None) -> str:
+    """`text` (a message marked for the catalogues) in `language`; English when none is asked for."""
+    from kneeboard.i18n import translator
+
+    return translator(language or "en")(text)
 
 
 def _quoted(name: str) -> str:
@@ -256,6 +272,7 @@ def cmd_compare(args) -> int:
     from kneeboard.card.data import CardDataProblem, figures_of, read_card_data
     from kneeboard.compare import compare_figures, summary
     from kneeboard.fileio import read_bytes
+    from kneeboard.i18n import translator
     from kneeboard.pipeline import make_card, prepare_file
     from kneeboard.profile_io import expand_paths
 
@@ -283,7 +300,7 @@ def cmd_compare(args) -> int:
         cards += [(pdf, data) for data in found]
     if not folder and unread:
         return EXIT_PROBLEMS
-    styles = _styles(args)
+    styles = _styles(args, language=args.language)
     profiles: dict[str, list] = {}
     for path in expand_paths([profile_path]):
         prepared = _safely(prepare_file, path, styles)
@@ -314,6 +331,7 @@ def cmd_compare(args) -> int:
             problems += 1
             continue
         changes = compare_figures(figures_of(data), make_card(prepared).figures())
+        tr = translator(prepared.table.language)  # the labels and figures as the card made now prints them
         if not changes:
             stamp = printable(str(data.get("fingerprint", "")))
             why = (f"fingerprint {stamp}" if stamp == prepared.fingerprint else "the profile changed, not a figure "
@@ -324,14 +342,15 @@ def cmd_compare(args) -> int:
         worse = sum(c.worse for c in changes)
         print(f"{where}: OUT OF DATE{weight}: {len(changes)} printed figure(s) read differently"
               + (f", {worse} leaving less room" if worse else "") + "; print a new card")
-        print(printable(f"  summary: {summary(changes).line()}"))
+        print(printable(f"  summary: {summary(changes).line(tr)}"))
         for c in changes:
             mark = "! less room: " if c.worse else ""
-            print(printable(f"  {mark}{c.label}: {c.old or 'not printed'} -> {c.new or 'not printed'}"))
+            old, new = (tr.number(x) if x else "not printed" for x in (c.old, c.new))
+            print(printable(f"  {mark}{tr.label(c.label)}: {old} -> {new}"))
     if not cards:
         print(printable(f"kneeboard compare: {card_path}: no kneeboard card found"), file=sys.stderr)
         return EXIT_PROBLEMS
-    print(CAUTION)
+    print(_translated(CAUTION, args.language))
     return EXIT_PROBLEMS if problems else EXIT_CHANGED if changed else EXIT_OK
 
 
@@ -344,7 +363,8 @@ def _at_weight(prepared, data: dict, args, styles):
     if not isinstance(weight, str) or not weight:
         return prepared, ""
     said = f" at {weight} (--weight)" if args.weight else f" at {weight}, the weight the card was made for"
-    return _safely(prepare_file, prepared.path, _styles(args, weight=weight, styles=styles)), printable(said)
+    return (_safely(prepare_file, prepared.path, _styles(args, weight=weight, language=args.language, styles=styles)),
+            printable(said))
 
 
 HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare": cmd_compare, **starter.HANDLERS}

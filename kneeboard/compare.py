@@ -14,6 +14,7 @@ from dataclasses import dataclass
 
 from kneeboard import terms
 from kneeboard.card.ops import HIGHER_IS_WORSE, LOWER_IS_WORSE, Figure
+from kneeboard.i18n import Translator, translator
 from kneeboard.tables import LIMIT_MARK
 
 _NUMBER = re.compile(rf"\s*{LIMIT_MARK}?\s*(-?\d+(?:\.\d+)?)(.*)\Z", re.DOTALL)
@@ -100,24 +101,29 @@ class Summary:
     past_limit: tuple[Change, ...]  #: figures now at or past a limit that were not
     lower_limits: tuple[Change, ...]  #: VA, VFE, limit load factors and banks now lower
 
-    def line(self) -> str:
+    def line(self, tr: Translator | None = None) -> str:
+        """The summary in one line; `tr`: the figures' labels and numbers as a card in that language prints them
+        (the line's own words are the command line's, English this round)."""
+        tr = tr or translator()
         parts = []
         if self.margin_loss is not None:
             amount, unit, c = self.margin_loss
-            parts.append(f"largest loss of margin {amount:g} {unit} ({c.label}: {c.old} -> {c.new})")
+            parts.append(f"largest loss of margin {tr.number(f'{amount:g}')} {unit} ({tr.label(c.label)}: "
+                         f"{tr.number(c.old)} -> {tr.number(c.new)})")
         else:
             parts.append("no margin smaller")
         if self.no_margin:
-            parts.append(f"new no-margin cell(s): {_names(self.no_margin)}")
+            parts.append(f"new no-margin cell(s): {_names(self.no_margin, tr)}")
         if self.past_limit:
-            parts.append(f"new past a limit: {_names(self.past_limit)}")
+            parts.append(f"new past a limit: {_names(self.past_limit, tr)}")
         if self.lower_limits:
-            parts.append("less room: " + _names(self.lower_limits, values=True))
+            parts.append("less room: " + _names(self.lower_limits, tr, values=True))
         return "; ".join(parts)
 
 
-def _names(changes, values: bool = False) -> str:
-    shown = [f"{c.label} {c.old} -> {c.new}" if values else c.label for c in changes[:SHOWN]]
+def _names(changes, tr: Translator, values: bool = False) -> str:
+    shown = [f"{tr.label(c.label)} {tr.number(c.old or '')} -> {tr.number(c.new or '')}" if values
+             else tr.label(c.label) for c in changes[:SHOWN]]
     more = len(changes) - SHOWN
     return ", ".join(shown) + (f" and {more} more" if more > 0 else "")
 

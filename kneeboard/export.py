@@ -252,12 +252,13 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
         _make_folder(each)
     fingerprints: list[str] = []
     group: list = []  # cards waiting to fill a sheet
+    languages: list[str] = []  # the language of each card in `group`: a sheet's note is in its first card's
     grid = None
 
     def flush(full_only: bool = False) -> None:
         while group and (len(group) >= grid.per_sheet or not full_only):
-            writer.add(impose(group[:grid.per_sheet], sheet))
-            del group[:grid.per_sheet]
+            writer.add(impose(group[:grid.per_sheet], sheet, languages[0]))
+            del group[:grid.per_sheet], languages[:grid.per_sheet]
 
     for i, path in enumerate(ordered):
         if progress is not None and progress(i, len(ordered), path.name) is False:
@@ -282,7 +283,9 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
                     result.failures.append(Failure(path, [f"{printable(path)}: its card is not the size of the "
                                                           "others on the sheet; print it on its own"]))
                     continue
-                group.extend(physical_cards([card.pages]))  # a card set fills a slot per physical card
+                slots = physical_cards([card.pages])
+                group.extend(slots)  # a card set fills a slot per physical card
+                languages.extend([card.table.language] * len(slots))
                 flush(full_only=True)
         if each is not None and path not in clashes:
             target = guard(each / f"{stem}.pdf")

@@ -9,6 +9,7 @@ uses) carrying it through `compute`.
 from dataclasses import dataclass
 
 from kneeboard import units
+from kneeboard.i18n import LANGUAGES
 from kneeboard.profile import CATEGORIES, EXTENDED, SPEED_BASES
 
 KT = 1852.0 / 3600.0  # [m/s]
@@ -137,6 +138,9 @@ FIELDS: tuple[Field, ...] = (
     Field("card", "reaction_time", QUANTITY, "Reaction time", 'default "4 s"', quantity=units.TIME,
           bounds=(-1e-12, 60.0, "from 0 to 60 s"),
           help="Seconds of straight glide before the turn back begins."),
+    Field("card", "language", CHOICE, "Language", options=tuple(LANGUAGES),
+          help="The language the card and the reports print in (en, de, fr, es, cs, pl); figures are the same in "
+               "every language. Default en."),
 )
 
 #: The sections of a profile file (tables, or arrays of tables) and the top-level keys.

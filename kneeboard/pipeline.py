@@ -29,9 +29,10 @@ from kneeboard import fields, report
 from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organization_problems
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
+from kneeboard.i18n import Msg
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import Profile
-from kneeboard.profile_io import Source, fingerprint, read_source, source_from_text
+from kneeboard.profile_io import Source, figure_data, fingerprint, read_source, source_from_text
 from kneeboard.schema import profile_from_data
 from kneeboard.tables import CardTable, build
 
@@ -49,6 +50,7 @@ class Overrides:
     distance_unit: str | None = None
     size: str | None = None  #: card size, replacing the style's
     landscape: bool | None = None
+    language: str | None = None  #: the language of the card's words (`--language`), replacing the style's
 
     def styled(self, style: CardStyle) -> CardStyle:
         """The style with this run's size and orientation."""
@@ -153,6 +155,9 @@ def prepare(source: Source, style: CardStyle | None, overrides: Overrides = NONE
                     overrides.weight)
 
 
+LANGUAGE = "card.language"  #: changes the card's words, never a figure: no part of its fingerprint
+
+
 def card_fingerprint(source: Source, data: dict, origins: dict[str, str]) -> str:
     """The fingerprint of everything a card's figures come from: the file's data, and each value a style or an
     override wrote into it that differs from the file's own (the weight given for the card, banks, units).
@@ -160,11 +165,11 @@ def card_fingerprint(source: Source, data: dict, origins: dict[str, str]) -> str
     With nothing written over the file's values it is the file's own fingerprint, so a card made from the profile
     alone keeps the fingerprint `kneeboard check` prints for it.
     """
-    written = {path: _at(data, path) for path in sorted(origins)}
+    written = {path: _at(data, path) for path in sorted(origins) if path != LANGUAGE}
     written = {path: value for path, value in written.items() if value != _at(source.data, path)}
     if not written:
         return source.fingerprint
-    return fingerprint({"profile": source.data, "written for the card": written})
+    return fingerprint({"profile": figure_data(source.data), "written for the card": written})
 
 
 def _at(data, path: str):
@@ -299,7 +304,8 @@ def glyph_problems(profile: Profile) -> list[Problem]:
             shown = ", ".join(missing[:8]) + (", ..." if len(missing) > 8 else "")
             found.append(Problem(path, f"holds characters the card's fonts cannot draw ({shown}); they print as "
                                  f"{fonts.substitute()}", "Latin, Greek or Cyrillic letters", severity=WARNING,
-                                 plain=f"Characters the card's fonts cannot draw print as {fonts.substitute()}"))
+                                 plain=Msg("Characters the card's fonts cannot draw print as {substitute}",
+                                           substitute=fonts.substitute())))
     return found
 
 
@@ -308,27 +314,30 @@ def glyph_problems(profile: Profile) -> list[Problem]:
 
 def card_warnings(problems, profile: Profile) -> tuple[str, ...]:
     """The card's WARNING lines in plain words (`Problem.plain`): one per warning, the same words once with their
-    count (unknown entries, unreadable characters), the template's placeholders gathered into one line."""
+    count (unknown entries, unreadable characters), the template's placeholders gathered into one line.
+
+    Each line is a `Msg`: English as text, told in the card's language where it is printed."""
     warnings = [p for p in problems if not p.is_error]
     placeholders = [p for p in warnings if p.message == PLACEHOLDER]
-    counts: dict[str, int] = {}
+    counts: dict[str, list] = {}  # the English line -> [the line, how many times]
     for p in warnings:
         if p.message != PLACEHOLDER:
             line = warning_line(p, profile)
-            counts[line] = counts.get(line, 0) + 1
-    lines = [line if n == 1 else f"{line} ({n} times)" for line, n in counts.items()]
+            counts.setdefault(line, [line, 0])[1] += 1
+    lines = [line if n == 1 else Msg("{warning} ({n} times)", warning=line, n=n) for line, n in counts.values()]
     if placeholders:
-        lines.append(f"WARNING placeholder values from a template, not from a flight manual ({len(placeholders)}): "
-                     "replace them with this aircraft's figures")
+        lines.append(Msg("WARNING placeholder values from a template, not from a flight manual ({n}): replace them "
+                         "with this aircraft's figures", n=len(placeholders)))
     return tuple(lines)
 
 
-def warning_line(problem: Problem, profile: Profile) -> str:
+def warning_line(problem: Problem, profile: Profile) -> Msg:
     """A warning as a line a pilot reads on the card: "WARNING Flaps 30: ...", no file paths or option names.
 
     Every warning says it in plain words (`Problem.plain`); one that does not is named by its field's label."""
     if problem.plain:
-        return f"WARNING {problem.plain}."
+        return Msg("WARNING {warning}.", warning=problem.plain if isinstance(problem.plain, Msg) else
+                   Msg(problem.plain))
     where = problem.path
     m = re.match(r"configuration\[(\d+)\](?:\.(\w+))?(.*)", where)
     if m and int(m.group(1)) <= len(profile.configurations):
@@ -339,7 +348,7 @@ def warning_line(problem: Problem, profile: Profile) -> str:
         where = f"{name}, {label}{m.group(3)}" if label else name
     elif where in fields.BY_PATH:
         where = fields.BY_PATH[where].label.lower()
-    return f"WARNING {where}: {problem.message}"
+    return Msg("WARNING {field}: {message}", field=where, message=problem.message)
 
 
 # --- applying style settings and overrides to the data ------------------------------------------------------------
@@ -371,6 +380,8 @@ def _merged(data: dict, style: CardStyle | None, overrides: Overrides) -> tuple[
                 card_setting("distance_unit", "m", "the card style's speed_unit")
         if style.distance_unit is not None:
             card_setting("distance_unit", style.distance_unit, "the card style's distance_unit")
+        if style.language is not None:
+            card_setting("language", style.language, "the card style's language")
     if overrides.bank_angles is not None:
         card_setting("bank_angles", list(overrides.bank_angles), "--bank")
     if overrides.speed_unit is not None:
@@ -379,6 +390,8 @@ def _merged(data: dict, style: CardStyle | None, overrides: Overrides) -> tuple[
             card_setting("distance_unit", "m", "--speed-unit")
     if overrides.distance_unit is not None:
         card_setting("distance_unit", overrides.distance_unit, "--distance-unit")
+    if overrides.language is not None:
+        card_setting("language", overrides.language, "--language")
     if overrides.weight is not None:
         data["weight"] = {"total": overrides.weight}
         origins["weight"] = "--weight"

@@ -7,13 +7,19 @@ lines and markers at these printed values, compare and the card data read the ta
 the app's key figures show some of them, and `figures(table)` lists them all for the reports and their tests. So
 what one output shows, another cannot silently lack.
 
+A cell's text is written in the table's language ("1,41" in German: `i18n.Translator.number`); its figure's tag
+keeps the figure as it is in every language (label and text in English: the identity compare matches on, and the
+value the tests hold equal across languages).
+
 Nothing here draws or measures: this module imports neither reportlab nor Qt.
 """
 
-from dataclasses import dataclass
+import functools
+from dataclasses import dataclass, replace
 
 from kneeboard import terms
 from kneeboard.card.ops import FIGURE, HIGHER_IS_WORSE, LABEL, LOWER_IS_WORSE, Figure
+from kneeboard.i18n import ENGLISH, Msg, Num, translator
 from kneeboard.tables import BUFFER, STALL, CardTable
 
 HATCHED, BLACK = "hatched", "black"
@@ -49,6 +55,20 @@ def figure(label: str, printed, unit: str = "", worse: str | None = None, key: s
     return Figure(label, text + unit if unit == "°" else f"{text} {unit}".rstrip(), worse, key, past_limit)
 
 
+def in_language(rows_of):
+    """A function of the table's rows whose cells' texts are then written in the table's language."""
+
+    @functools.wraps(rows_of)
+    def rows(t: CardTable, *args):
+        found = rows_of(t, *args)
+        if t.language == ENGLISH:
+            return found
+        number = translator(t.language).number
+        return [[replace(cell, text=number(cell.text)) for cell in row] for row in found]
+
+    return rows
+
+
 def weight_text(table: CardTable) -> str:
     return f"{table.weight.text} {table.weight_unit}"
 
@@ -72,6 +92,7 @@ def pattern(c, su: str) -> Figure:
     return figure(terms.label(c.name, terms.PATTERN), c.pattern_speed, su)
 
 
+@in_language
 def margin_rows(t: CardTable, configs) -> list[list[Cell]]:
     """Per bank: the bank, its load factor, and for each of `configs` its stall speed and margin (hatched under the
     buffer, black at none, framed at or past its limit load)."""
@@ -130,6 +151,7 @@ def _bank(bank, label: str) -> Cell:
                 figure=figure(label, bank, "°", LOWER_IS_WORSE))
 
 
+@in_language
 def limit_rows(t: CardTable) -> list[list[Cell]]:
     """Per configuration: stall and pattern speeds, buffer and zero-margin banks, VFE, its own limit."""
     su = t.speed_unit
@@ -155,6 +177,7 @@ def limit_rows(t: CardTable) -> list[list[Cell]]:
 # --- pull -----------------------------------------------------------------------------------------------------
 
 
+@in_language
 def pull_rows(t: CardTable) -> list[list[Cell]]:
     """Per configuration: the load factor that stalls the wing at the pattern speed ("!" where the structure's limit
     comes first), and the stall speed at each load factor (framed above its limit load)."""
@@ -164,7 +187,8 @@ def pull_rows(t: CardTable) -> list[list[Cell]]:
         row = [Cell(f"{c.available_load_factor.text} g", bold=True, note="" if c.stalls_before_limit else "!",
                     figure=figure(terms.label(c.name, terms.AVAILABLE_LOAD), c.available_load_factor, "g"))]
         row += [Cell(v.text, framed=v.past_limit,
-                     figure=figure(terms.label(c.name, f"{n} g", terms.STALL), v, su, HIGHER_IS_WORSE))
+                     figure=figure(terms.label(c.name, Msg("{load} g", load=Num(n)), terms.STALL), v, su,
+                                   HIGHER_IS_WORSE))
                 for n, v in c.stall_at_load]
         rows.append(row)
     return rows
@@ -180,6 +204,7 @@ def turns_heading(t: CardTable) -> tuple[Figure, ...]:
             figure(terms.TEMPERATURE, t.temperature_c, "°C"))
 
 
+@in_language
 def turn_rows(t: CardTable, configs) -> list[list[Cell]]:
     """Per bank with a turn (above 0 and not stalled in every one of `configs`): radius and 180°/360° times."""
     du = t.distance_unit
@@ -217,6 +242,7 @@ def circling_heading(t: CardTable) -> tuple[Figure, ...]:
             _circling_tag(terms.label(straight, terms.SINK), g.min_sink_rate, t.sink_unit, HIGHER_IS_WORSE))
 
 
+@in_language
 def circling_rows(t: CardTable) -> list[list[Cell]]:
     """Per bank above 0: speed, sink, radius, time per circle, height lost in 180°."""
     su, du, sink = t.speed_unit, t.distance_unit, t.sink_unit
@@ -243,12 +269,13 @@ def circling_rows(t: CardTable) -> list[list[Cell]]:
 
 def turn_back_heading(t: CardTable) -> tuple[Figure, ...]:
     tb, at = t.turn_back, terms.TURN_BACK
-    return (figure(terms.label(at, "best glide speed"), tb.best_glide_speed, t.speed_unit),
-            figure(terms.label(at, "glide ratio"), tb.glide_ratio, "", LOWER_IS_WORSE),
+    return (figure(terms.label(at, terms.BEST_GLIDE), tb.best_glide_speed, t.speed_unit),
+            figure(terms.label(at, terms.GLIDE_RATIO), tb.glide_ratio, "", LOWER_IS_WORSE),
             figure(terms.label(at, terms.REACTION, terms.HEIGHT_LOSS), tb.reaction_height_loss, t.distance_unit,
                    HIGHER_IS_WORSE))
 
 
+@in_language
 def turn_back_rows(t: CardTable) -> list[list[Cell]]:
     """Per bank: the speed to fly in the gliding turn, its margin, the height each heading change costs; the bank of
     least loss in bold, a row at or past the glide configuration's limit bank framed whole."""
@@ -266,8 +293,8 @@ def turn_back_rows(t: CardTable) -> list[list[Cell]]:
                                   past_limit=past))]
         for h, loss in zip(tb.headings, r.height_loss):
             row.append(Cell(loss.text, bold=r.least, framed=past,
-                            figure=figure(terms.label(at, bank, f"{h}° {terms.HEIGHT_LOSS}"), loss, du,
-                                          HIGHER_IS_WORSE, past_limit=past)))
+                            figure=figure(terms.label(at, bank, Msg("{heading}° height loss", heading=Num(h))), loss,
+                                          du, HIGHER_IS_WORSE, past_limit=past)))
         rows.append(row)
     return rows
 

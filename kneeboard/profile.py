@@ -117,6 +117,7 @@ class CardSettings:
     notes: str = ""
     turn_back_deg: tuple[float, ...] = DEFAULT_TURN_BACK_DEG  #: heading changes of a turn back [deg]
     reaction_time: float = DEFAULT_REACTION_TIME  #: straight glide before the turn [s]
+    language: str = "en"  #: the language the card and the reports print in (`kneeboard.i18n.LANGUAGES`)
 
 
 @dataclass(frozen=True)

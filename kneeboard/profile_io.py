@@ -108,13 +108,23 @@ def _canonical(value):
     return value
 
 
+def figure_data(data: dict) -> dict:
+    """A profile's data without what changes no figure of its card: the card's language."""
+    card = data.get("card")
+    if isinstance(card, dict) and "language" in card:
+        return {**data, "card": {k: v for k, v in card.items() if k != "language"}}
+    return data
+
+
 def fingerprint(data: dict) -> str:
     """Eight hex digits identifying a profile's data (not its comments, layout, or how a number is written).
 
     A card shows it so a pilot can tell whether the card was printed from the current profile. The same
-    figures written another way ("1182.0 kg" for "1182 kg") are the same data and make the same card.
+    figures written another way ("1182.0 kg" for "1182 kg") are the same data and make the same card. The card's
+    language (`card.language`) is left out: it changes the card's words, never a figure.
     """
-    canonical = json.dumps(_canonical(data), sort_keys=True, ensure_ascii=True, separators=(",", ":"), default=str)
+    canonical = json.dumps(_canonical(figure_data(data)), sort_keys=True, ensure_ascii=True, separators=(",", ":"),
+                           default=str)
     return hashlib.sha256(canonical.encode()).hexdigest()[:8].upper()
 
 

@@ -13,7 +13,8 @@ import math
 
 import numpy as np
 
-from kneeboard import units
+from kneeboard import terms, units
+from kneeboard.i18n import N_, Num, Translator, translator
 from kneeboard.tables import BUFFER, LIMIT_MARK, STALL, CardTable
 from kneeboard.texts import CAUTION, CAUTION_TURN_BACK
 
@@ -138,22 +139,22 @@ def to_json(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
 
 
 #: The marks of the text and CSV tables, and what each means: the card shows them as black fill, hatching, a frame.
+STALL_MARK, BUFFER_MARK, PAST = N_("STALL"), N_("<buffer"), N_(">limit")  #: PAST: a figure past its limit
 MARKS = {
-    "STALL": "margin 0 or less: the configuration stalls at this bank (black on the card)",
-    "<buffer": "margin below the buffer (hatched on the card)",
-    ">limit": "load factor at or above the configuration's limit load factor (framed on the card); in the pull and "
-              "turn-back figures, a load factor or bank past that configuration's limit",
-    LIMIT_MARK: "a buffer or zero-margin bank at or past the configuration's limit bank: the limit is printed in its "
-                "place, not a bank to fly",
+    STALL_MARK: N_("margin 0 or less: the configuration stalls at this bank (black on the card)"),
+    BUFFER_MARK: N_("margin below the buffer (hatched on the card)"),
+    PAST: N_("load factor at or above the configuration's limit load factor (framed on the card); in the pull and "
+             "turn-back figures, a load factor or bank past that configuration's limit"),
+    LIMIT_MARK: N_("a buffer or zero-margin bank at or past the configuration's limit bank: the limit is printed in "
+                   "its place, not a bank to fly"),
 }
-PAST = ">limit"  #: the mark of a figure past its configuration's limit
 
 
-def _mark(row) -> str:
-    marks = {STALL: "STALL", BUFFER: "<buffer"}.get(row.state, "")
+def _mark(row, tr: Translator) -> str:
+    marks = [tr(m) for m in ({STALL: STALL_MARK, BUFFER: BUFFER_MARK}.get(row.state),) if m]
     if row.over_limit:
-        marks += " >limit"
-    return marks.strip()
+        marks.append(tr(PAST))
+    return " ".join(marks)
 
 
 def to_csv(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
@@ -162,7 +163,11 @@ def to_csv(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
 
     One header, the same columns on every line, so a sort or a filter keeps each figure with its weight; a text cell
     never starts a formula (`_cell`). `csv_file` adds the byte-order mark spreadsheet programs read UTF-8 by.
+    The column names are an interface, like the JSON's keys, and stay English; the figures' decimal separator, the
+    marks, the warnings and the caution follow the table's language.
     """
+    tr = translator(table.language)
+    n = tr.number
     out = io.StringIO()
     w = csv.writer(out, lineterminator="\r\n")  # RFC 4180
     su, du, wu = table.speed_unit, table.distance_unit, table.weight_unit
@@ -171,16 +176,18 @@ def to_csv(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
               "zero_margin_bank_deg", "buffer_bank_deg", "limit_load_factor", "limit_bank_deg", "fingerprint", "date",
               "note"]
     w.writerow(header)
-    lead = [_cell(table.registration), table.weight.text]
+    lead = [_cell(table.registration), n(table.weight.text)]
     tail = [_cell(fingerprint), made_on]
     for c in table.configurations:
-        banks = [c.zero_margin_bank.text, _text(c.buffer_bank), c.limit_load_factor.text, c.limit_bank.text]
+        banks = [n(c.zero_margin_bank.text), n(_text(c.buffer_bank)), n(c.limit_load_factor.text),
+                 n(c.limit_bank.text)]
         for row in c.rows:
-            w.writerow([*lead, _cell(c.name), row.bank_text, row.load_factor.text, row.stall_speed.text,
-                        c.pattern_speed.text, row.margin.text, *_turn(row), *banks, *tail, _mark(row)])
+            w.writerow([*lead, _cell(c.name), n(row.bank_text), n(row.load_factor.text), n(row.stall_speed.text),
+                        n(c.pattern_speed.text), n(row.margin.text), *[n(x) for x in _turn(row)], *banks, *tail,
+                        _mark(row, tr)])
     blank = [""] * (len(header) - len(lead) - len(tail) - 1)
     for line in (*table.warnings, CAUTION):
-        w.writerow([*lead, *blank, *tail, _cell(line)])
+        w.writerow([*lead, *blank, *tail, _cell(tr(line))])
     return out.getvalue()
 
 
@@ -208,86 +215,113 @@ def _turn(row) -> list[str]:
 
 
 def to_text(table: CardTable, fingerprint: str = "", made_on: str = "") -> str:
-    """A plain-text table for a terminal, figures as the card prints them."""
-    su, du = table.speed_unit, table.distance_unit
-    made = ", ".join(part for part in (f"fingerprint {fingerprint}" if fingerprint else "", made_on) if part)
+    """A plain-text table for a terminal, figures as the card prints them, in the table's language."""
+    tr = translator(table.language)
+    n = tr.number
+    su, du, wu = table.speed_unit, table.distance_unit, table.weight_unit
+    made = ", ".join(part for part in (f"{tr(terms.FINGERPRINT)} {fingerprint}" if fingerprint else "", made_on)
+                     if part)
+    weight = tr("card weight {weight} {unit} (reference weight {reference} {unit})", weight=table.weight, unit=wu,
+                reference=table.reference_weight)
+    limits = tr("limit load factor {load} g, limit bank {bank} deg (structural, not a bank to fly)",
+                load=table.limit_load_factor, bank=table.limit_bank)
+    if table.maneuvering_speed:
+        limits += "; " + tr("maneuvering speed VA at this weight {speed} {unit}", speed=table.maneuvering_speed,
+                            unit=su)
     lines = [
         f"{table.registration}  {table.model}" + (f"  ({made})" if made else ""),
-        f"card weight {table.weight.text} {table.weight_unit} (reference weight {table.reference_weight.text} "
-        f"{table.weight_unit}){'  ABOVE MAXIMUM WEIGHT' if table.over_max_weight else ''}",
-        f"limit load factor {table.limit_load_factor.text} g, limit bank {table.limit_bank.text} deg (structural, "
-        "not a bank to fly)"
-        + (f"; maneuvering speed VA at this weight {table.maneuvering_speed.text} {su}" if table.maneuvering_speed
-           else ""),
-        f"turns at pressure altitude {table.pressure_altitude.text} {du}, {table.temperature_c.text} degC, "
-        f"density altitude {table.density_altitude.text} {du}; buffer {table.buffer.text} {su}",
+        weight + ("  " + tr("ABOVE MAXIMUM WEIGHT") if table.over_max_weight else ""),
+        limits,
+        tr("turns at pressure altitude {pressure} {unit}, {temperature} degC, density altitude {density} {unit}; "
+           "buffer {buffer} {speed_unit}", pressure=table.pressure_altitude, unit=du, temperature=table.temperature_c,
+           density=table.density_altitude, buffer=table.buffer, speed_unit=su),
     ]
+    heads = [tr("bank"), "n", tr("stall"), tr("margin"), tr("radius"), "180", "360"]
     for c in table.configurations:
-        buffer_bank = _bank_text(c.buffer_bank) if c.buffer_bank else "none (margin below buffer)"
-        lines += [
-            "",
-            f"{c.name}: stall speed {c.stall_speed.text} {su}, pattern speed {c.pattern_speed.text} {su}, "
-            f"zero-margin bank {_bank_text(c.zero_margin_bank)}, buffer bank {buffer_bank}, "
-            f"limit load factor {c.limit_load_factor.text} g, limit bank {c.limit_bank.text} deg"
-            + (f", flap limit speed VFE {c.flap_limit_speed.text} {su}" if c.flap_limit_speed else ""),
-            _pull_line(c, su),
-            f"{'bank':>5} {'n':>5} {'stall':>6} {'margin':>7} {'radius':>7} {'180':>5} {'360':>5}",
-            f"{'deg':>5} {'':>5} {su:>6} {su:>7} {du:>7} {'s':>5} {'s':>5}",
-        ]
-        for row in c.rows:
-            radius, t180, t360 = _turn(row)
-            lines.append(
-                f"{row.bank_text:>5} {row.load_factor.text:>5} {row.stall_speed.text:>6} {row.margin.text:>7} "
-                f"{radius:>7} {t180:>5} {t360:>5}  {_mark(row)}"
-            )
+        buffer_bank = _bank_text(c.buffer_bank, tr) if c.buffer_bank else tr("none (margin below buffer)")
+        line = tr("{name}: stall speed {stall} {unit}, pattern speed {pattern} {unit}, zero-margin bank {zero}, "
+                  "buffer bank {buffer}, limit load factor {load} g, limit bank {bank} deg", name=c.name,
+                  stall=c.stall_speed, unit=su, pattern=c.pattern_speed, zero=_bank_text(c.zero_margin_bank, tr),
+                  buffer=buffer_bank, load=c.limit_load_factor, bank=c.limit_bank)
+        if c.flap_limit_speed:
+            line += ", " + tr("flap limit speed VFE {speed} {unit}", speed=c.flap_limit_speed, unit=su)
+        rows = [[n(row.bank_text), n(row.load_factor.text), row.stall_speed.text, row.margin.text, *_turn(row)]
+                for row in c.rows]
+        lines += ["", line, _pull_line(c, su, tr)]
+        lines += _aligned([heads, [tr("deg"), "", su, su, du, "s", "s"]], rows, (5, 5, 6, 7, 7, 5, 5),
+                          [f"  {_mark(row, tr)}" for row in c.rows])
     if table.glider:
         g = table.glider
+        sink = table.sink_unit
         lines += [
             "",
-            f"circling at minimum-sink angle of attack (straight: {g.min_sink_speed.text} {su}, "
-            f"sink {g.min_sink_rate.text} {table.sink_unit})",
-            f"{'bank':>5} {'speed':>6} {'sink':>5} {'radius':>7} {'circle':>7} {'180 loss':>9}",
-            f"{'deg':>5} {su:>6} {table.sink_unit:>5} {du:>7} {'s':>7} {du:>9}",
+            tr("circling at minimum-sink angle of attack (straight: {speed} {unit}, sink {sink} {sink_unit})",
+               speed=g.min_sink_speed, unit=su, sink=g.min_sink_rate, sink_unit=sink),
         ]
-        for row in g.rows:
-            lines.append(f"{row.bank_text:>5} {row.speed.text:>6} {row.sink_rate.text:>5} "
-                         f"{_text(row.turn_radius):>7} {_text(row.circle_time):>7} {_text(row.height_loss_180):>9}")
+        rows = [[n(row.bank_text), row.speed.text, n(row.sink_rate.text), _text(row.turn_radius),
+                 _text(row.circle_time), _text(row.height_loss_180)] for row in g.rows]
+        lines += _aligned([[tr("bank"), tr("speed"), tr("sink"), tr("radius"), tr("circle"), tr("180 loss")],
+                           [tr("deg"), su, sink, du, "s", du]], rows, (5, 6, 5, 7, 7, 9))
     if table.turn_back is not None and table.turn_back.rows:
-        lines += ["", *_turn_back_lines(table)]
+        lines += ["", *_turn_back_lines(table, tr)]
     if table.notes:
-        lines += ["", f"notes: {table.notes}"]
-    lines += ["", "marks: " + "; ".join(f"{mark} {meaning}" for mark, meaning in MARKS.items())]
-    lines += table.warnings
+        lines += ["", tr("notes: {notes}", notes=table.notes)]
+    lines += ["", tr("marks: {marks}", marks="; ".join(f"{tr(mark)} {tr(meaning)}" for mark, meaning in MARKS.items()))]
+    lines += [tr(w) for w in table.warnings]
     return "\n".join(lines) + "\n"
 
 
-def _bank_text(bank) -> str:
+def _aligned(heads: list[list[str]], rows: list[list[str]], least: tuple[int, ...],
+             tails: list[str] | None = None) -> list[str]:
+    """Head lines and rows of cells right-aligned in columns at least `least` wide, each column as wide as its widest
+    head or cell, so a translated head that is longer than the English widens its column and never pushes the
+    figures under it out of line; `tails`: text after each row (its marks)."""
+    widths = [max(w, *(len(r[j]) for r in heads + rows)) for j, w in enumerate(least)]
+    out = [" ".join(f"{cell:>{w}}" for cell, w in zip(r, widths)) for r in heads]
+    return out + [" ".join(f"{cell:>{w}}" for cell, w in zip(r, widths)) + (tails[i] if tails else "")
+                  for i, r in enumerate(rows)]
+
+
+def _bank_text(bank, tr: Translator) -> str:
     """A configuration's bank as printed, and, at or past its limit bank, saying so in words."""
-    return f"{bank.text} deg (at or past its limit bank)" if bank.past_limit else f"{bank.text} deg"
+    if bank.past_limit:
+        return tr("{bank} deg (at or past its limit bank)", bank=bank)
+    return tr("{bank} deg", bank=bank)
 
 
-def _pull_line(c, su: str) -> str:
+def _pull_line(c, su: str, tr: Translator) -> str:
     """The card's pull block for one configuration: the load factor that stalls the wing at the pattern speed."""
-    first = "" if c.stalls_before_limit else " (the structure's limit load comes before the stall)"
-    stalls = ", ".join(f"{v.text} {su} at {n} g" + (f" {PAST}" if v.past_limit else "") for n, v in c.stall_at_load)
-    return f"  pattern stalls at {c.available_load_factor.text} g wings level{first}; stall speed {stalls}"
+    stalls = ", ".join(tr("{speed} {unit} at {load} g", speed=v, unit=su, load=Num(load))
+                       + (f" {tr(PAST)}" if v.past_limit else "") for load, v in c.stall_at_load)
+    if c.stalls_before_limit:
+        return "  " + tr("pattern stalls at {load} g wings level; stall speed {stalls}", load=c.available_load_factor,
+                         stalls=stalls)
+    return "  " + tr("pattern stalls at {load} g wings level (the structure's limit load comes before the stall); "
+                     "stall speed {stalls}", load=c.available_load_factor, stalls=stalls)
 
 
-def _turn_back_lines(table: CardTable) -> list[str]:
+def _turn_back_lines(table: CardTable, tr: Translator) -> list[str]:
     """The card's turn-back block: per bank the speed to fly, its margin and the height each heading change costs."""
     tb, su, du = table.turn_back, table.speed_unit, table.distance_unit
-    what = "a launch failure" if table.category == "glider" else "engine failure"
-    heads = [f"{h} deg" for h in tb.headings]
-    lines = [
-        f"turn back after {what}: best glide {tb.best_glide_speed.text} {su} IAS, ratio {tb.glide_ratio.text}; "
-        f"{tb.reaction_time.text} s of reaction: {tb.reaction_height_loss.text} {du} first; height lost in the turn "
-        f"alone, least at the bank marked; gliding in {tb.clean}: margin over its stall speed, {PAST} at or past its "
-        f"limit bank {tb.limit_bank.text} deg",
-        f"{'bank':>5} {'speed':>6} {'margin':>7}" + "".join(f" {h:>8}" for h in heads),
-        f"{'deg':>5} {su + ' IAS':>6} {su:>7}" + "".join(f" {du + ' loss':>8}" for _ in heads),
-    ]
-    for r in tb.rows:
-        lines.append(f"{r.bank_text:>5} {r.speed.text:>6} {r.margin.text:>7}"
-                     + "".join(f" {loss.text:>8}" for loss in r.height_loss)
-                     + "".join(f"  {m}" for m, on in (("least", r.least), (PAST, r.past_limit)) if on))
-    return lines + [CAUTION_TURN_BACK]
+    values = dict(speed=tb.best_glide_speed, unit=su, ratio=tb.glide_ratio, time=tb.reaction_time,
+                  loss=tb.reaction_height_loss, distance_unit=du, configuration=tb.clean, mark=tr(PAST),
+                  bank=tb.limit_bank)
+    if table.category == "glider":
+        first = tr("turn back after a launch failure: best glide {speed} {unit} IAS, ratio {ratio}; {time} s of "
+                   "reaction: {loss} {distance_unit} first; height lost in the turn alone, least at the bank marked; "
+                   "gliding in {configuration}: margin over its stall speed, {mark} at or past its limit bank {bank} "
+                   "deg", **values)
+    else:
+        first = tr("turn back after engine failure: best glide {speed} {unit} IAS, ratio {ratio}; {time} s of "
+                   "reaction: {loss} {distance_unit} first; height lost in the turn alone, least at the bank marked; "
+                   "gliding in {configuration}: margin over its stall speed, {mark} at or past its limit bank {bank} "
+                   "deg", **values)
+    heads = [tr("{heading} deg", heading=Num(h)) for h in tb.headings]
+    rows = [[tr.number(r.bank_text), r.speed.text, r.margin.text, *(loss.text for loss in r.height_loss)]
+            for r in tb.rows]
+    tails = ["".join(f"  {tr(m)}" for m, on in ((N_("least"), r.least), (PAST, r.past_limit)) if on) for r in tb.rows]
+    lines = [first]
+    lines += _aligned([[tr("bank"), tr("speed"), tr("margin"), *heads],
+                       [tr("deg"), tr("{unit} IAS", unit=su), su, *[tr("{unit} loss", unit=du) for _ in heads]]],
+                      rows, (5, 6, 7) + (8,) * len(heads), tails)
+    return lines + [tr(CAUTION_TURN_BACK)]

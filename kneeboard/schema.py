@@ -12,6 +12,7 @@ from kneeboard.fields import (
     SINK_RANGE,
     SPEED_RANGE,
 )
+from kneeboard.i18n import Msg, Num
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import (
     AVGAS_DENSITY,
@@ -71,8 +72,8 @@ def _read_schema(r, data):
         r.problem("schema", f"is missing, so this is a format-0 file; it is read as format {SCHEMA_VERSION}, and "
                   "saving it from the app adds the number and keeps the original as a .format0.bak file",
                   wanted, severity=WARNING,
-                  plain="Profile of the first file format: figures read as written; check them against the flight "
-                        "manual once")
+                  plain=Msg("Profile of the first file format: figures read as written; check them against the "
+                            "flight manual once"))
     elif isinstance(version, bool) or not isinstance(version, int) or version < 1:
         r.problem("schema", "is not a format number", wanted, version)
     elif version > SCHEMA_VERSION:
@@ -107,8 +108,8 @@ def _read_aircraft(r, data):
         r.problem("aircraft.best_glide_speed" if "best_glide_speed" not in a else "aircraft.glide_ratio",
                   "the turn-back figures need both the best-glide speed and the glide ratio (or sink rate)",
                   "best_glide_speed with glide_ratio or best_glide_sink", severity=WARNING,
-                  plain="No turn back: it needs both the best-glide speed and the glide ratio (or sink rate), and "
-                        "the profile gives one. Both are in the flight manual")
+                  plain=Msg("No turn back: it needs both the best-glide speed and the glide ratio (or sink rate), "
+                            "and the profile gives one. Both are in the flight manual"))
         best_glide = glide_ratio = best_glide_sink = None
     calibration = r.calibration(a, "aircraft.calibration")
     glide_configuration = r.read("aircraft.glide_configuration", a) or None
@@ -262,11 +263,12 @@ def _read_card(r, data):
     elif temperature is not None and not 203.15 <= temperature <= 333.15:
         r.problem("card.temperature", "is outside -70 to +60 degC; check it", "an outside air temperature",
                   c["temperature"], WARNING,
-                  plain=f"Temperature {temperature - 273.15:.0f} °C is outside -70 to +60 °C: check the "
-                        "temperature of the turn figures")
+                  plain=Msg("Temperature {temperature} °C is outside -70 to +60 °C: check the temperature of the "
+                            "turn figures", temperature=Num(f"{temperature - 273.15:.0f}")))
     notes = r.read("card.notes", c)
     headings = _read_headings(r, c)
     reaction = r.read("card.reaction_time", c)
+    language = r.read("card.language", c, default="en")
     return CardSettings(
         bank_angles_deg=banks,
         speed_unit=speed_unit,
@@ -278,6 +280,7 @@ def _read_card(r, data):
         notes=notes,
         turn_back_deg=headings,
         reaction_time=DEFAULT_REACTION_TIME if reaction is None else reaction,
+        language=language,
     )
 
 
@@ -323,7 +326,7 @@ def _read_banks(r, c):
         banks.append(float(b))
     if len(set(banks)) != len(banks):
         r.problem("card.bank_angles", "lists a bank twice; it is printed once", "each bank once", raw, WARNING,
-                  plain="A bank angle is listed twice; it is printed once")
+                  plain=Msg("A bank angle is listed twice; it is printed once"))
     return tuple(sorted(set(banks))) or DEFAULT_BANKS_DEG
 
 
@@ -342,8 +345,8 @@ def _cross_checks(r, profile):
         r.problem(
             "weight", f"{weight} is above the maximum weight of {most}; limit loads are reduced in proportion",
             "a weight at or below aircraft.max_weight", severity=WARNING,
-            plain=f"Card weight {weight} is above the maximum weight of {most}: limit load factors lowered in "
-                  "proportion. The flight manual's weight limits govern",
+            plain=Msg("Card weight {weight} is above the maximum weight of {most}: limit load factors lowered in "
+                      "proportion. The flight manual's weight limits govern", weight=Num(weight), most=Num(most)),
         )
     names = [c.name for c in profile.configurations]
     if a.glide_configuration is not None and name_key(a.glide_configuration) not in {name_key(n) for n in names}:
@@ -352,8 +355,8 @@ def _cross_checks(r, profile):
     if a.reference_weight > a.max_weight * (1 + 1e-9):
         r.problem("aircraft.reference_weight", "is above the maximum weight", "at most aircraft.max_weight",
                   severity=WARNING,
-                  plain="The stall speeds' published weight is above the maximum weight: check both in the flight "
-                        "manual")
+                  plain=Msg("The stall speeds' published weight is above the maximum weight: check both in the "
+                            "flight manual"))
 
 
 def _flap_checks(r, raw: list, profile) -> None:
@@ -372,6 +375,6 @@ def _flap_checks(r, raw: list, profile) -> None:
                   "nor what it extends, so its limit load factor is taken as the clean wing's",
                   'flap_limit_speed and extended = "flaps" (or "air brakes"), its own limit_load_factor, or '
                   'extended = "nothing" when nothing is extended', severity=WARNING,
-                  plain=f"{c.name} stalls slower than {fastest.name} but has no flap limit speed: its limit load "
-                        "factor is the clean wing's, more than flaps may allow (14 CFR 23.345: +2.0). Check its VFE "
-                        "and limits")
+                  plain=Msg("{name} stalls slower than {fastest} but has no flap limit speed: its limit load factor "
+                            "is the clean wing's, more than flaps may allow (14 CFR 23.345: +2.0). Check its VFE and "
+                            "limits", name=c.name, fastest=fastest.name))

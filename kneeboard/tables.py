@@ -173,6 +173,7 @@ class CardTable:
     curves: tuple[Curve, ...]  #: for the chart
     warnings: tuple[str, ...] = ()  #: every warning about this card, one line each, printed on every page
     turn_back: TurnBackTable | None = None
+    language: str = "en"  #: the language its words print in (`kneeboard.i18n`); its figures are the same in all
 
 
 def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_unit=None,
@@ -254,6 +255,7 @@ def build(profile: Profile, weight: float | None = None, banks_deg=None, speed_u
         warnings=tuple(warnings),
         turn_back=None if results.turn_back is None else _turn_back(
             results.turn_back, configurations[results.turn_back.configuration], spd, dist, du),
+        language=card.language,
     )
 
 

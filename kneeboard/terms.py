@@ -10,42 +10,45 @@ across cards. Spelling is American throughout, as the FAA's handbooks write it.
 
 from dataclasses import dataclass
 
+from kneeboard.i18n import N_, Label, Num
+
 SEP = " · "  #: between the parts of a figure's label: configuration, bank, figure
 
-# The names, as a person reads them (lower case; a heading capitalises them).
-CARD_WEIGHT = "card weight"
-REFERENCE_WEIGHT = "reference weight"
-MAX_WEIGHT_EXCEEDED = "maximum weight (exceeded)"
-PATTERN = "pattern speed"
-STALL = "stall speed"
-MARGIN = "margin"
-BUFFER = "buffer"
-BUFFER_BANK = "buffer bank"
-ZERO_MARGIN_BANK = "zero-margin bank"
-LOAD_FACTOR = "load factor"
-LIMIT_LOAD = "limit load factor"
-LIMIT_BANK = "limit bank"
-VA = "maneuvering speed VA"
-FLAP_LIMIT = "flap limit speed VFE"
-AVAILABLE_LOAD = "available load factor"
-FINGERPRINT = "fingerprint"
-PRESSURE_ALTITUDE = "pressure altitude"
-TEMPERATURE = "temperature"
-DENSITY_ALTITUDE = "density altitude"
-TURN_RADIUS = "turn radius"
-TURN_TIMES = "180°/360° time"
-CIRCLING = "circling"
-STRAIGHT = "straight"
-SPEED = "speed"
-SINK = "sink rate"
-CIRCLE_TIME = "circle time"
-LOSS_180 = "180° height loss"
-TURN_BACK = "turn back"
-HEIGHT_LOSS = "height loss"
-REACTION = "reaction"
+# The names, as a person reads them (lower case; a heading capitalises them). Each is a `Word`: its English text
+# is what the code compares and matches on; a card in another language shows its catalogue's translation.
+CARD_WEIGHT = N_("card weight")
+REFERENCE_WEIGHT = N_("reference weight")
+MAX_WEIGHT_EXCEEDED = N_("maximum weight (exceeded)")
+PATTERN = N_("pattern speed")
+STALL = N_("stall speed")
+MARGIN = N_("margin")
+BUFFER = N_("buffer")
+BUFFER_BANK = N_("buffer bank")
+ZERO_MARGIN_BANK = N_("zero-margin bank")
+LOAD_FACTOR = N_("load factor")
+LIMIT_LOAD = N_("limit load factor")
+LIMIT_BANK = N_("limit bank")
+VA = N_("maneuvering speed VA")
+FLAP_LIMIT = N_("flap limit speed VFE")
+AVAILABLE_LOAD = N_("available load factor")
+FINGERPRINT = N_("fingerprint")
+PRESSURE_ALTITUDE = N_("pressure altitude")
+TEMPERATURE = N_("temperature")
+DENSITY_ALTITUDE = N_("density altitude")
+TURN_RADIUS = N_("turn radius")
+TURN_TIMES = N_("180°/360° time")
+CIRCLING = N_("circling")
+STRAIGHT = N_("straight")
+SPEED = N_("speed")
+SINK = N_("sink rate")
+CIRCLE_TIME = N_("circle time")
+LOSS_180 = N_("180° height loss")
+TURN_BACK = N_("turn back")
+HEIGHT_LOSS = N_("height loss")
+REACTION = N_("reaction")
 
-BEST_GLIDE = "best glide speed"
-GLIDE_RATIO = "glide ratio"
+BEST_GLIDE = N_("best glide speed")
+GLIDE_RATIO = N_("glide ratio")
 
 
 @dataclass(frozen=True)
@@ -165,13 +168,17 @@ def markdown_table() -> str:
     return "\n".join(lines) + "\n"
 
 
-def label(*parts: str) -> str:
-    """A figure's label from its parts: label("Flaps up", "30°", MARGIN) -> "Flaps up · 30° · margin"."""
-    return SEP.join(parts)
+def label(*parts: str) -> Label:
+    """A figure's label from its parts: label("Flaps up", "30°", MARGIN) -> "Flaps up · 30° · margin".
+
+    Its English text is the figure's identity in every language (what compare matches on); the parts stay with it,
+    so a card in another language shows its words (the `Word`s, `Msg`s) translated and the names as written."""
+    return Label(parts, SEP)
 
 
-def at_bank(bank_text: str) -> str:
-    return f"{bank_text}°"
+def at_bank(bank_text: str) -> Num:
+    """A bank as a label's part ("30°"); a decimal bank is written with the label's language's separator."""
+    return Num(f"{bank_text}°")
 
 
 if __name__ == "__main__":

@@ -1,24 +1,30 @@
-"""Words the card, the app and the command line all show, kept in one place."""
+"""Words the card, the app and the command line all show, kept in one place.
 
-CAUTION_CARD = (
+Each caution is marked for the catalogues (`N_`) and shown in the card's language where it is printed
+(`translator(language)(CAUTION_CARD)`); as a `str` it is the English text.
+"""
+
+from kneeboard.i18n import N_
+
+CAUTION_CARD = N_(
     "Computed from the flight manual's power-off stall speeds, for coordinated, level turns at the stated weight. "
     "The actual stall speed changes with center of gravity, power, contamination and maneuver. "
     "The aircraft flight manual and local regulations govern. Not a substitute for instruction."
 )
 
-CAUTION_SHORT = (
+CAUTION_SHORT = N_(
     "Figures for coordinated, level flight at the stated weight. The flight manual and local regulations govern; "
     "no substitute for instruction."
 )
 
-CAUTION = (
+CAUTION = N_(
     "CAUTION: figures are computed from published stall speeds for coordinated, level turns at the stated "
     "weight. The aircraft flight manual and local regulations govern; these figures are no substitute for "
     "instruction by a qualified flight instructor."
 )
 
 #: Under the turn-back figures, on the card and in the text table
-CAUTION_TURN_BACK = (
+CAUTION_TURN_BACK = N_(
     "Coordinated gliding turn, still air, after the reaction time, without roll-in and roll-out. Wind, the runway's "
     "position and the pilot's practice govern; a turn back is a decision for the flight manual, operator and training."
 )

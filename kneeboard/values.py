@@ -10,12 +10,13 @@ import unicodedata
 
 from kneeboard import fields, units
 from kneeboard.fields import SPEED_RANGE
+from kneeboard.i18n import Msg
 from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import Calibration
 
 MAX_POLAR_POINTS = 40
 #: How the card tells of an entry of the profile that nothing reads (gathered into one line with their count)
-UNKNOWN_ENTRY = "An entry of the profile is not read; the card is made without it: check no figure is missing"
+UNKNOWN_ENTRY = Msg("An entry of the profile is not read; the card is made without it: check no figure is missing")
 
 
 class Reader:
@@ -59,8 +60,8 @@ class Reader:
                 self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",
                              value=data[key], severity=WARNING,
                              plain=UNKNOWN_ENTRY if near is None else
-                             f"An entry of the profile looks like a misspelt '{near.label}' and is not read: check "
-                             "that figure")
+                             Msg("An entry of the profile looks like a misspelt '{field}' and is not read: check "
+                                 "that figure", field=near.label))
             else:
                 self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING,
                              plain=UNKNOWN_ENTRY)

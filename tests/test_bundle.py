@@ -80,6 +80,10 @@ def test_a_card_from_a_profile_in_another_folder_is_the_card_of_the_source(bundl
     assert data["registration"] == "DEMO-TRN" and data["fingerprint"] == checked_file(profile).fingerprint
     assert b"FiraSans" in pdf  # the shipped fonts, embedded
     assert (elsewhere / "trainer-DEMO-TRN-front.png").read_bytes().startswith(b"\x89PNG")  # through QtPdf
+    proc = run(bundle, elsewhere, "card", "trainer.toml", "-o", "karte.pdf", "--language", "de")
+    assert proc.returncode == 0, proc.stderr
+    (data,) = read_card_data((elsewhere / "karte.pdf").read_bytes())  # its words from the catalogue it carries
+    assert data["language"] == "de" and "Flaps up · 30° · Reserve" in {f["label"] for f in data["figures"]}
 
 
 def test_new_and_samples_start_from_nothing(bundle, elsewhere):

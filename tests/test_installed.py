@@ -56,6 +56,7 @@ def test_the_wheel_carries_the_style_templates_and_samples(installed):
     assert "kneeboard/resources/default.style.toml" in names
     assert {f"kneeboard/resources/templates/{c}.toml" for c in ("normal", "utility", "acrobatic", "glider")} <= names
     assert {f"kneeboard/samples/{p.name}" for p in SAMPLES.glob("*.toml")} <= names
+    assert {f"kneeboard/locale/{code}/LC_MESSAGES/kneeboard.mo" for code in ("de", "fr", "es", "cs", "pl")} <= names
 
 
 def test_an_installed_package_makes_cards_from_another_folder(installed):
@@ -71,6 +72,8 @@ def test_an_installed_package_makes_cards_from_another_folder(installed):
     assert (work / "mine.pdf").read_bytes().startswith(b"%PDF") and (work / "mine-DEMO-TRN-front.png").is_file()
     table = run(env, work, "table", "mine.toml", "--format", "json")
     assert table.returncode == 0 and json.loads(table.stdout)["registration"] == "DEMO-TRN"
+    german = run(env, work, "table", "mine.toml", "--language", "de")  # the catalogue the wheel carries
+    assert german.returncode == 0 and "Überziehgeschwindigkeit" in german.stdout, german.stderr
     check = run(env, work, "check", str(env))  # a folder without profiles: said so, exit 2
     assert check.returncode == 2 and "no profile" in check.stderr
 

@@ -80,5 +80,5 @@ def fleet_pdf(cards: list[Card], sheet: str | None = None) -> bytes:
         return pdf_bytes(pages, title=f"kneeboard cards ({len(cards)} aircraft)", attachments=attachments)
     from kneeboard.card.sheets import impose
 
-    return pdf_bytes(impose([card.pages for card in cards], sheet),
+    return pdf_bytes(impose([card.pages for card in cards], sheet, cards[0].table.language),
                      title=f"kneeboard cards ({len(cards)} aircraft) on {sheet} sheets", attachments=attachments)

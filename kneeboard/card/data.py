@@ -25,7 +25,15 @@ MAX_DATA = 4 * 1024 * 1024  #: [bytes] the most one card's data may expand to (a
 
 
 def card_data(card) -> dict:
-    """The printed figures of `card` as plain data."""
+    """The printed figures of `card` as plain data.
+
+    Each figure's `key` is its identity (its English label: the same on a card in any language, so compare matches
+    a German card with an English one), its `label` as the card's language says it, and its `text` the figure
+    itself as it is in every language ("1.41 g"; the card prints "1,41" in German).
+    """
+    from kneeboard.i18n import translator
+
+    tr = translator(card.table.language)
     return {
         "kneeboard_card": DATA_VERSION,
         "registration": card.registration,
@@ -33,7 +41,8 @@ def card_data(card) -> dict:
         "fingerprint": card.fingerprint,
         "made_on": card.made_on,
         "card_weight": f"{card.table.weight.text} {card.table.weight_unit}",
-        "figures": [{"key": f.identity, "label": f.label, "text": f.text, "worse": f.worse,
+        "language": card.table.language,
+        "figures": [{"key": f.identity, "label": tr.label(f.label), "text": f.text, "worse": f.worse,
                      **({"past_limit": True} if f.past_limit else {})}
                     for f in card.figures().values()],
         **({"weight_given": card.weight_given} if card.weight_given else {}),

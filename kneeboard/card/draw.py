@@ -9,6 +9,7 @@ from dataclasses import dataclass, field
 from kneeboard.card import fonts
 from kneeboard.card.ops import CAUTION, FIGURE, HEADING, LABEL, SMALL, TITLE, Circle, Figure, Line, Path, Rect, Text
 from kneeboard.card.style import CardStyle
+from kneeboard.i18n import Translator, translator
 from kneeboard.printed import figure, weight_text  # noqa: F401  (the blocks take them from here too)
 from kneeboard.tables import CardTable
 
@@ -55,6 +56,12 @@ class Context:
         if key not in self.memo:
             self.memo[key] = make()
         return self.memo[key]
+
+    @property
+    def tr(self) -> Translator:
+        """The card's words and decimal separator, in its table's language (`kneeboard.i18n`), with the soft hyphens
+        its wrapping may break long words at."""
+        return translator(self.table.language, soft_hyphens=True)
 
     def size(self, role: str) -> float:
         size = BASE_SIZE[role] * self.scale

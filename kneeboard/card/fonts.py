@@ -265,6 +265,8 @@ def printable(text: str) -> str:
     have = _drawable()
     out = []
     for ch in unicodedata.normalize("NFC", text):
+        if ch == SOFT_HYPHEN:
+            continue  # a place a word may break (`wrap` prints a hyphen there); never a mark of its own
         if ord(ch) in have:
             out.append(ch)
         elif ch.isspace():
@@ -335,10 +337,14 @@ def glued(words: list[str]) -> list[list[str]]:
     return groups
 
 
+SOFT_HYPHEN = "\u00ad"  #: where a word may be broken, with a hyphen printed (a catalogue's long compounds carry it)
+
+
 def wrap(text: str, font: str, size: float, max_width: float, hyphenate: bool = True) -> list[str]:
     """Break `text` into lines no wider than `max_width`, at spaces, never between a number and its unit or the
-    word it numbers (`glued`). A word wider than the line is broken with a hyphen when `hyphenate`, else it stays
-    whole (and the caller sees a line too wide)."""
+    word it numbers (`glued`). A word that does not fit is broken at a soft hyphen (U+00AD, set between syllables
+    by a translation) with a hyphen printed; a word still wider than the line is broken with a hyphen anywhere when
+    `hyphenate`, else it stays whole (and the caller sees a line too wide)."""
     if "\n" not in text and "\r" not in text and width(text, font, size) <= max_width:
         return [" ".join(text.split())]  # the common case: it fits on one line
     return list(_wrapped(text, font, size, max_width, hyphenate))
@@ -358,7 +364,9 @@ def _wrapped(text: str, font: str, size: float, max_width: float, hyphenate: boo
                     pieces = [" ".join(group[:2]), *group[2:]]
             for piece in pieces:
                 candidate = f"{line} {piece}" if line else piece
-                if line and width(candidate, font, size) > max_width:
+                if SOFT_HYPHEN in piece and width(candidate, font, size) > max_width:
+                    line = _soft_broken(lines, line, piece.split(SOFT_HYPHEN), font, size, max_width)
+                elif line and width(candidate, font, size) > max_width:
                     lines.append(line)
                     line = piece
                 else:
@@ -369,6 +377,32 @@ def _wrapped(text: str, font: str, size: float, max_width: float, hyphenate: boo
                     line = broken[-1]
         lines.append(line)
     return tuple(lines)
+
+
+def _soft_broken(lines: list[str], line: str, parts: list[str], font: str, size: float, max_width: float) -> str:
+    """Add a word given in `parts` (its syllables between soft hyphens) after `line`: as much of it as fits, up to a
+    soft hyphen and with a hyphen printed, each line full going to `lines`; returns the line it ends on."""
+
+    def fits(text):
+        return width(text, font, size) <= max_width
+
+    while True:
+        whole = "".join(parts)
+        candidate = f"{line} {whole}" if line else whole
+        if fits(candidate):
+            return candidate
+        for k in range(len(parts) - 1, 0, -1):
+            head = "".join(parts[:k]) + "-"
+            head = f"{line} {head}" if line else head
+            if fits(head):
+                lines.append(head)
+                line, parts = "", parts[k:]
+                break
+        else:
+            if not line:
+                return whole  # not even its first syllable fits a line: left whole, and the caller sees it
+            lines.append(line)
+            line = ""
 
 
 def _hyphenated(word: str, font: str, size: float, max_width: float) -> list[str]:

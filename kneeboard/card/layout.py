@@ -27,6 +27,7 @@ from kneeboard.card.draw import BASE_SIZE, FIGURE, RULE, SECONDARY, Context, Doe
 from kneeboard.card.geometry import BINDING_MARGIN, LARGE_CARDS, MM, SAFE_MARGIN, PageBox, page_box
 from kneeboard.card.ops import Circle, Page, Part
 from kneeboard.card.style import CardStyle
+from kneeboard.i18n import Msg
 from kneeboard.tables import CardTable
 
 #: Type scale each card size starts from, before the style's font scale.
@@ -419,7 +420,7 @@ def _split(name, m: Measure, put, advance, empty_room, column, state, gap) -> No
 
 def _card_of(face: int) -> str:
     """What the top of a face after the first says: the card of a set it begins, or that it continues."""
-    return f"continued, card {(face + 1) // 2}" if face % 2 == 1 else ""
+    return Msg("continued, card {n}", n=(face + 1) // 2) if face % 2 == 1 else ""
 
 
 def _binding_marks(box: PageBox, binding: str) -> list:

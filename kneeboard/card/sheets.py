@@ -13,6 +13,7 @@ from dataclasses import dataclass
 from kneeboard.card import fonts
 from kneeboard.card.geometry import MM, SHEET_SIZES
 from kneeboard.card.ops import SMALL, Line, Page, Part, SideText, Text
+from kneeboard.i18n import ENGLISH, translator
 
 SHEET_MARGIN = 5 * MM  #: most printers print this close to the edge
 GUTTER = 7 * MM  #: between cards: room for crop marks and the cut
@@ -77,11 +78,14 @@ def crop_marks(x: float, y: float, w: float, h: float) -> list[Line]:
     return marks
 
 
-def flip_instruction(grid: Grid) -> str:
+def flip_instruction(grid: Grid, language: str = ENGLISH) -> str:
     """How to print a sheet and its backs so each back lands behind its own front (see the module's docstring)."""
-    edge = "short" if grid.sheet_w > grid.sheet_h else "long"
-    return (f"Print on both sides, flip on the {edge} edge (turn the sheet over left to right): each back lands "
-            "behind its own front.")
+    tr = translator(language)
+    if grid.sheet_w > grid.sheet_h:
+        return tr("Print on both sides, flip on the short edge (turn the sheet over left to right): each back lands "
+                  "behind its own front.")
+    return tr("Print on both sides, flip on the long edge (turn the sheet over left to right): each back lands "
+              "behind its own front.")
 
 
 def _note(grid: Grid, text: str) -> list:
@@ -106,8 +110,9 @@ def physical_cards(cards: list[tuple[Page, ...]]) -> list[tuple[Page, ...]]:
     return [tuple(pages[i:i + 2]) for pages in cards for i in range(0, len(pages), 2)]
 
 
-def impose(cards: list[tuple[Page, ...]], sheet: str) -> list[Page]:
-    """Sheets for `cards` (each a tuple of its faces: front, back, and in a card set the next cards' faces)."""
+def impose(cards: list[tuple[Page, ...]], sheet: str, language: str = ENGLISH) -> list[Page]:
+    """Sheets for `cards` (each a tuple of its faces: front, back, and in a card set the next cards' faces); the
+    flip instruction in `language` (the first card's: a fleet's cards share their style's language)."""
     if not cards:
         return []
     cards = physical_cards(cards)
@@ -115,7 +120,7 @@ def impose(cards: list[tuple[Page, ...]], sheet: str) -> list[Page]:
     grid = grid_for(first.width, first.height, sheet)
     if any(p.width != first.width or p.height != first.height for c in cards for p in c):
         raise SheetError("all cards on a sheet must have the same size")
-    note = _note(grid, flip_instruction(grid))
+    note = _note(grid, flip_instruction(grid, language))
     sheets = []
     for start in range(0, len(cards), grid.per_sheet):
         group = cards[start:start + grid.per_sheet]

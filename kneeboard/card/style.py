@@ -14,6 +14,7 @@ from kneeboard import units
 from kneeboard.card.geometry import CARD_SIZES, page_box
 from kneeboard.fields import MAX_BANK_DEG
 from kneeboard.fileio import FileProblem, read_text
+from kneeboard.i18n import LANGUAGES
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile_io import parse_text
 from kneeboard.shipped import default_style_path
@@ -54,6 +55,8 @@ class CardStyle:
     bank_angles_deg: tuple[float, ...] | None = None  #: overrides the profiles' when set
     speed_unit: str | None = None
     distance_unit: str | None = None
+    language: str | None = None  #: the language of the cards' words (`kneeboard.i18n.LANGUAGES`); overrides the
+    #: profiles' when set
     source: Path | None = field(default=None, compare=False)
     #: the logo as checked PNG bytes, made when the style is loaded; None without a logo (or for a style
     #: built in code, whose `logo` is then read when a card is drawn)
@@ -101,7 +104,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
             data = {**data, "organization": data[LEGACY_ORGANIZATION]}
         data = {k: v for k, v in data.items() if k != LEGACY_ORGANIZATION}
     known = {"style", "organization", "logo", "accent", "font_scale", "size", "orientation", "binding", "front",
-             "back", "max_faces", "bank_angles", "speed_unit", "distance_unit"}
+             "back", "max_faces", "bank_angles", "speed_unit", "distance_unit", "language"}
     for key in data:
         if key not in known:
             bad(key_text(key), "unknown key, not used", "", data[key], WARNING)
@@ -160,6 +163,10 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     if distance_unit is not None and distance_unit not in units.DISTANCE_UNITS:
         bad("distance_unit", "is not accepted", " | ".join(units.DISTANCE_UNITS), distance_unit)
         distance_unit = None
+    language = data.get("language")
+    if language is not None and language not in LANGUAGES:
+        bad("language", "is not a language kneeboard prints", " | ".join(LANGUAGES), language)
+        language = None
     style = CardStyle(
         organization=organization,
         logo=logo,
@@ -174,6 +181,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
         bank_angles_deg=None if banks is None else tuple(sorted({float(b) for b in banks})),
         speed_unit=speed_unit,
         distance_unit=distance_unit,
+        language=language,
         logo_png=logo_bytes,
     )
     too_wide = organization_problems(style)

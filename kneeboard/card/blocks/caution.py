@@ -1,27 +1,30 @@
 """The caution that closes every page, with a footer line naming the card. It is not a block a style can turn
 off: the layout prints it on every page."""
 
+from kneeboard import terms
 from kneeboard.card import fonts
 from kneeboard.card.draw import GREY, INK, WHITE, Context, DoesNotFit, Draw, weight_text
 from kneeboard.card.ops import CAUTION, SMALL
+from kneeboard.i18n import Translator, translator
 from kneeboard.texts import CAUTION_CARD
 
 SHORT_WARNINGS = 2  #: warnings of at most this many lines are printed in full on every face, more on the first
 
 
-def face_label(face: int, faces: int) -> str:
+def face_label(face: int, faces: int, tr: Translator | None = None) -> str:
     """Which face of the card (or of the card set) this is, as its footer says: "" for a one-face card."""
+    tr = tr or translator()
     if faces <= 1:
         return ""
-    side = "front" if face % 2 == 1 else "back"
+    side = tr("front") if face % 2 == 1 else tr("back")
     if faces <= 2:
-        return f"{side} {face}/{faces}"
-    return f"card {(face + 1) // 2} of {(faces + 1) // 2} · {side}"
+        return tr("{side} {face}/{faces}", side=side, face=face, faces=faces)
+    return tr("card {card} of {cards} · {side}", card=(face + 1) // 2, cards=(faces + 1) // 2, side=side)
 
 
 def caution(ctx: Context, width: float, page: int, pages: int):
     """The closing block of face `page` of `pages` (see `_caution`), made once per type size and footer."""
-    return ctx.once(("caution", ctx.scale, width, page == 1, face_label(page, pages)),
+    return ctx.once(("caution", ctx.scale, width, page == 1, face_label(page, pages, ctx.tr)),
                     lambda: _caution(ctx, width, page, pages))
 
 
@@ -32,20 +35,21 @@ def _caution(ctx: Context, width: float, page: int, pages: int):
     white-on-black lead so it is not mistaken for a note. The first face carries every warning in full; a later
     face too when they take at most SHORT_WARNINGS lines, else one WARNING line saying how many and where.
     """
-    t = ctx.table
+    t, tr = ctx.table, ctx.tr
     d = Draw(ctx)
     cs, ss = ctx.size(CAUTION), ctx.size(SMALL)
     bar = 2.5
     y = -cs * 0.3
-    lead = "WARNING"
+    lead = tr("WARNING")
     lead_w = fonts.width(lead, fonts.BOLD, cs) + cs * 0.6
-    warnings = [fonts.wrap(w.removeprefix("WARNING").strip(), fonts.BOLD, cs, width - lead_w - cs * 0.4)
+    # each line is "WARNING ..." in the card's language (`pipeline.card_warnings`): the lead is drawn apart
+    warnings = [fonts.wrap(tr(w).removeprefix(lead).strip(), fonts.BOLD, cs, width - lead_w - cs * 0.4)
                 for w in t.warnings]
     if page > 1 and sum(len(lines) for lines in warnings) > SHORT_WARNINGS:
         # the first face carries every warning in full; the others say how many and where, in the same black lead
-        count = f"{len(warnings)} warnings" if len(warnings) > 1 else "a warning"
-        warnings = [fonts.wrap(f"this card carries {count}: read them on the front of card 1", fonts.BOLD, cs,
-                               width - lead_w - cs * 0.4)]
+        where = tr.plural("this card carries a warning: read it on the front of card 1",
+                          "this card carries {n} warnings: read them on the front of card 1", len(warnings))
+        warnings = [fonts.wrap(where, fonts.BOLD, cs, width - lead_w - cs * 0.4)]
     for wrapped in warnings:
         for k, line in enumerate(wrapped):
             y -= cs * 1.2
@@ -54,18 +58,19 @@ def _caution(ctx: Context, width: float, page: int, pages: int):
                 d.text(cs * 0.3, y, lead, CAUTION, True, color=WHITE)
             d.text(lead_w + cs * 0.4, y, line, CAUTION, True)
         y -= cs * 0.25
-    lines = fonts.wrap("CAUTION. " + CAUTION_CARD, fonts.REGULAR, cs, width - bar - 4)
+    head = tr("CAUTION.")
+    lines = fonts.wrap(f"{head} {tr(CAUTION_CARD)}", fonts.REGULAR, cs, width - bar - 4)
     top = y
     for i, line in enumerate(lines):
         y -= cs * 1.2
         if i == 0:
-            d.text(bar + 4, y, "CAUTION.", CAUTION, True)
-            d.text(bar + 4 + fonts.width("CAUTION. ", fonts.BOLD, cs), y, line.removeprefix("CAUTION. "), CAUTION)
+            d.text(bar + 4, y, head, CAUTION, True)
+            d.text(bar + 4 + fonts.width(head + " ", fonts.BOLD, cs), y, line.removeprefix(head + " "), CAUTION)
         else:
             d.text(bar + 4, y, line, CAUTION)
     d.rect(0, top, bar, top - y + cs * 0.35, fill=INK)
-    items = [t.registration, weight_text(t), f"fingerprint {ctx.fingerprint}", ctx.made_on]
-    side = face_label(page, pages)
+    items = [t.registration, weight_text(t), f"{tr(terms.FINGERPRINT)} {ctx.fingerprint}", ctx.made_on]
+    side = face_label(page, pages, tr)
     room = width - (fonts.width(side, fonts.BOLD, ss) + ss if side else 0)
     lines = [""]
     for item in items:

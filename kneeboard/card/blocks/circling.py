@@ -13,17 +13,19 @@ class Circling(Plan):
     name = NAME
 
     def __init__(self, ctx: Context, width: float):
-        t = ctx.table
+        t, tr = ctx.table, ctx.tr
         g = t.glider
         self.ctx = ctx
         fs = ctx.secondary_figure
         su, du, sink = t.speed_unit, t.distance_unit, t.sink_unit
 
-        self.heading = Heading(ctx, width, f"CIRCLING AT MINIMUM SINK, {weight_text(t)}",
-                               f"straight flight: {g.min_sink_speed.text} {su}, sink {g.min_sink_rate.text} "
-                               f"{sink}; 180° loss is the height lost in a 180° turn",
+        self.heading = Heading(ctx, width, tr("CIRCLING AT MINIMUM SINK, {weight}", weight=weight_text(t)),
+                               tr("straight flight: {speed} {unit}, sink {sink} {sink_unit}; 180° loss is the height "
+                                  "lost in a 180° turn", speed=g.min_sink_speed, unit=su, sink=g.min_sink_rate,
+                                  sink_unit=sink),
                                printed.circling_heading(t))
-        names = ["bank", f"{su} IAS", f"sink {sink}", f"radius {du}", "circle s", f"180° loss {du}"]
+        names = [tr("bank"), tr("{unit} IAS", unit=su), tr("sink {unit}", unit=sink), tr("radius {unit}", unit=du),
+                 tr("circle s"), tr("180° loss {unit}", unit=du)]
         columns = even_columns(width, len(names))
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
         rows = ctx.once((NAME,), lambda: printed.circling_rows(t))

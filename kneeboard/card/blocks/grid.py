@@ -20,6 +20,9 @@ __all__ = ["BLACK", "HATCHED", "NO_VALUE", "Cell", "Grid"]
 NAME_LINES = 3  #: a configuration's name wraps to at most this many lines
 CONTINUED = "continued"
 NAME_SHARE = 0.45  #: the most of a table's width its column of configuration names may take
+#: a block's detail under its title, or its note, wraps to at most this many lines (English takes three at most;
+#: the same words in German or Polish may take five on a small card)
+NOTE_LINES = 5
 
 
 class Grid:
@@ -72,6 +75,17 @@ class Grid:
         return y
 
 
+def head_width(text: str, size: float) -> float:
+    """The least width a column head in SMALL type at `size` can wrap to: its widest word, or, for a word with soft
+    hyphens, its widest piece with the hyphen printed [pt]."""
+    widest = 0.0
+    for word in text.split():
+        parts = word.split(fonts.SOFT_HYPHEN)
+        pieces = [p + "-" for p in parts[:-1]] + parts[-1:]
+        widest = max(widest, *(fonts.width(p, fonts.REGULAR, size) for p in pieces))
+    return widest
+
+
 @lru_cache(maxsize=1024)
 def _widest(texts: tuple[str, ...]) -> float:
     """The widest of `texts` in bold at 1 pt (widths are proportional to the size)."""
@@ -107,7 +121,8 @@ def group_headers(d: Draw, top: float, groups, label_size: float, block: str) ->
 
 
 class SubHeads:
-    """Small column labels [(text, x, w)], each wrapped to two lines, or three breaking after a hyphen."""
+    """Small column labels [(text, x, w)], each wrapped to two lines, or three breaking after a hyphen, or four
+    where a translation marks its long words' syllables with soft hyphens (a German compound)."""
 
     def __init__(self, ctx, block: str, labels):
         self.ss = ss = ctx.size(SMALL)
@@ -116,6 +131,8 @@ class SubHeads:
             try:
                 return fit_lines(block, text, fonts.REGULAR, ss, w - 1, 2)
             except DoesNotFit:
+                if fonts.SOFT_HYPHEN in text:
+                    return fit_lines(block, text, fonts.REGULAR, ss, w - 1, 4)
                 if "-" not in text:
                     return fit_lines(block, text, fonts.REGULAR, ss, w - 1, 3)
                 return fit_lines(block, text.replace("-", "- "), fonts.REGULAR, ss, w - 1, 3)
@@ -142,7 +159,7 @@ class Heading:
     def __init__(self, ctx, width: float, title: str, detail: str = "", figures=()):
         self.ctx, self.title, self.figures = ctx, title, figures
         self.hs, self.ls = ctx.size(HEADING), ctx.size(LABEL)
-        self.lines = fit_lines(title, detail, fonts.REGULAR, self.ls, width, 3) if detail else []
+        self.lines = fit_lines(title, detail, fonts.REGULAR, self.ls, width, NOTE_LINES) if detail else []
         self.height = self.hs * 1.35 + (len(self.lines) * self.ls * 1.2 + self.ls * 0.2 if self.lines else 0.0)
         self.again = self.hs * 1.35  #: the title alone, atop a continued piece
 
@@ -159,7 +176,8 @@ class Heading:
 
     def draw_again(self, d: Draw, top: float) -> float:
         """The title of a piece that continues the block: "TITLE (continued)"; the figures stay with the first."""
-        d.text(0, top - self.hs, f"{self.title} ({CONTINUED})", HEADING, True, color=self.ctx.style.accent)
+        d.text(0, top - self.hs, self.ctx.tr("{title} (continued)", title=self.title), HEADING, True,
+               color=self.ctx.style.accent)
         return top - self.again
 
 

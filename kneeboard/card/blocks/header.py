@@ -1,7 +1,7 @@
 """The header: registration, model, the weight the card is for, and where the card came from; and the top of a
 back page, enough to match it to its front."""
 
-from kneeboard import printed
+from kneeboard import printed, terms
 from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import (
@@ -62,7 +62,7 @@ class Header(Plan):
         y -= ts * 1.2 * len(self.model)
         y -= ls * 1.55
         self.weight_y = y
-        x = fonts.width("card weight ", fonts.REGULAR, ls) + fonts.width(weight_text(t), fonts.BOLD, ls)
+        x = fonts.width(self._lead(), fonts.REGULAR, ls) + fonts.width(weight_text(t), fonts.BOLD, ls)
         x += fonts.width(self._reference(), fonts.REGULAR, ls)
         if x + fonts.width(self._stamp(), fonts.REGULAR, ss) + ls > width:
             y -= ss * 1.35
@@ -73,12 +73,17 @@ class Header(Plan):
         self.rule_y = y
         self.measure = Measure((Section(-y + ls * 0.6),))
 
+    def _lead(self) -> str:
+        return self.ctx.tr(terms.CARD_WEIGHT) + " "
+
     def _reference(self) -> str:
-        t = self.ctx.table
-        return f"  ·  reference weight {t.reference_weight.text} {t.weight_unit}"
+        t, tr = self.ctx.table, self.ctx.tr
+        return f"  ·  {tr(terms.REFERENCE_WEIGHT)} {tr.number(t.reference_weight.text)} {t.weight_unit}"
 
     def _stamp(self) -> str:
-        return f"made {self.ctx.made_on}  ·  fingerprint {self.ctx.fingerprint}"
+        tr = self.ctx.tr
+        made = tr("made {date}", date=self.ctx.made_on)  # ISO 8601 in every language
+        return f"{made}  ·  {tr(terms.FINGERPRINT)} {self.ctx.fingerprint}"
 
     def draw(self, piece: Piece):
         ctx, width = self.ctx, self.width
@@ -99,7 +104,7 @@ class Header(Plan):
             y -= ts * 1.2
             d.text(0, y, line, TITLE)
         y = self.weight_y
-        lead = "card weight "
+        lead = self._lead()
         d.text(0, y, lead, LABEL)
         x = fonts.width(lead, fonts.REGULAR, ls)
         tags = printed.header(t)
@@ -113,9 +118,9 @@ class Header(Plan):
             y -= ls * 0.7
             h = ls * 1.6
             d.rect(0, y, width, h, fill=INK)
-            d.text(width / 2, y - h + ls * 0.45, f"ABOVE THE MAXIMUM WEIGHT OF {t.max_weight.text} {t.weight_unit}",
-                   LABEL, True, "centre", WHITE,
-                   figures=tags["over"])
+            most = f"{ctx.tr.number(t.max_weight.text)} {t.weight_unit}"
+            above = ctx.tr("ABOVE THE MAXIMUM WEIGHT OF {weight}", weight=most)
+            d.text(width / 2, y - h + ls * 0.45, above, LABEL, True, "centre", WHITE, figures=tags["over"])
         d.line(0, self.rule_y, width, self.rule_y, ctx.style.accent, 2.2)
         return d.block(NAME, -self.rule_y + ls * 0.6)
 
@@ -129,9 +134,10 @@ def back_header(ctx: Context, width: float, card: str = ""):
     t = ctx.table
     d = Draw(ctx)
     hs = ctx.size(HEADING)
-    text = f"{t.registration}  ·  {weight_text(t)}  ·  {card or 'continued'}"
+    card = ctx.tr(card) if card else ctx.tr("continued")
+    text = f"{t.registration}  ·  {weight_text(t)}  ·  {card}"
     if fonts.width(text, fonts.BOLD, hs) > width:
-        text = f"{t.registration}  ·  {card or 'continued'}"
+        text = f"{t.registration}  ·  {card}"
     d.text(0, -hs * 1.1, text, HEADING, True)
     d.line(0, -hs * 1.6, width, -hs * 1.6, ctx.style.accent, 1.5)
     return d.block("back-header", back_header_height(ctx))

@@ -8,15 +8,16 @@ text itself not retrieved).
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import ColumnHeads, Heading, NamedRow, name_column
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_column
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
+from kneeboard.i18n import Msg
 from kneeboard.tables import LIMIT_MARK
 
 NAME = "limits"
-PAST_NOTE = (f"{LIMIT_MARK}60° framed: the bank lies at or past that configuration's own limit bank; its limit is "
-             "printed in its place, a structural figure, not a bank to fly.")
+PAST_NOTE = Msg("{mark}60° framed: the bank lies at or past that configuration's own limit bank; its limit is "
+                "printed in its place, a structural figure, not a bank to fly.", mark=LIMIT_MARK)
 NORMAL_CATEGORY_BANK = 60  #: [deg] 14 CFR 23.3(a) before amendment 23-64
 
 
@@ -24,19 +25,21 @@ class Limits(Plan):
     name = NAME
 
     def __init__(self, ctx: Context, width: float):
-        t = ctx.table
+        t, tr = ctx.table, ctx.tr
         self.ctx = ctx
         su = t.speed_unit
-        detail = (f"Structure: limit load factor {t.limit_load_factor.text} g; a level turn reaches it at "
-                  f"{t.limit_bank.text}° (limit bank: a structural figure, not a bank to fly).")
+        detail = tr("Structure: limit load factor {load} g; a level turn reaches it at {bank}° (limit bank: a "
+                    "structural figure, not a bank to fly).", load=t.limit_load_factor, bank=t.limit_bank)
         if t.category == "normal":
-            detail += f" Normal category: no bank beyond {NORMAL_CATEGORY_BANK}°."
+            detail += " " + tr("Normal category: no bank beyond {bank}°.", bank=NORMAL_CATEGORY_BANK)
         if t.maneuvering_speed:
-            detail += f" VA at this weight {t.maneuvering_speed.text} {su} IAS."
-        self.heading = Heading(ctx, width, f"LIMITS AT {weight_text(t)}", detail,
+            detail += " " + tr("VA at this weight {speed} {unit} IAS.", speed=t.maneuvering_speed, unit=su)
+        self.heading = Heading(ctx, width, tr("LIMITS AT {weight}", weight=weight_text(t)), detail,
                                printed.limits_heading(t))
-        names = ["", f"stall {su} IAS", f"pattern {su} IAS", "buffer bank", "zero-margin bank", f"VFE {su} IAS",
-                 "limit g / bank"]
+        # the heads of narrow columns: the terms' words in English, a language may abbreviate them there
+        names = ["", tr("stall {unit} IAS", unit=su), tr("pattern {unit} IAS", unit=su),
+                 tr.pgettext("column head", "buffer bank"), tr.pgettext("column head", "zero-margin bank"),
+                 tr("VFE {unit} IAS", unit=su), tr("limit g / bank")]
         name_w = name_column(ctx, width, t.configurations)
         weights = (1.0, 1.0, 1.0, 1.0, 1.0, 1.45)  # the limit column holds "2.0/60°"
         unit = (width - name_w) / sum(weights)
@@ -50,7 +53,7 @@ class Limits(Plan):
         ss = ctx.size(SMALL)
         past = any(b is not None and b.past_limit
                    for c in t.configurations for b in (c.buffer_bank, c.zero_margin_bank))
-        self.note = fit_lines(NAME, PAST_NOTE, fonts.REGULAR, ss, width, 3) if past else []
+        self.note = fit_lines(NAME, tr(PAST_NOTE), fonts.REGULAR, ss, width, NOTE_LINES) if past else []
         self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
                                lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8,
                                again=self.heading.again)

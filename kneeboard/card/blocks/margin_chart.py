@@ -55,17 +55,22 @@ def _axes_height(ctx: Context) -> float:
 
 def _key_text(ctx: Context) -> str:
     t = ctx.table
-    return f"filled marker: zero-margin bank; open: buffer bank ({t.buffer.text} {t.speed_unit})"
+    return ctx.tr("filled marker: zero-margin bank; open: buffer bank ({buffer} {unit})", buffer=t.buffer,
+                  unit=t.speed_unit)
+
+
+def _axis_title(ctx: Context) -> str:
+    return ctx.tr("stall speed, {unit} IAS", unit=ctx.table.speed_unit)
 
 
 def _legend_items(ctx: Context, i: int) -> list[tuple[str, str | None, str]]:
     """One configuration's legend row: (kind, marker fill, text) pieces."""
-    c = ctx.table.configurations[i]
-    items = [("line", None, c.name), ("text", None, f"pattern {c.pattern_speed.text}")]
-    items.append(("marker", INK, f"{c.zero_margin_bank.text}°"))
+    c, tr = ctx.table.configurations[i], ctx.tr
+    items = [("line", None, c.name), ("text", None, tr("pattern {speed}", speed=c.pattern_speed))]
+    items.append(("marker", INK, f"{tr.number(c.zero_margin_bank.text)}°"))
     if c.buffer_bank is not None:
-        items.append(("marker", WHITE, f"{c.buffer_bank.text}°"))
-    items.append(("limit", None, f"limit {c.limit_bank.text}°"))
+        items.append(("marker", WHITE, f"{tr.number(c.buffer_bank.text)}°"))
+    items.append(("limit", None, tr("limit {bank}°", bank=c.limit_bank)))
     return items
 
 
@@ -155,8 +160,10 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
     y_lo = math.floor(y_lo / step) * step
     y_hi = math.ceil(y_hi / step) * step
 
+    tr = ctx.tr
     label_w = fonts.width(f"{y_hi:.0f}", fonts.REGULAR, ss) + ss * 0.6
-    pattern_w = max(fonts.width(f"pattern {c.pattern_speed.text}", fonts.BOLD, ss) for c in printed_configurations)
+    pattern_w = max(fonts.width(tr("pattern {speed}", speed=c.pattern_speed), fonts.BOLD, ss)
+                    for c in printed_configurations)
     px0, px1 = label_w, width - pattern_w - ss * 0.6
     py1, py0 = -ss * PLOT_TOP, -plot_h + ss * PLOT_BOTTOM  # top and bottom of the plot area
     if px1 - px0 < 80 or py1 - py0 < MIN_PLOT - 0.01:
@@ -180,8 +187,8 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
         d.text(X(b), py0 - ss * 1.2, f"{b}°", SMALL, align="left" if b == 0 else "centre", color=GREY)
     d.line(px0, py0, px1, py0, INK, 0.8)
     d.line(px0, py0, px0, py1, INK, 0.8)
-    d.text(0, py1 + ss * 1.85, f"stall speed, {su} IAS", SMALL, True)
-    d.text(px1, py0 - ss * 2.3, "bank angle", SMALL, True, "right")
+    d.text(0, py1 + ss * 1.85, _axis_title(ctx), SMALL, True)
+    d.text(px1, py0 - ss * 2.3, tr("bank angle"), SMALL, True, "right")
 
     _limit_lines(d, ctx, printed_configurations, X, x_max, px1, py0, py1, width)
 
@@ -204,7 +211,8 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
         d.line(X(0), pattern[i], px1, pattern[i], colour, 0.9, dash)
         d.path([(X(b), Y(s)) for b, s in stall], colour, 2.0, dash)
         d.line(px1, pattern[i], px1 + ss * 0.25, pattern_ys[i] + ss * 0.35, colour, 0.6)
-        d.text(px1 + ss * 0.3, pattern_ys[i], f"pattern {printed.pattern_speed.text}", SMALL, True, color=colour,
+        d.text(px1 + ss * 0.3, pattern_ys[i], tr("pattern {speed}", speed=printed.pattern_speed), SMALL, True,
+               color=colour,
                figures=rows.pattern(printed, su))
         shape = SHAPES[i % len(SHAPES)]
         limit = printed.limit_bank.value  # no marker at or past the configuration's own limit bank
@@ -262,15 +270,16 @@ def _limit_lines(d: Draw, ctx: Context, configurations, X, x_max: float, px1: fl
     shared: dict[float, list[int]] = {}
     for i, c in enumerate(configurations):
         shared.setdefault(c.limit_bank.value, []).append(i)
-    title = (0.0, fonts.width(f"stall speed, {t.speed_unit} IAS", fonts.BOLD, ss) + ss)  # on the second line
+    tr = ctx.tr
+    title = (0.0, fonts.width(_axis_title(ctx), fonts.BOLD, ss) + ss)  # on the second line
     taken: list[list[tuple[float, float]]] = [[], [title]]
     for bank, members in sorted(shared.items(), reverse=True):
         first = configurations[members[0]]
         i = members[0]
         colour = COLOURS[i % len(COLOURS)] or ctx.style.accent
         everyone = len(members) == len(configurations)
-        text = (f"limit bank {first.limit_bank.text}°" if everyone else f"limit {first.limit_bank.text}°") + \
-            f" ({first.limit_load_factor.text} g)"
+        text = (tr("limit bank {bank}° ({load} g)", bank=first.limit_bank, load=first.limit_load_factor)
+                if everyone else tr("limit {bank}° ({load} g)", bank=first.limit_bank, load=first.limit_load_factor))
         tag = rows.aircraft_limit_bank(t) if everyone and \
             first.limit_bank.text == t.limit_bank.text else None
         if bank <= x_max:

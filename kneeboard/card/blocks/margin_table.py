@@ -8,7 +8,7 @@ its heads repeated.
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHeads, split_configurations
+from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHeads, head_width, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import (
     GREY,
@@ -42,9 +42,10 @@ class _Group:
         self.configs = configs
         self.groups = [(c.name, bank_w + n_w + i * group_w, group_w) for i, c in enumerate(configs)]
         self.heads = GroupHeads(ctx, self.groups, NAME)
-        labels = [("bank", 0, bank_w), ("load", bank_w, n_w)]
+        tr = ctx.tr
+        labels = [(tr("bank"), 0, bank_w), (tr("load"), bank_w, n_w)]
         for _, x, w in self.groups:
-            labels += [("stall", x, w / 2), ("margin", x + w / 2, w / 2)]
+            labels += [(tr("stall"), x, w / 2), (tr("margin"), x + w / 2, w / 2)]
         self.subs = SubHeads(ctx, NAME, labels)
         self.head = self.heads.height + ls * 1.4 + self.subs.height
         columns = [(0, bank_w), (bank_w, n_w)]
@@ -62,9 +63,9 @@ class _Group:
         ctx = d.ctx
         ls, su = ctx.size(LABEL), ctx.table.speed_unit
         y = self.heads.draw(d, y)
-        d.text(0, y + ls * 0.2, f"{su} IAS", LABEL, True, color=GREY)
+        d.text(0, y + ls * 0.2, ctx.tr("{unit} IAS", unit=su), LABEL, True, color=GREY)
         for c, (_, x, w) in zip(self.configs, self.groups):
-            d.text(x + w / 2, y - ls * 1.05, f"pattern {c.pattern_speed.text}", LABEL, True, "centre",
+            d.text(x + w / 2, y - ls * 1.05, ctx.tr("pattern {speed}", speed=c.pattern_speed), LABEL, True, "centre",
                    figures=printed.pattern(c, su))
         y -= ls * 1.4
         y = self.subs.draw(d, y)
@@ -84,11 +85,11 @@ class MarginTable(Plan):
     def __init__(self, ctx: Context, width: float):
         t = ctx.table
         self.ctx, self.width = ctx, width
-        fs, ss = ctx.figure, ctx.size(SMALL)
-        bank_w = max(fonts.width("88°", fonts.BOLD, fs), fonts.width("bank", fonts.REGULAR, ss)) + fs * 0.7
+        fs, ss, tr = ctx.figure, ctx.size(SMALL), ctx.tr
+        bank_w = max(fonts.width("88°", fonts.BOLD, fs), head_width(tr("bank"), ss)) + fs * 0.7
         widest_load = max((r.load_factor.text for r in t.configurations[0].rows), key=len, default="5.76")
-        n_w = max(fonts.width(max(widest_load, "5.76", key=len), fonts.BOLD, ctx.secondary_figure),
-                  fonts.width("load", fonts.REGULAR, ss)) + fs * 0.5
+        n_w = max(fonts.width(tr.number(max(widest_load, "5.76", key=len)), fonts.BOLD, ctx.secondary_figure),
+                  head_width(tr("load"), ss)) + fs * 0.5
         configs = t.configurations
         self.parts = split_configurations(ctx, len(configs), lambda g: _Group(ctx, width, bank_w, n_w,
                                                                               [configs[i] for i in g]))
@@ -107,13 +108,14 @@ class MarginTable(Plan):
 
 def _legend_layout(ctx: Context, width: float, framed: bool):
     """The legend's entries placed in lines: ([(kind, text, tag, x, y)], height), y from the legend's top."""
-    t = ctx.table
+    t, tr = ctx.table, ctx.tr
     ss = ctx.size(SMALL)
-    entries = [(HATCHED, f"margin under the {t.buffer.text} {t.speed_unit} buffer", printed.buffer(t)),
-               (BLACK, "margin 0 or less: stalls at this bank", None)]
+    entries = [(HATCHED, tr("margin under the {buffer} {unit} buffer", buffer=t.buffer, unit=t.speed_unit),
+                printed.buffer(t)),
+               (BLACK, tr("margin 0 or less: stalls at this bank"), None)]
     if framed:
-        entries.append(("frame", "load factor at or above that configuration's limit load", None))
-    entries.append(("text", f"stall IAS at {weight_text(t)}, wings level and in the bank", None))
+        entries.append(("frame", tr("load factor at or above that configuration's limit load"), None))
+    entries.append(("text", tr("stall IAS at {weight}, wings level and in the bank", weight=weight_text(t)), None))
     top = -ss * 0.5
     x, y = 0.0, top
     box = ss * 1.2

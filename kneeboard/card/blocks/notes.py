@@ -4,9 +4,10 @@ from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import HEADING, LABEL
+from kneeboard.i18n import N_
 
 NAME = "notes"
-TITLE = "NOTES"
+TITLE = N_("NOTES")
 
 
 class Notes(Plan):
@@ -26,7 +27,8 @@ class Notes(Plan):
         hs, ls = self.hs, self.ls
         y = 0.0
         if piece.lead or piece.again:
-            d.text(0, -hs, TITLE if piece.lead else f"{TITLE} (continued)", HEADING, True,
+            tr = self.ctx.tr
+            d.text(0, -hs, tr(TITLE) if piece.lead else tr("{title} (continued)", title=tr(TITLE)), HEADING, True,
                    color=self.ctx.style.accent)
             y = -hs * 1.3
         for line in self.lines[piece.start:piece.stop]:

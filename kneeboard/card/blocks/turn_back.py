@@ -5,10 +5,11 @@ of the reaction time; the bank of least loss in bold. The figures are `aero.glid
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import ColumnHeads, Grid, Heading, even_columns
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Grid, Heading, even_columns
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import CAUTION, LABEL, SMALL
+from kneeboard.i18n import Num
 from kneeboard.texts import CAUTION_TURN_BACK
 
 NAME = "turn-back"
@@ -18,29 +19,32 @@ class TurnBack(Plan):
     name = NAME
 
     def __init__(self, ctx: Context, width: float):
-        t = ctx.table
+        t, tr = ctx.table, ctx.tr
         tb = t.turn_back
         self.ctx = ctx
         fs = ctx.secondary_figure
         su, du = t.speed_unit, t.distance_unit
-        what = "A LAUNCH FAILURE" if t.category == "glider" else "ENGINE FAILURE"
+        title = tr("TURN BACK AFTER A LAUNCH FAILURE") if t.category == "glider" else \
+            tr("TURN BACK AFTER ENGINE FAILURE")
         self.heading = Heading(
-            ctx, width, f"TURN BACK AFTER {what}",
-            f"best glide {tb.best_glide_speed.text} {su} IAS, ratio {tb.glide_ratio.text}; "
-            f"{tb.reaction_time.text} s of reaction: {tb.reaction_height_loss.text} {du} first. Height lost in "
-            f"the turn; least at the bold bank; margin over {tb.clean}'s stall speed.",
+            ctx, width, title,
+            tr("best glide {speed} {unit} IAS, ratio {ratio}; {time} s of reaction: {loss} {distance_unit} first. "
+               "Height lost in the turn; least at the bold bank; margin over {configuration}'s stall speed.",
+               speed=tb.best_glide_speed, unit=su, ratio=tb.glide_ratio, time=tb.reaction_time,
+               loss=tb.reaction_height_loss, distance_unit=du, configuration=tb.clean),
             printed.turn_back_heading(t))
-        names = ["bank", f"speed {su} IAS", f"margin {su}"] + [f"{h}° loss {du}" for h in tb.headings]
+        names = [tr("bank"), tr("speed {unit} IAS", unit=su), tr("margin {unit}", unit=su)] + \
+            [tr("{heading}° loss {unit}", heading=Num(h), unit=du) for h in tb.headings]
         columns = even_columns(width, len(names))
         self.heads = ColumnHeads(ctx, NAME, names, columns, width)
         rows = ctx.once((NAME,), lambda: printed.turn_back_rows(t))
         self.grid = Grid(NAME, columns, rows, fs * 1.3, fs)
         cs = ctx.size(CAUTION)
-        caution = CAUTION_TURN_BACK
+        caution = tr(CAUTION_TURN_BACK)
         if any(r.past_limit for r in tb.rows):
-            caution = (f"Framed rows: at or past {tb.clean}'s limit bank of {tb.limit_bank.text}°, a load the "
-                       f"structure is not built for. " + caution)
-        self.caution = fit_lines(NAME, caution, fonts.REGULAR, cs, width, 5)
+            caution = tr("Framed rows: at or past {configuration}'s limit bank of {bank}°, a load the structure is "
+                         "not built for.", configuration=tb.clean, bank=tb.limit_bank) + " " + caution
+        self.caution = fit_lines(NAME, caution, fonts.REGULAR, cs, width, NOTE_LINES + 2)  # a translation: longer
         foot = ctx.size(SMALL) * 0.2 + cs * 1.2 * len(self.caution) + ctx.size(LABEL) * 0.6
         self.measure = Measure((Section(self.heads.height, (fs * 1.3,) * len(rows)),),
                                lead=self.heading.height, foot=foot, again=self.heading.again)

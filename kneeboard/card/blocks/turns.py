@@ -2,13 +2,14 @@
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NO_VALUE, Grid, GroupHeads, Heading, SubHeads, split_configurations
+from kneeboard.card.blocks.grid import NO_VALUE, Grid, GroupHeads, Heading, SubHeads, head_width, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, INK, RULE, Context, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import SMALL
+from kneeboard.i18n import N_
 
 NAME = "turns"
-TITLE = "TURNS AT PATTERN SPEED"
+TITLE = N_("TURNS AT PATTERN SPEED")
 
 
 class _Group:
@@ -21,9 +22,10 @@ class _Group:
         group_w = (width - bank_w) / len(configs)
         self.groups = [(c.name, bank_w + i * group_w, group_w) for i, c in enumerate(configs)]
         self.heads = GroupHeads(ctx, self.groups, NAME)
-        labels = [("bank", 0, bank_w)]
+        tr = ctx.tr
+        labels = [(tr("bank"), 0, bank_w)]
         for _, x, w in self.groups:
-            labels += [(f"radius {du}", x, w * 0.5), ("180°/360° s", x + w * 0.5, w * 0.5)]
+            labels += [(tr("radius {unit}", unit=du), x, w * 0.5), (tr("180°/360° s"), x + w * 0.5, w * 0.5)]
         self.subs = SubHeads(ctx, NAME, labels)
         columns = [(0, bank_w)]
         for _, x, w in self.groups:
@@ -38,7 +40,7 @@ class _Group:
         ss = d.ctx.size(SMALL)
         if not self.rows:  # every bank above 0 stalls (or none was asked for): say so rather than an empty table
             y -= ss * 1.3
-            d.text(0, y, "no turn figures: no bank above 0° with margin left", SMALL, color=GREY)
+            d.text(0, y, d.ctx.tr("no turn figures: no bank above 0° with margin left"), SMALL, color=GREY)
             return y - ss * 0.6
         y = self.heads.draw(d, y)
         y = self.subs.draw(d, y)
@@ -54,15 +56,16 @@ class Turns(Plan):
     name = NAME
 
     def __init__(self, ctx: Context, width: float):
-        t = ctx.table
+        t, tr = ctx.table, ctx.tr
         self.ctx, self.width = ctx, width
         fs, ss = ctx.secondary_figure, ctx.size(SMALL)
         du = t.distance_unit
-        self.heading = Heading(ctx, width, TITLE,
-                               f"density altitude {t.density_altitude.text} {du} (pressure altitude "
-                               f"{t.pressure_altitude.text} {du}, {t.temperature_c.text} °C)",
+        self.heading = Heading(ctx, width, tr(TITLE),
+                               tr("density altitude {density} {unit} (pressure altitude {pressure} {unit}, "
+                                  "{temperature} °C)", density=t.density_altitude, pressure=t.pressure_altitude,
+                                  temperature=t.temperature_c, unit=du),
                                printed.turns_heading(t))
-        bank_w = fonts.width("88°", fonts.BOLD, fs) + fs
+        bank_w = max(fonts.width("88°", fonts.BOLD, fs) + fs, head_width(self.ctx.tr("bank"), ss) + ss * 0.5)
         configs = t.configurations
         self.parts = split_configurations(ctx, len(configs),
                                           lambda g: _Group(ctx, width, bank_w, [configs[i] for i in g]))
@@ -84,7 +87,7 @@ class Turns(Plan):
         if piece.foot:
             if self.stalled:
                 y -= ss * 1.3
-                d.text(0, y, f"{NO_VALUE} stalled at that bank", SMALL, color=GREY)
+                d.text(0, y, self.ctx.tr("{none} stalled at that bank", none=NO_VALUE), SMALL, color=GREY)
             if any(p.rows for p in self.parts):
                 y -= ss * 0.6
         return d.block(NAME, -y)
