@@ -205,9 +205,11 @@ def baseline(top: float, row_height: float, size: float) -> float:
     return top - (row_height + fonts.ascent(size)) / 2
 
 
-def fit_lines(block: str, text: str, font: str, size: float, max_width: float, max_lines: int) -> list[str]:
-    """Wrap `text`; raise DoesNotFit when it needs more lines, or a word is wider, than allowed."""
-    lines = fonts.wrap(text, font, size, max_width, hyphenate=False)
+def fit_lines(block: str, text: str, font: str, size: float, max_width: float, max_lines: int,
+              hyphenate: bool = False) -> list[str]:
+    """Wrap `text`; raise DoesNotFit when it needs more lines, or a word is wider, than allowed (with `hyphenate`, a
+    word wider than the line is broken with a hyphen instead)."""
+    lines = fonts.wrap(text, font, size, max_width, hyphenate=hyphenate)
     if len(lines) > max_lines or any(fonts.width(line, font, size) > max_width + 0.01 for line in lines):
         raise DoesNotFit(block, f"{text!r} does not fit in {max_width:.0f} pt")
     return lines

@@ -220,13 +220,20 @@ def name_column(ctx, width: float, configurations) -> float:
     return min(max(width * 0.2, longest + 6), width * NAME_SHARE)
 
 
+def name_widths(ctx, width: float, configurations) -> list[float]:
+    """The widths to try for a table's column of names, widest first: `name_column`'s, then narrower, down to a
+    fifth of the table, so the other columns' heads (longer in some languages) get room when names need less."""
+    widest, least = name_column(ctx, width, configurations), width * 0.2
+    return [widest - (widest - least) * k / 4 for k in range(5)] if widest > least + 1 else [least]
+
+
 class NamedRow:
     """One configuration's row: its name (wrapped at words) in the first `name_w` and `cells` in `columns`, as one
     grid row tall enough for both."""
 
-    def __init__(self, ctx, block: str, name: str, name_w: float, columns, cells):
+    def __init__(self, ctx, block: str, name: str, name_w: float, columns, cells, hyphenate: bool = False):
         fs, self.ls = ctx.secondary_figure, ctx.size(LABEL)
-        self.lines = fit_lines(block, name, fonts.BOLD, self.ls, name_w - 4, NAME_LINES)
+        self.lines = fit_lines(block, name, fonts.BOLD, self.ls, name_w - 4, NAME_LINES, hyphenate)
         self.height = max(fs * 1.45, len(self.lines) * self.ls * 1.15 + self.ls * 0.6)
         self.grid = Grid(block, columns, [cells], self.height, fs, shade=False)
 

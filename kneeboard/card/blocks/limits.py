@@ -8,9 +8,9 @@ text itself not retrieved).
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_column
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_widths
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
+from kneeboard.card.draw import INK, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
 from kneeboard.i18n import Msg
 from kneeboard.tables import LIMIT_MARK
@@ -40,16 +40,17 @@ class Limits(Plan):
         names = ["", tr("stall {unit} IAS", unit=su), tr("pattern {unit} IAS", unit=su),
                  tr.pgettext("column head", "buffer bank"), tr.pgettext("column head", "zero-margin bank"),
                  tr("VFE {unit} IAS", unit=su), tr("limit g / bank")]
-        name_w = name_column(ctx, width, t.configurations)
-        weights = (1.0, 1.0, 1.0, 1.0, 1.0, 1.45)  # the limit column holds "2.0/60°"
-        unit = (width - name_w) / sum(weights)
-        columns, x = [(0, name_w)], name_w
-        for weight in weights:
-            columns.append((x, unit * weight))
-            x += unit * weight
-        self.heads = ColumnHeads(ctx, NAME, names, columns, width)
-        self.rows = [NamedRow(ctx, NAME, c.name, name_w, columns[1:], row)
-                     for c, row in zip(t.configurations, ctx.once((NAME,), lambda: printed.limit_rows(t)))]
+        cells = ctx.once((NAME,), lambda: printed.limit_rows(t))
+        widths = name_widths(ctx, width, t.configurations)
+        for k, name_w in enumerate(widths):
+            # names as wide as their longest word where the heads leave room; at a fifth of the table at last,
+            # where a word longer than that breaks with a hyphen rather than leave the card unmade
+            try:
+                self.heads, self.rows = self._table(ctx, width, names, name_w, cells, k == len(widths) - 1)
+                break
+            except DoesNotFit:
+                if k == len(widths) - 1:
+                    raise
         ss = ctx.size(SMALL)
         past = any(b is not None and b.past_limit
                    for c in t.configurations for b in (c.buffer_bank, c.zero_margin_bank))
@@ -57,6 +58,19 @@ class Limits(Plan):
         self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
                                lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8,
                                again=self.heading.again)
+
+    @staticmethod
+    def _table(ctx, width: float, names, name_w: float, cells, last: bool):
+        weights = (1.0, 1.0, 1.0, 1.0, 1.0, 1.45)  # the limit column holds "2.0/60°"
+        unit = (width - name_w) / sum(weights)
+        columns, x = [(0, name_w)], name_w
+        for weight in weights:
+            columns.append((x, unit * weight))
+            x += unit * weight
+        heads = ColumnHeads(ctx, NAME, names, columns, width)
+        rows = [NamedRow(ctx, NAME, c.name, name_w, columns[1:], row, hyphenate=last)
+                for c, row in zip(ctx.table.configurations, cells)]
+        return heads, rows
 
     def draw(self, piece: Piece):
         d = Draw(self.ctx)
