@@ -97,14 +97,18 @@ def _build(source: Path) -> bytes:
     # lazy: tables we do not touch are copied as they are (the layout tables are read from a second copy, as
     # reading them would make the first write them anew: a second and a half); no timestamp change, so the
     # bytes (and every PDF that embeds them) are the same wherever and whenever the cache was made
-    font = FontFile(source, lazy=True, recalcTimestamp=False)
-    slashed = _feature_glyph(FontFile(source, lazy=True), "zero", font.getBestCmap().get(ord("0")))
-    if slashed is not None:
-        for table in font["cmap"].tables:
-            if table.isUnicode() and ord("0") in table.cmap:
-                table.cmap[ord("0")] = slashed
-    buf = io.BytesIO()
-    font.save(buf)
+    # Both copies read from bytes in memory and are closed here: a lazy font left to the garbage collector would
+    # close its file on whichever thread collects it (the preview's render thread), while another still reads.
+    data = source.read_bytes()
+    with FontFile(io.BytesIO(data), lazy=True, recalcTimestamp=False) as font, \
+            FontFile(io.BytesIO(data), lazy=True) as layout:
+        slashed = _feature_glyph(layout, "zero", font.getBestCmap().get(ord("0")))
+        if slashed is not None:
+            for table in font["cmap"].tables:
+                if table.isUnicode() and ord("0") in table.cmap:
+                    table.cmap[ord("0")] = slashed
+        buf = io.BytesIO()
+        font.save(buf)
     return buf.getvalue()
 
 
