@@ -116,15 +116,6 @@ def test_handbook_forms_within_half_a_percent(v_kt, bank_deg):
     assert rate_deg == pytest.approx(1091 * math.tan(phi) / v_kt, rel=5e-3)
 
 
-@pytest.mark.parametrize("v_kt, bank_deg", [(100, 15.4), (120, 18.3)])
-def test_standard_rate_bank(v_kt, bank_deg):
-    # FAA-H-8083-15 (IFH) chapter 7: standard-rate bank is about 15 % of TAS (100 kt -> 15, 120 kt -> 18);
-    # the exact banks are 15.4 and 18.3 degrees (computed).
-    bank = math.degrees(turns.bank_for_turn_rate(v_kt * KT, math.radians(3)))
-    assert bank == pytest.approx(bank_deg, abs=0.1)
-    assert bank == pytest.approx(0.15 * v_kt, abs=0.6)  # the rule of thumb, as an approximation
-
-
 def test_limit_bank():
     # Level-turn bank at the limit load factor: arccos(1 / n). 3.8 -> 74.7 degrees (computed).
     assert math.degrees(turns.limit_bank(3.8)) == pytest.approx(74.74, abs=0.01)

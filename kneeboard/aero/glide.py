@@ -29,12 +29,6 @@ def turn_speed(v_bg, bank):
     return np.asarray(v_bg, dtype=float) * np.sqrt(load_factor(bank))
 
 
-def turn_sink_rate(v_bg, glide_ratio, bank):
-    """Sink rate [m/s] of the gliding turn: V / ((L/D) cos(phi)); `v_bg` [m/s] true, `glide_ratio` [-]."""
-    bank = np.asarray(bank, dtype=float)
-    return turn_speed(v_bg, bank) / (np.asarray(glide_ratio, dtype=float) * np.cos(bank))
-
-
 def turn_height_loss(v_bg, glide_ratio, bank, heading_change):
     """Height [m] lost through `heading_change` [rad] in a gliding turn at `bank` [rad].
 

@@ -58,8 +58,3 @@ def turn_time(tas, bank, heading_change):
     """Time to turn through `heading_change` [rad] at `tas` [m/s] and `bank` [rad] -> [s]; inf at 0 bank."""
     with np.errstate(divide="ignore"):
         return np.asarray(heading_change, dtype=float) / turn_rate(tas, bank)
-
-
-def bank_for_turn_rate(tas, rate):
-    """Bank [rad] that gives the turn `rate` [rad/s] at `tas` [m/s]: arctan(V omega / g)."""
-    return np.arctan(np.asarray(tas, dtype=float) * np.asarray(rate, dtype=float) / G0)
