@@ -8,9 +8,9 @@ text itself not retrieved).
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_widths
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, NamedTable, name_widths
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import INK, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
+from kneeboard.card.draw import INK, Context, DoesNotFit, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
 from kneeboard.i18n import Msg
 from kneeboard.tables import LIMIT_MARK
@@ -21,8 +21,9 @@ PAST_NOTE = Msg("{mark}60° framed: the bank lies at or past that configuration'
 NORMAL_CATEGORY_BANK = 60  #: [deg] 14 CFR 23.3(a) before amendment 23-64
 
 
-class Limits(Plan):
+class Limits(NamedTable):
     name = NAME
+    note_color = INK
 
     def __init__(self, ctx: Context, width: float):
         t, tr = ctx.table, ctx.tr
@@ -55,9 +56,7 @@ class Limits(Plan):
         past = any(b is not None and b.past_limit
                    for c in t.configurations for b in (c.buffer_bank, c.zero_margin_bank))
         self.note = fit_lines(NAME, tr(PAST_NOTE), fonts.REGULAR, ss, width, NOTE_LINES) if past else []
-        self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
-                               lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8,
-                               again=self.heading.again)
+        self.measure = self.measured()
 
     @staticmethod
     def _table(ctx, width: float, names, name_w: float, cells, last: bool):
@@ -71,20 +70,6 @@ class Limits(Plan):
         rows = [NamedRow(ctx, NAME, c.name, name_w, columns[1:], row, hyphenate=last)
                 for c, row in zip(ctx.table.configurations, cells)]
         return heads, rows
-
-    def draw(self, piece: Piece):
-        d = Draw(self.ctx)
-        y = self.heading.draw(d, 0.0) if piece.lead else self.heading.draw_again(d, 0.0) if piece.again else 0.0
-        y = self.heads.draw(d, y)
-        for row in self.rows[piece.start:piece.stop]:
-            y = row.draw(d, y)
-        if piece.foot:
-            ss = self.ctx.size(SMALL)
-            for line in self.note:
-                y -= ss * 1.2
-                d.text(0, y, line, SMALL, color=INK)
-            y -= ss * 0.8
-        return d.block(NAME, -y)
 
 
 SPEC = BlockSpec(NAME, "Limits: load factor, VA, buffer and zero-margin banks", plan=Limits)

@@ -4,9 +4,9 @@ stalls the wing in any attitude. Marked where the structure's limit load comes b
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_column
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, NamedTable, name_column
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import GREY, Context, Draw, Measure, Piece, Plan, Section, fit_lines
+from kneeboard.card.draw import Context, fit_lines
 from kneeboard.card.ops import SMALL
 from kneeboard.i18n import N_, Num
 
@@ -14,7 +14,7 @@ NAME = "pull"
 TITLE = N_("PULL AT THE PATTERN SPEED")
 
 
-class Pull(Plan):
+class Pull(NamedTable):
     name = NAME
 
     def __init__(self, ctx: Context, width: float):
@@ -40,23 +40,7 @@ class Pull(Plan):
             note += " " + tr("Framed: a load factor above that configuration's limit load factor.")
         ss = ctx.size(SMALL)
         self.note = fit_lines(NAME, note, fonts.REGULAR, ss, width, NOTE_LINES)
-        self.measure = Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
-                               lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8,
-                               again=self.heading.again)
-
-    def draw(self, piece: Piece):
-        d = Draw(self.ctx)
-        y = self.heading.draw(d, 0.0) if piece.lead else self.heading.draw_again(d, 0.0) if piece.again else 0.0
-        y = self.heads.draw(d, y)
-        for row in self.rows[piece.start:piece.stop]:
-            y = row.draw(d, y)
-        if piece.foot:
-            ss = self.ctx.size(SMALL)
-            for line in self.note:
-                y -= ss * 1.2
-                d.text(0, y, line, SMALL, color=GREY)
-            y -= ss * 0.8
-        return d.block(NAME, -y)
+        self.measure = self.measured()
 
 
 SPEC = BlockSpec(NAME, "Pull at the pattern speed: the load factor that stalls the wing", plan=Pull)
