@@ -371,27 +371,25 @@ def _merged(data: dict, style: CardStyle | None, overrides: Overrides) -> tuple[
         card[key] = value
         origins[f"card.{key}"] = origin
 
+    def settings(bank_angles, speed_unit, distance_unit, language, origin) -> None:
+        """The card settings a style or the command line gives, in the profile's place, each with its origin."""
+        if bank_angles is not None:
+            card_setting("bank_angles", list(bank_angles), origin("bank_angles"))
+        if speed_unit is not None:
+            card_setting("speed_unit", speed_unit, origin("speed_unit"))
+            if distance_unit is None and speed_unit == "km/h":
+                card_setting("distance_unit", "m", origin("speed_unit"))
+        if distance_unit is not None:
+            card_setting("distance_unit", distance_unit, origin("distance_unit"))
+        if language is not None:
+            card_setting("language", language, origin("language"))
+
     if style is not None:
-        if style.bank_angles_deg is not None:
-            card_setting("bank_angles", list(style.bank_angles_deg), "the card style's bank_angles")
-        if style.speed_unit is not None:
-            card_setting("speed_unit", style.speed_unit, "the card style's speed_unit")
-            if style.distance_unit is None and style.speed_unit == "km/h":
-                card_setting("distance_unit", "m", "the card style's speed_unit")
-        if style.distance_unit is not None:
-            card_setting("distance_unit", style.distance_unit, "the card style's distance_unit")
-        if style.language is not None:
-            card_setting("language", style.language, "the card style's language")
-    if overrides.bank_angles is not None:
-        card_setting("bank_angles", list(overrides.bank_angles), "--bank")
-    if overrides.speed_unit is not None:
-        card_setting("speed_unit", overrides.speed_unit, "--speed-unit")
-        if overrides.distance_unit is None and overrides.speed_unit == "km/h":
-            card_setting("distance_unit", "m", "--speed-unit")
-    if overrides.distance_unit is not None:
-        card_setting("distance_unit", overrides.distance_unit, "--distance-unit")
-    if overrides.language is not None:
-        card_setting("language", overrides.language, "--language")
+        settings(style.bank_angles_deg, style.speed_unit, style.distance_unit, style.language,
+                 lambda key: f"the card style's {key}")
+    options = {"bank_angles": "--bank", "speed_unit": "--speed-unit", "distance_unit": "--distance-unit",
+               "language": "--language"}
+    settings(overrides.bank_angles, overrides.speed_unit, overrides.distance_unit, overrides.language, options.get)
     if overrides.weight is not None:
         data["weight"] = {"total": overrides.weight}
         origins["weight"] = "--weight"

@@ -11,21 +11,7 @@ table builder; nothing is re-rounded here.
 from functools import lru_cache
 
 from kneeboard.card import fonts
-from kneeboard.card.draw import (
-    GREY,
-    HATCH,
-    INK,
-    SHADE,
-    WHITE,
-    DoesNotFit,
-    Draw,
-    Measure,
-    Piece,
-    Plan,
-    Section,
-    baseline,
-    fit_lines,
-)
+from kneeboard.card.draw import GREY, HATCH, INK, SHADE, WHITE, DoesNotFit, Draw, baseline, fit_lines
 from kneeboard.card.ops import FIGURE, HEADING, LABEL, SMALL
 from kneeboard.printed import BLACK, HATCHED, NO_VALUE, Cell
 
@@ -258,35 +244,6 @@ class NamedRow:
         for k, line in enumerate(self.lines):
             d.text(2, first - k * ls * 1.15, line, LABEL, True)
         return top - self.height
-
-
-class NamedTable(Plan):
-    """A titled table of configurations' rows with a note at its foot (limits, pull): measured and drawn alike.
-
-    A subclass sets `ctx`, `heading` (a `Heading`), `heads` (`ColumnHeads`), `rows` (`NamedRow`s) and `note` (lines
-    of small text, maybe none), then `self.measure = self.measured()`.
-    """
-
-    note_color = GREY
-
-    def measured(self) -> Measure:
-        ss = self.ctx.size(SMALL)
-        return Measure((Section(self.heads.height, tuple(r.height for r in self.rows)),),
-                       lead=self.heading.height, foot=ss * 1.2 * len(self.note) + ss * 0.8, again=self.heading.again)
-
-    def draw(self, piece: Piece):
-        d = Draw(self.ctx)
-        y = self.heading.draw(d, 0.0) if piece.lead else self.heading.draw_again(d, 0.0) if piece.again else 0.0
-        y = self.heads.draw(d, y)
-        for row in self.rows[piece.start:piece.stop]:
-            y = row.draw(d, y)
-        if piece.foot:
-            ss = self.ctx.size(SMALL)
-            for line in self.note:
-                y -= ss * 1.2
-                d.text(0, y, line, SMALL, color=self.note_color)
-            y -= ss * 0.8
-        return d.block(self.name, -y)
 
 
 def named_row(d: Draw, block: str, top: float, name: str, name_w: float, columns, cells) -> float:

@@ -4,7 +4,8 @@ stalls the wing in any attitude. Marked where the structure's limit load comes b
 
 from kneeboard import printed
 from kneeboard.card import fonts
-from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, NamedTable, name_column
+from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_column
+from kneeboard.card.blocks.named_table import NamedTable
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import Context, fit_lines
 from kneeboard.card.ops import SMALL
