@@ -15,7 +15,7 @@ from kneeboard import registrations
 from kneeboard.card import Card, LayoutError, attachment
 from kneeboard.card.sheets import SheetError
 from kneeboard.fileio import FileProblem, refuse_overwrite_of_inputs, write_atomic
-from kneeboard.pipeline import Styles, card_pdf, fleet_pdf, make_card, prepare_file
+from kneeboard.pipeline import Styles, card_pdf, make_card, prepare_file
 from kneeboard.problems import Problem, printable
 
 
@@ -25,39 +25,7 @@ class Failure:
     lines: list[str]  #: what went wrong, one line each
 
 
-@dataclass
-class Batch:
-    cards: list[Card] = field(default_factory=list)
-    sources: dict[str, Path] = field(default_factory=dict)  #: registration -> profile file
-    failures: list[Failure] = field(default_factory=list)
-    warnings: list[Problem] = field(default_factory=list)
-    cancelled: bool = False
-
-
-def make_cards(paths: list[Path], styles: Styles, made_on: str | None = None,
-               progress: Callable[[int, int, str], bool] | None = None) -> Batch:
-    """Cards of `paths` (each with its style by the one rule of `styles`), in registration order, kept in memory.
-
-    `progress(done, total, name)` may return False to cancel. For a fleet written to files, `export_cards` makes
-    the same cards one at a time.
-    """
-    batch = Batch()
-    made = []
-    for i, path in enumerate(paths, start=1):
-        if progress is not None and progress(i - 1, len(paths), path.name) is False:
-            batch.cancelled = True
-            break
-        card = _card(path, styles, made_on, batch)
-        if card is not None:
-            made.append((registrations.key(card.registration), str(path), card))
-            batch.sources[card.registration] = path
-    if progress is not None and not batch.cancelled:
-        progress(len(paths), len(paths), "")
-    batch.cards = [card for _, _, card in sorted(made, key=lambda item: item[:2])]
-    return batch
-
-
-def _card(path: Path, styles: Styles, made_on: str | None, batch) -> Card | None:
+def _card(path: Path, styles: Styles, made_on: str | None, batch: "Export") -> Card | None:
     """The card of one profile file, or None with its failure and warnings noted in `batch`."""
     try:
         prepared = prepare_file(path, styles)
@@ -97,50 +65,6 @@ def _kept(ch: str) -> bool:
     # letters with the accents that may follow them as combining marks, and decimal digits of any script
     category = unicodedata.category(ch)
     return ch in "-_" or category[0] in "LM" or category == "Nd"
-
-
-def unique_names(registrations) -> list[str]:
-    """One file stem per card, from its registration; raises FileProblem naming the registrations whose files would
-    be one (the same registration in other letters' case or accents, or characters a file name cannot hold)."""
-    names = [safe_name(registration) for registration in registrations]
-    seen: dict[str, tuple[str, str]] = {}
-    for name, registration in zip(names, registrations):
-        if name.casefold() in seen:
-            first, file = seen[name.casefold()]
-            raise FileProblem(printable(f"the cards of {first} and {registration} would both be written as "
-                                        f"{file}.pdf: give each aircraft its own registration"))
-        seen[name.casefold()] = (registration, name)
-    return names
-
-
-def write_fleet(cards: list[Card], out: Path, sheet: str | None = None) -> None:
-    """All cards in one PDF (imposed on `sheet` if given), written atomically."""
-    try:
-        data = fleet_pdf(cards, sheet)
-    except SheetError as exc:
-        raise FileProblem(f"{out}: {exc}") from None
-    write_atomic(out, data)
-
-
-def write_each(cards: list[Card], folder: Path) -> list[Path]:
-    """One PDF per aircraft in `folder`, named by registration; returns the files written."""
-    names = unique_names([c.registration for c in cards])
-    _make_folder(folder)
-    written = []
-    for card, stem in zip(cards, names):
-        path = folder / f"{stem}.pdf"
-        write_atomic(path, card_pdf(card))
-        written.append(path)
-    return written
-
-
-def write_pngs(cards: list[Card], folder: Path, prefix: str, dpi: int) -> list[Path]:
-    """Each card page as a PNG at `dpi`, named PREFIX<name>-front.png / -back.png (the names of `write_each`); a
-    card set's faces PREFIX<name>-card1-front.png, -card1-back.png, -card2-front.png..."""
-    written = []
-    for card, stem in zip(cards, unique_names([c.registration for c in cards])):
-        written += _pngs(card, folder, f"{prefix}{stem}", dpi)
-    return written
 
 
 def _pngs(card: Card, folder: Path, stem: str, dpi: int, guard=lambda path: path) -> list[Path]:

@@ -17,8 +17,11 @@ from pypdf import PdfReader
 from kneeboard.card import card_pdf, fonts
 from kneeboard.card.geometry import LARGE_CARDS
 from kneeboard.card.ops import FIGURE, Text
-from kneeboard.export import safe_name, write_each
-from kneeboard.fileio import FileProblem
+from kneeboard.export import export_cards, safe_name
+from kneeboard.pipeline import Styles
+from kneeboard.shipped import samples_folder
+
+SAMPLES = samples_folder()
 
 # Invented clubs and aircraft, one per script or language with letters beyond Latin-1.
 LANGUAGES = {
@@ -292,19 +295,30 @@ def test_safe_name_keeps_letters_and_drops_what_file_systems_forbid(registration
     assert safe_name(registration) == name
 
 
+def _profiles(folder, registrations):
+    folder.mkdir()
+    text = (SAMPLES / "demo_trainer.toml").read_text(encoding="utf-8")
+    paths = []
+    for k, registration in enumerate(registrations):
+        path = folder / f"aircraft{k}.toml"
+        path.write_text(text.replace('registration = "DEMO-TRN"', f'registration = "{registration}"'), "utf-8")
+        paths.append(path)
+    return paths
+
+
 def test_each_registration_gets_its_own_file_and_one_registration_in_two_forms_is_refused(tmp_path):
-    cards = [make_card("Aeroklub Říčany", "", registration=r) for r in ("OK-ŘÍZ", "OK/ŘÍZA")]
-    written = write_each(cards, tmp_path)
-    assert [p.name for p in written] == ["OK-ŘÍZ.pdf", "OK_ŘÍZA.pdf"]
-    assert all(p.read_bytes().startswith(b"%PDF") for p in written)
+    paths = _profiles(tmp_path / "fleet", ("OK-ŘÍZ", "OK/ŘÍZA"))
+    done = export_cards(paths, Styles(), each=tmp_path / "cards")
+    assert sorted(p.name for p in done.written) == ["OK-ŘÍZ.pdf", "OK_ŘÍZA.pdf"]
+    assert all(p.read_bytes().startswith(b"%PDF") for p in done.written)
     # the same registration in lower case, or with its accents decomposed, is the same aircraft: never a second,
-    # numbered file beside the first
+    # numbered file beside the first, and neither card is written under the name both would take
     decomposed = unicodedata.normalize("NFD", "OK-ŘÍZ")
-    for twin in ("ok-říz", decomposed):
-        pair = [make_card("Aeroklub Říčany", "", registration=r) for r in ("OK-ŘÍZ", twin)]
-        with pytest.raises(FileProblem, match="OK-ŘÍZ.pdf"):
-            write_each(pair, tmp_path / "twins")
-    assert not (tmp_path / "twins").exists()
+    for k, twin in enumerate(("ok-říz", decomposed)):
+        pair = _profiles(tmp_path / f"twins{k}", ("OK-ŘÍZ", twin))
+        done = export_cards(pair, Styles(), each=tmp_path / f"out{k}")
+        assert len(done.clashes) == 2 and all("is also the registration of" in p.message for p in done.clashes)
+        assert not list((tmp_path / f"out{k}").glob("*.pdf"))
 
 
 @pytest.mark.parametrize("kind", ["fifo", "link to a fifo", "dangling link"])
