@@ -18,6 +18,11 @@ FIGURE, LABEL, HEADING, TITLE, SMALL, CAUTION = "figure", "label", "heading", "t
 HIGHER_IS_WORSE, LOWER_IS_WORSE = "higher", "lower"
 
 
+def _moved_at(op, dx, dy):
+    """An op placed at (x, y), shifted: the one `moved` of every op with an anchor point."""
+    return op._replace(x=op.x + dx, y=op.y + dy)
+
+
 @dataclass(frozen=True)
 class Figure:
     """A printed figure carried by the text that shows it: what it is, how it reads, which way is worse.
@@ -48,8 +53,7 @@ class Text(NamedTuple):
     role: str = LABEL
     figures: tuple[Figure, ...] = ()  #: the printed figures this text shows (a line may carry several)
 
-    def moved(self, dx, dy):
-        return self._replace(x=self.x + dx, y=self.y + dy)
+    moved = _moved_at
 
 
 class SideText(NamedTuple):
@@ -62,8 +66,7 @@ class SideText(NamedTuple):
     size: float
     color: str = "#000000"
 
-    def moved(self, dx, dy):
-        return self._replace(x=self.x + dx, y=self.y + dy)
+    moved = _moved_at
 
 
 class Line(NamedTuple):
@@ -89,8 +92,7 @@ class Rect(NamedTuple):
     width: float = 0.5
     hatch: str | None = None  #: colour of diagonal hatching inside, for black-and-white marking
 
-    def moved(self, dx, dy):
-        return self._replace(x=self.x + dx, y=self.y + dy)
+    moved = _moved_at
 
 
 class Path(NamedTuple):
@@ -114,8 +116,7 @@ class Circle(NamedTuple):
     stroke: str | None = None
     width: float = 0.75
 
-    def moved(self, dx, dy):
-        return self._replace(x=self.x + dx, y=self.y + dy)
+    moved = _moved_at
 
 
 class Image(NamedTuple):
@@ -125,8 +126,7 @@ class Image(NamedTuple):
     h: float
     png: bytes  #: PNG data (SVG logos are converted before they get here)
 
-    def moved(self, dx, dy):
-        return self._replace(x=self.x + dx, y=self.y + dy)
+    moved = _moved_at
 
 
 @dataclass(frozen=True)
