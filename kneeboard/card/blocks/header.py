@@ -4,21 +4,9 @@ back page, enough to match it to its front."""
 from kneeboard import printed, terms
 from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import (
-    GREY,
-    INK,
-    WHITE,
-    Context,
-    DoesNotFit,
-    Draw,
-    Measure,
-    Piece,
-    Plan,
-    Section,
-    fit_lines,
-    weight_text,
-)
+from kneeboard.card.draw import GREY, INK, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import HEADING, LABEL, SMALL, TITLE, Image
+from kneeboard.printed import weight_text
 
 NAME = "header"
 

@@ -10,22 +10,9 @@ from kneeboard import printed
 from kneeboard.card import fonts
 from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHeads, head_width, split_configurations
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import (
-    GREY,
-    HATCH,
-    INK,
-    RULE,
-    WHITE,
-    Context,
-    DoesNotFit,
-    Draw,
-    Measure,
-    Piece,
-    Plan,
-    Section,
-    weight_text,
-)
+from kneeboard.card.draw import GREY, HATCH, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import LABEL, SMALL
+from kneeboard.printed import weight_text
 
 NAME = "margin-table"
 
