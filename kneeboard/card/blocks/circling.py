@@ -3,13 +3,14 @@
 from kneeboard import printed
 from kneeboard.card.blocks.grid import ColumnHeads, Grid, Heading, even_columns
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import Context, Draw, Measure, Piece, Plan, Section, weight_text
+from kneeboard.card.blocks.table_plan import TablePlan
+from kneeboard.card.draw import Context, Draw, Measure, Section, weight_text
 from kneeboard.card.ops import SMALL
 
 NAME = "circling"
 
 
-class Circling(Plan):
+class Circling(TablePlan):
     name = NAME
 
     def __init__(self, ctx: Context, width: float):
@@ -33,14 +34,11 @@ class Circling(Plan):
         self.measure = Measure((Section(self.heads.height, (fs * 1.45,) * len(rows)),),
                                lead=self.heading.height, foot=ctx.size(SMALL), again=self.heading.again)
 
-    def draw(self, piece: Piece):
-        d = Draw(self.ctx)
-        y = self.heading.draw(d, 0.0) if piece.lead else self.heading.draw_again(d, 0.0) if piece.again else 0.0
-        y = self.heads.draw(d, y)
-        y = self.grid.draw(d, y, piece.start, piece.stop)
-        if piece.foot:
-            y -= self.ctx.size(SMALL)
-        return d.block(NAME, -y)
+    def rows_drawn(self, d: Draw, top: float, start: int, stop: int) -> float:
+        return self.grid.draw(d, top, start, stop)
+
+    def foot_drawn(self, d: Draw, top: float) -> float:
+        return top - self.ctx.size(SMALL)
 
 
 SPEC = BlockSpec(NAME, "Circling at minimum sink (gliders)", plan=Circling,

@@ -9,8 +9,8 @@ text itself not retrieved).
 from kneeboard import printed
 from kneeboard.card import fonts
 from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_widths
-from kneeboard.card.blocks.named_table import NamedTable
 from kneeboard.card.blocks.registry import BlockSpec
+from kneeboard.card.blocks.table_plan import NamedTable
 from kneeboard.card.draw import INK, Context, DoesNotFit, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
 from kneeboard.i18n import Msg

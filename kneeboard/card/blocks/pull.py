@@ -5,8 +5,8 @@ stalls the wing in any attitude. Marked where the structure's limit load comes b
 from kneeboard import printed
 from kneeboard.card import fonts
 from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRow, name_column
-from kneeboard.card.blocks.named_table import NamedTable
 from kneeboard.card.blocks.registry import BlockSpec
+from kneeboard.card.blocks.table_plan import NamedTable
 from kneeboard.card.draw import Context, fit_lines
 from kneeboard.card.ops import SMALL
 from kneeboard.i18n import N_, Num

@@ -7,7 +7,8 @@ from kneeboard import printed
 from kneeboard.card import fonts
 from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Grid, Heading, even_columns
 from kneeboard.card.blocks.registry import BlockSpec
-from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines
+from kneeboard.card.blocks.table_plan import TablePlan
+from kneeboard.card.draw import INK, Context, Draw, Measure, Section, fit_lines
 from kneeboard.card.ops import CAUTION, LABEL, SMALL
 from kneeboard.i18n import Num
 from kneeboard.texts import CAUTION_TURN_BACK
@@ -15,7 +16,7 @@ from kneeboard.texts import CAUTION_TURN_BACK
 NAME = "turn-back"
 
 
-class TurnBack(Plan):
+class TurnBack(TablePlan):
     name = NAME
 
     def __init__(self, ctx: Context, width: float):
@@ -49,20 +50,15 @@ class TurnBack(Plan):
         self.measure = Measure((Section(self.heads.height, (fs * 1.3,) * len(rows)),),
                                lead=self.heading.height, foot=foot, again=self.heading.again)
 
-    def draw(self, piece: Piece):
-        ctx = self.ctx
-        d = Draw(ctx)
-        y = self.heading.draw(d, 0.0) if piece.lead else self.heading.draw_again(d, 0.0) if piece.again else 0.0
-        y = self.heads.draw(d, y)
-        y = self.grid.draw(d, y, piece.start, piece.stop)
-        if piece.foot:
-            y -= ctx.size(SMALL) * 0.2
-            cs = ctx.size(CAUTION)
-            for line in self.caution:
-                y -= cs * 1.2
-                d.text(0, y, line, CAUTION, color=INK)
-            y -= ctx.size(LABEL) * 0.6
-        return d.block(NAME, -y)
+    def rows_drawn(self, d: Draw, top: float, start: int, stop: int) -> float:
+        return self.grid.draw(d, top, start, stop)
+
+    def foot_drawn(self, d: Draw, top: float) -> float:
+        y, cs = top - self.ctx.size(SMALL) * 0.2, self.ctx.size(CAUTION)
+        for line in self.caution:
+            y -= cs * 1.2
+            d.text(0, y, line, CAUTION, color=INK)
+        return y - self.ctx.size(LABEL) * 0.6
 
 
 SPEC = BlockSpec(NAME, "Turn back after an engine (or launch) failure", plan=TurnBack,
