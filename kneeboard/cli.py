@@ -132,8 +132,8 @@ def _print_style_problems(styles, paths) -> None:
 
 
 def cmd_check(args) -> int:
+    from kneeboard.inputs.profiles import expand_paths
     from kneeboard.pipeline import prepare_file
-    from kneeboard.profile_io import expand_paths
 
     files = expand_paths(args.profiles)
     if not files:
@@ -184,7 +184,7 @@ def cmd_table(args) -> int:
 
 def cmd_card(args) -> int:
     from kneeboard.export import export_cards
-    from kneeboard.profile_io import expand_paths
+    from kneeboard.inputs.profiles import expand_paths
 
     if not args.output and not args.each:
         raise UsageProblem("say where to write: -o OUT.pdf, --each DIR, or both")
@@ -273,8 +273,8 @@ def cmd_compare(args) -> int:
     from kneeboard.compare import compare_figures, summary
     from kneeboard.fileio import read_bytes
     from kneeboard.i18n import translator
+    from kneeboard.inputs.profiles import expand_paths
     from kneeboard.pipeline import make_card, prepare_file
-    from kneeboard.profile_io import expand_paths
 
     card_path, profile_path = Path(args.card), Path(args.profile)
     folder = card_path.is_dir()

@@ -30,9 +30,9 @@ from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organi
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
 from kneeboard.i18n import Msg
+from kneeboard.inputs.profiles import Source, figure_data, fingerprint, read_source, source_from_text
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import Profile
-from kneeboard.profile_io import Source, figure_data, fingerprint, read_source, source_from_text
 from kneeboard.schema import profile_from_data
 from kneeboard.tables import CardTable, build
 

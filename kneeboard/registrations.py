@@ -19,7 +19,7 @@ def key(registration: str) -> str:
 
 def of_file(path: Path) -> str | None:
     """The registration a profile file gives, read from its data alone (no validation); None when it has none."""
-    from kneeboard.profile_io import read_source
+    from kneeboard.inputs.profiles import read_source
 
     data = read_source(Path(path)).data or {}
     aircraft = data.get("aircraft") if isinstance(data.get("aircraft"), dict) else {}

@@ -82,10 +82,10 @@ def test_the_physics_runs_once_per_card(tmp_path, monkeypatch):
 
 
 def test_reading_a_profile_runs_no_physics():
-    from kneeboard.profile_io import load_profile
+    from kneeboard.schema import profile_from_data
 
     with mock.patch.object(compute_module, "compute", side_effect=AssertionError("physics while reading")):
-        assert load_profile(SAMPLES / "demo_tourer.toml").profile is not None
+        assert profile_from_data(pipeline.read_source(SAMPLES / "demo_tourer.toml").data)[0] is not None
 
 
 def test_an_override_is_checked_like_the_files_own_value_and_names_itself():

@@ -233,9 +233,9 @@ class ProfileEditor(QScrollArea):
                 doc.pop("weight", None)
                 return
             if "weight" not in doc:
-                import tomlkit
+                from kneeboard.inputs.toml import new_table
 
-                doc["weight"] = tomlkit.table()
+                doc["weight"] = new_table()
             w = doc["weight"]
             if mode == "total" and "total" not in w:
                 for key in ("empty", "item"):
