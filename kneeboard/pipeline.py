@@ -25,15 +25,16 @@ from dataclasses import dataclass, field, replace
 from datetime import date
 from pathlib import Path
 
-from kneeboard import fields, report
+from kneeboard import report
 from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organization_problems
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
 from kneeboard.i18n import Msg
+from kneeboard.inputs import profile_keys
 from kneeboard.inputs.profiles import Source, figure_data, fingerprint, read_source, source_from_text
+from kneeboard.inputs.schema import profile_from_data
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import Profile
-from kneeboard.schema import profile_from_data
 from kneeboard.tables import CardTable, build
 
 
@@ -275,10 +276,10 @@ def placeholder_problems(data: dict) -> list[Problem]:
                     for i, (a, b) in enumerate(zip(ours[key], value), start=1):
                         if isinstance(a, dict):
                             walk(a, b, f"{here}[{i}]", section or key)
-            elif ours[key] == value and f"{section or key}.{key}" not in fields.NOT_PLACEHOLDERS:
+            elif ours[key] == value and f"{section or key}.{key}" not in profile_keys.NOT_PLACEHOLDERS:
                 found.append(Problem(here, PLACEHOLDER, "this aircraft's own figure", value, WARNING))
 
-    for section in fields.PLACEHOLDER_SECTIONS:
+    for section in profile_keys.PLACEHOLDER_SECTIONS:
         if isinstance(data.get(section), (dict, list)) and section in template:
             ours, theirs = data[section], template[section]
             if isinstance(theirs, dict) and isinstance(ours, dict):
@@ -343,11 +344,11 @@ def warning_line(problem: Problem, profile: Profile) -> Msg:
     if m and int(m.group(1)) <= len(profile.configurations):
         name = profile.configurations[int(m.group(1)) - 1].name
         key = m.group(2)
-        label = fields.BY_PATH[f"configuration.{key}"].label.lower() if f"configuration.{key}" in fields.BY_PATH \
-            else (key or "")
+        declared = profile_keys.BY_PATH.get(f"configuration.{key}")
+        label = declared.label.lower() if declared is not None else (key or "")
         where = f"{name}, {label}{m.group(3)}" if label else name
-    elif where in fields.BY_PATH:
-        where = fields.BY_PATH[where].label.lower()
+    elif where in profile_keys.BY_PATH:
+        where = profile_keys.BY_PATH[where].label.lower()
     return Msg("WARNING {field}: {message}", field=where, message=problem.message)
 
 

@@ -1,4 +1,4 @@
-"""Aircraft profiles: immutable data, SI floats, validated on creation by `kneeboard.schema`.
+"""Aircraft profiles: immutable data, SI floats, validated on creation by `kneeboard.inputs.schema`.
 
 A profile holds what the flight manual publishes (stall speeds per configuration at a reference
 weight, weights, limits, a glider's polar) and what the card is for (the weight flown, the bank

@@ -20,12 +20,12 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard import fields as declared
 from kneeboard import terms, units
 from kneeboard.app import hints
 from kneeboard.app.document import ProfileDocument, key_text
 from kneeboard.app.fields import ChoiceField, Field, NotesField, NumberField, PairsField, TextField
 from kneeboard.app.items import ItemsField
+from kneeboard.inputs import profile_keys as declared
 from kneeboard.problems import Problem
 
 CONFIG = "configuration"
@@ -92,7 +92,7 @@ class ProfileEditor(QScrollArea):
         return form
 
     def _declared(self, form: QFormLayout | None, key: tuple, decl: declared.Field) -> Field:
-        """The widget of one declared field (`kneeboard.fields`), bound to `key` of the document."""
+        """The widget of one declared field (`kneeboard.inputs.profile_keys`), bound to `key` of the document."""
         if decl.kind == declared.CHOICE:
             options = decl.options if decl.required else (None,) + tuple(decl.options)
             widget = ChoiceField(options, {None: DEFAULT})
@@ -282,8 +282,8 @@ class ProfileEditor(QScrollArea):
         """The lists past the profile's limits, checked before any widget is built for them: the editor built a
         tab for each of 10,000 configurations (minutes, gigabytes) where the command line refused the file at
         once. The Problems list then shows the command line's own refusal; Undo goes back."""
-        from kneeboard.schema import MAX_BANKS, MAX_CONFIGURATIONS, MAX_ITEMS
-        from kneeboard.values import MAX_POLAR_POINTS
+        from kneeboard.inputs.schema import MAX_BANKS, MAX_CONFIGURATIONS, MAX_ITEMS
+        from kneeboard.inputs.values import MAX_POLAR_POINTS
 
         limits = [((CONFIG,), MAX_CONFIGURATIONS), (("weight", "item"), MAX_ITEMS),
                   (("card", "bank_angles"), MAX_BANKS), (("glider", "polar"), MAX_POLAR_POINTS),

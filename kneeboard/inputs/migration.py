@@ -28,7 +28,7 @@ def migrate_text(text: str) -> tuple[str, int | None]:
     while at < len(lines) and lines[at].lstrip().startswith("#"):
         at += 1
     gap = [] if at < len(lines) and not lines[at].strip() else ["\n"]
-    from kneeboard.schema import SCHEMA_VERSION
+    from kneeboard.inputs.schema import SCHEMA_VERSION
 
     return "".join(lines[:at] + [f"schema = {SCHEMA_VERSION}\n"] + gap + lines[at:]), FORMAT_0
 

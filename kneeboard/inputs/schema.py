@@ -5,14 +5,16 @@ its path, what is wrong and what would be accepted, and reading goes on so that 
 everything. Errors make the profile unusable; warnings are shown but do not stop a card.
 """
 
-from kneeboard import fields, units
-from kneeboard.fields import (
+from kneeboard import units
+from kneeboard.i18n import Msg, Num
+from kneeboard.inputs import profile_keys
+from kneeboard.inputs.profile_keys import (
     MAX_BANK_DEG,
     OAT_RANGE,
     SINK_RANGE,
     SPEED_RANGE,
 )
-from kneeboard.i18n import Msg, Num
+from kneeboard.inputs.values import MAX_POLAR_POINTS, Reader, finite
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import (
     AVGAS_DENSITY,
@@ -31,7 +33,6 @@ from kneeboard.profile import (
     WeightItem,
     name_key,
 )
-from kneeboard.values import MAX_POLAR_POINTS, Reader, finite
 
 SCHEMA_VERSION = 1
 MAX_CONFIGURATIONS = 12
@@ -39,7 +40,7 @@ MAX_BANKS = 24
 MAX_ITEMS = 40
 
 #: Section -> the keys a file may have there, derived from the field declarations.
-KNOWN_KEYS = fields.known_keys()
+KNOWN_KEYS = profile_keys.known_keys()
 
 
 def profile_from_data(data: dict) -> tuple[Profile | None, list[Problem]]:
