@@ -377,8 +377,9 @@ def _merged(data: dict, style: CardStyle | None, overrides: Overrides) -> tuple[
             card_setting("bank_angles", list(style.bank_angles_deg), "the card style's bank_angles")
         if style.speed_unit is not None:
             card_setting("speed_unit", style.speed_unit, "the card style's speed_unit")
-            if style.distance_unit is None and style.speed_unit == "km/h":
-                card_setting("distance_unit", "m", "the card style's speed_unit")
+            if style.distance_unit is None and profile_keys.distance_unit_with(style.speed_unit):
+                card_setting("distance_unit", profile_keys.distance_unit_with(style.speed_unit),
+                             "the card style's speed_unit")
         if style.distance_unit is not None:
             card_setting("distance_unit", style.distance_unit, "the card style's distance_unit")
         if style.language is not None:
@@ -387,8 +388,8 @@ def _merged(data: dict, style: CardStyle | None, overrides: Overrides) -> tuple[
         card_setting("bank_angles", list(overrides.bank_angles), "--bank")
     if overrides.speed_unit is not None:
         card_setting("speed_unit", overrides.speed_unit, "--speed-unit")
-        if overrides.distance_unit is None and overrides.speed_unit == "km/h":
-            card_setting("distance_unit", "m", "--speed-unit")
+        if overrides.distance_unit is None and profile_keys.distance_unit_with(overrides.speed_unit):
+            card_setting("distance_unit", profile_keys.distance_unit_with(overrides.speed_unit), "--speed-unit")
     if overrides.distance_unit is not None:
         card_setting("distance_unit", overrides.distance_unit, "--distance-unit")
     if overrides.language is not None:

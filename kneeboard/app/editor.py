@@ -23,7 +23,7 @@ from PySide6.QtWidgets import (
 from kneeboard import terms, units
 from kneeboard.app import hints
 from kneeboard.app.document import ProfileDocument, key_text
-from kneeboard.app.fields import ChoiceField, Field, NotesField, NumberField, PairsField, TextField
+from kneeboard.app.fields import BanksField, ChoiceField, Field, NotesField, NumberField, PairsField, TextField
 from kneeboard.app.items import ItemsField
 from kneeboard.inputs import profile_keys as declared
 from kneeboard.problems import Problem
@@ -215,7 +215,7 @@ class ProfileEditor(QScrollArea):
                 table["pattern_speed"] = self._pattern_speed_text(loaded, i)
             elif mode == "factor" and "pattern_speed" in table:
                 del table["pattern_speed"]
-                table["pattern_factor"] = 1.4
+                table["pattern_factor"] = declared.default("configuration.pattern_factor")
 
         self.doc.apply(change, "Change pattern speed")
         del c
@@ -378,31 +378,3 @@ class ProfileEditor(QScrollArea):
             self.config_tabs.setCurrentIndex(int(path[len(CONFIG) + 1:].split("]")[0]) - 1)
         self.ensureWidgetVisible(field)
         field.input.setFocus()
-
-
-class BanksField(TextField):
-    """Bank angles typed as "0, 15, 30, 45, 60"; kept as text when it is not a list of numbers."""
-
-    def __init__(self, placeholder: str = "degrees, e.g. 0, 15, 30, 45, 60", parent=None):
-        super().__init__(placeholder, parent)
-        self.input.textEdited.disconnect()
-        self.input.textEdited.connect(lambda text: self.edited.emit(parse_banks(text)))
-
-    def set_value(self, value) -> None:
-        if isinstance(value, list):
-            value = ", ".join(f"{b:g}" if isinstance(b, (int, float)) else str(b) for b in value)
-        super().set_value(value)
-
-
-def parse_banks(text: str):
-    parts = [p.strip() for p in text.replace(";", ",").split(",") if p.strip()]
-    if not parts:
-        return None
-    numbers = []
-    for p in parts:
-        try:
-            number = float(p)
-        except ValueError:
-            return text  # kept as typed: the profile check says what is wrong with it
-        numbers.append(int(number) if number.is_integer() else number)
-    return numbers

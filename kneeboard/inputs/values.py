@@ -16,6 +16,9 @@ from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.profile import Calibration
 
 MAX_POLAR_POINTS = 40
+#: The kinds of field `Reader.read` reads from their declaration alone (banks, pairs and items have their own code).
+READ_BY_DECLARATION = (profile_keys.QUANTITY, profile_keys.NUMBER, profile_keys.TEXT, profile_keys.NOTES,
+                       profile_keys.CHOICE)
 #: How the card tells of an entry of the profile that nothing reads (gathered into one line with their count)
 UNKNOWN_ENTRY = Msg("An entry of the profile is not read; the card is made without it: check no figure is missing")
 
@@ -69,9 +72,15 @@ class Reader:
 
     def read(self, name: str, data: dict, path: str | None = None, default=None):
         """The value of the declared field `name` ("aircraft.max_weight") from its table `data`, checked by its
-        declaration; `path` is where it is in the file when the section repeats ("configuration[2].name")."""
+        declaration; `path` is where it is in the file when the section repeats ("configuration[2].name").
+
+        A key the file leaves out reads as `default` when one is given (a default that follows a rule, worked out
+        by the caller), else as its declaration's default (None where it has none)."""
         f = profile_keys.BY_PATH[name]
         path = path or f.path
+        default = f.default if default is None else default
+        if f.kind in (profile_keys.QUANTITY, profile_keys.NUMBER) and f.key not in data and not f.required:
+            return default
         if f.kind == profile_keys.QUANTITY:
             return self.quantity(data, f.key, path, f.quantity, f.bounds, f.required)
         if f.kind == profile_keys.NUMBER:
@@ -82,6 +91,12 @@ class Reader:
         if f.kind == profile_keys.CHOICE:
             return self.choice(data, f.key, path, f.options, default)
         raise ValueError(f"{name} is read by its own code")
+
+    def read_section(self, section: str, data: dict, path: str | None = None, **defaults) -> dict:
+        """Every field of `section` that `read` reads, in the order declared: key -> value. `defaults` are the
+        defaults that follow a rule (by key); the others are the declarations'."""
+        return {f.key: self.read(f.path, data, f"{path or section}.{f.key}", defaults.get(f.key))
+                for f in profile_keys.in_section(section) if f.kind in READ_BY_DECLARATION}
 
     def quantity(self, data, key, path, kind, bounds=None, required=False):
         if key not in data:
