@@ -182,8 +182,13 @@ def _at(data, path: str):
 
 def prepare_file(path: Path, styles: Styles) -> Prepared:
     """Read the profile file at `path` and prepare it with its style by the one rule."""
-    style, style_problems = styles.for_profile(path)
-    return prepare(read_source(Path(path)), style, styles.overrides, style_problems)
+    return prepare_source(read_source(Path(path)), styles)
+
+
+def prepare_source(source: Source, styles: Styles) -> Prepared:
+    """A profile file already read (`source.path` says where it is) prepared with its style by the one rule."""
+    style, style_problems = styles.for_profile(source.path)
+    return prepare(source, style, styles.overrides, style_problems)
 
 
 def prepare_text(text: str, style: CardStyle, overrides: Overrides = NONE, path: Path | None = None) -> Prepared:

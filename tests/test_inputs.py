@@ -105,3 +105,60 @@ def test_a_document_is_guarded_as_the_plain_reading_is():
         document_from_text(huge, "in.toml")
     with pytest.raises(fileio.FileProblem, match="in.toml: is not valid TOML"):
         document_from_text("a = [", "in.toml")
+
+
+# --- each file read once per run -----------------------------------------------------------------------------------
+
+
+@pytest.fixture
+def three_profiles(tmp_path):
+    """A folder of three of the (invented) sample aircraft."""
+    import shutil
+
+    from conftest import SAMPLES
+
+    folder = tmp_path / "fleet"
+    folder.mkdir()
+    for name in ("demo_trainer", "demo_tourer", "demo_microlight"):
+        shutil.copy(SAMPLES / f"{name}.toml", folder / f"{name}.toml")
+    return folder, sorted(folder.glob("*.toml"))
+
+
+def count_opens(monkeypatch, paths):
+    """How often each of `paths` is opened (every file reading of kneeboard goes through os.open)."""
+    from collections import Counter
+
+    opened, real, wanted = Counter(), os.open, {str(p) for p in paths}
+
+    def counting(path, *args, **kwargs):
+        if str(path) in wanted:
+            opened[str(path)] += 1
+        return real(path, *args, **kwargs)
+
+    monkeypatch.setattr(os, "open", counting)
+    return opened
+
+
+def test_a_fleets_cards_read_each_profile_once(three_profiles, tmp_path, monkeypatch, capsys):
+    from kneeboard.cli import main
+
+    folder, profiles = three_profiles
+    opened = count_opens(monkeypatch, profiles)
+    assert main(["card", str(folder), "-o", str(tmp_path / "all.pdf"), "--each", str(tmp_path / "each")]) == 0
+    assert dict(opened) == {str(p): 1 for p in profiles}  # ordered by registration, then made, from one reading
+    assert len(list((tmp_path / "each").glob("*.pdf"))) == 3
+
+
+def test_check_and_compare_read_each_profile_once(three_profiles, tmp_path, monkeypatch, capsys):
+    from kneeboard.cli import main
+
+    folder, profiles = three_profiles
+    assert main(["card", str(folder), "--each", str(tmp_path / "cards")]) == 0
+    opened = count_opens(monkeypatch, profiles)
+    assert main(["check", str(folder)]) == 0
+    assert dict(opened) == {str(p): 1 for p in profiles}  # the duplicate check and the checks from one reading
+    opened.clear()
+    # at another weight each card is prepared a second time, from the text read once
+    main(["compare", str(tmp_path / "cards"), str(folder), "--weight", "500 kg"])
+    assert "OUT OF DATE at 500 kg" in capsys.readouterr().out
+    assert dict(opened) == {str(p): 1 for p in profiles}
