@@ -158,7 +158,8 @@ FIELDS: tuple[Field, ...] = (
     Field("configuration", "pattern_speed", QUANTITY, "Fixed speed", 'e.g. "68 kt"', quantity=units.SPEED,
           bounds=SPEED_RANGE),
     Field("configuration", "flap_limit_speed", QUANTITY, "Flap limit VFE", "optional", quantity=units.SPEED,
-          bounds=SPEED_RANGE),
+          bounds=SPEED_RANGE, help="The flight manual's VFE. With the flaps extended the limit load factor is lower "
+                                   "(14 CFR 23.345)."),
     Field("configuration", "calibration", PAIRS, "Calibration", columns=("IAS", "CAS"),
           help="This configuration's own calibration table; without one the flaps-up table is used."),
     Field("configuration", "extended", CHOICE, "Extended", options=EXTENDED, default=NOTHING,
