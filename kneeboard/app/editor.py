@@ -205,7 +205,6 @@ class ProfileEditor(QScrollArea):
         self.config_tabs.setCurrentIndex(max(0, min(i + delta, self.doc.count((CONFIG,)) - 1)))
 
     def _set_pattern_mode(self, i: int, mode: str):
-        c = (CONFIG, i)
         loaded = self.doc.loaded
 
         def change(doc):
@@ -218,7 +217,6 @@ class ProfileEditor(QScrollArea):
                 table["pattern_factor"] = declared.default("configuration.pattern_factor")
 
         self.doc.apply(change, "Change pattern speed")
-        del c
 
     def _pattern_speed_text(self, loaded, i: int) -> str:
         return hints.pattern_speed_text(loaded, i, self.card_units()[0])  # the speed the card prints now
