@@ -145,9 +145,8 @@ def cmd_check(args) -> int:
     failed = 0
     registered = []  # (registration as written, file): each file read once, for its check and for this
     for path in files:
-        source = read_source(path)
+        prepared = _safely(source := read_source(path), styles)
         registered.append((source.registration, path))
-        prepared = _safely(source, styles)
         _print_problems(list(prepared.problems), sys.stdout)
         if prepared.table is None:
             failed += 1
@@ -255,19 +254,17 @@ def _quoted(name: str) -> str:
 
 
 def _safely(source, styles):
-    """Prepare one profile file as read (`inputs.profiles.Source`); a bug in the handling of one file is that file's
-    error, never the whole run's."""
+    """Prepare one profile file as read; a bug in the handling of one file is that file's error, not the run's."""
     from kneeboard.pipeline import Prepared, prepare_source
 
-    path = source.path
     try:
         return prepare_source(source, styles)
     except Exception as exc:
         if os.environ.get("KNEEBOARD_DEBUG"):
             raise
         problem = Problem("(file)", f"internal error on this profile, please report it: {type(exc).__name__}: {exc}",
-                          file=str(path))
-        return Prepared(path, "", None, None, None, None, (problem,))
+                          file=str(source.path))
+        return Prepared(source.path, "", None, None, None, None, (problem,))
 
 
 def cmd_compare(args) -> int:
