@@ -1,7 +1,7 @@
 """Checks of a profile that need the flight mechanics: each names the field to change.
 
 They read the results the card is made from (`kneeboard.compute.compute` runs once per card), so a check and the
-figure it judges can never disagree. Checks that need only the file's values live in `kneeboard.schema`.
+figure it judges can never disagree. Checks that need only the file's values live in `kneeboard.inputs.schema`.
 """
 
 import numpy as np

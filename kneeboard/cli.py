@@ -132,8 +132,7 @@ def _print_style_problems(styles, paths) -> None:
 
 
 def cmd_check(args) -> int:
-    from kneeboard.pipeline import prepare_file
-    from kneeboard.profile_io import expand_paths
+    from kneeboard.inputs.profiles import expand_paths, read_source
 
     files = expand_paths(args.profiles)
     if not files:
@@ -144,9 +143,10 @@ def cmd_check(args) -> int:
     styles = _styles(args)
     _print_style_problems(styles, files)
     failed = 0
-    duplicates = registrations.duplicates((registrations.of_file(path), path) for path in files)
+    registered = []  # (registration as written, file): each file read once, for its check and for this
     for path in files:
-        prepared = _safely(prepare_file, path, styles)
+        prepared = _safely(source := read_source(path), styles)
+        registered.append((source.registration, path))
         _print_problems(list(prepared.problems), sys.stdout)
         if prepared.table is None:
             failed += 1
@@ -157,6 +157,7 @@ def cmd_check(args) -> int:
         warned = f", {len(prepared.warnings)} warning(s)" if prepared.warnings else ""
         print(printable(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(prepared.profile.configurations)} "
                         f"configuration(s): {names}; fingerprint {prepared.fingerprint}"))
+    duplicates = registrations.duplicates(registered)
     _print_problems(registrations.problems(duplicates), sys.stdout)  # every file of each duplicate, named
     print(CAUTION)
     return EXIT_PROBLEMS if failed or duplicates else EXIT_OK
@@ -184,7 +185,7 @@ def cmd_table(args) -> int:
 
 def cmd_card(args) -> int:
     from kneeboard.export import export_cards
-    from kneeboard.profile_io import expand_paths
+    from kneeboard.inputs.profiles import expand_paths
 
     if not args.output and not args.each:
         raise UsageProblem("say where to write: -o OUT.pdf, --each DIR, or both")
@@ -252,18 +253,18 @@ def _quoted(name: str) -> str:
     return '"' + name.replace("\\", "\\\\").replace('"', '\\"') + '"'
 
 
-def _safely(prepare, path, styles):
-    """Prepare one profile; a bug in the handling of one file is that file's error, never the whole run's."""
-    from kneeboard.pipeline import Prepared
+def _safely(source, styles):
+    """Prepare one profile file as read; a bug in the handling of one file is that file's error, not the run's."""
+    from kneeboard.pipeline import Prepared, prepare_source
 
     try:
-        return prepare(path, styles)
+        return prepare_source(source, styles)
     except Exception as exc:
         if os.environ.get("KNEEBOARD_DEBUG"):
             raise
         problem = Problem("(file)", f"internal error on this profile, please report it: {type(exc).__name__}: {exc}",
-                          file=str(path))
-        return Prepared(path, "", None, None, None, None, (problem,))
+                          file=str(source.path))
+        return Prepared(source.path, "", None, None, None, None, (problem,))
 
 
 def cmd_compare(args) -> int:
@@ -273,8 +274,8 @@ def cmd_compare(args) -> int:
     from kneeboard.compare import compare_figures, summary
     from kneeboard.fileio import read_bytes
     from kneeboard.i18n import translator
-    from kneeboard.pipeline import make_card, prepare_file
-    from kneeboard.profile_io import expand_paths
+    from kneeboard.inputs.profiles import expand_paths, read_source
+    from kneeboard.pipeline import make_card
 
     card_path, profile_path = Path(args.card), Path(args.profile)
     folder = card_path.is_dir()
@@ -303,9 +304,10 @@ def cmd_compare(args) -> int:
     styles = _styles(args, language=args.language)
     profiles: dict[str, list] = {}
     for path in expand_paths([profile_path]):
-        prepared = _safely(prepare_file, path, styles)
+        source = read_source(path)  # read once: a card made for another weight is prepared from it again
+        prepared = _safely(source, styles)
         if prepared.table is not None:
-            profiles.setdefault(registrations.key(prepared.table.registration), []).append(prepared)
+            profiles.setdefault(registrations.key(prepared.table.registration), []).append((prepared, source))
         elif not profile_path.is_dir():
             _print_problems(list(prepared.errors), sys.stderr)
             print(f"{printable(path)}: {len(prepared.errors)} error(s); nothing to compare with", file=sys.stderr)
@@ -317,7 +319,7 @@ def cmd_compare(args) -> int:
         where = printable(f"{pdf} ({registration}, printed {data.get('made_on', '?')})")
         if len(found) != 1:
             if found:  # a backup copy beside the profile: which one printed this card cannot be told
-                files = ", ".join(str(p.path) for p in found)
+                files = ", ".join(str(p.path) for p, _ in found)
                 print(printable(f"kneeboard compare: {where}: {registration} is the registration of "
                                 f"{len(found)} profiles: {files}; remove the copies or give each its own "
                                 "registration"), file=sys.stderr)
@@ -325,7 +327,7 @@ def cmd_compare(args) -> int:
                 print(f"{where}: no profile of {printable(registration)} to compare with")
             problems += 1
             continue
-        prepared, weight = _at_weight(found[0], data, args, styles)
+        prepared, weight = _at_weight(*found[0], data, args, styles)
         if prepared.table is None:
             _print_problems(list(prepared.errors), sys.stderr)
             problems += 1
@@ -354,16 +356,14 @@ def cmd_compare(args) -> int:
     return EXIT_PROBLEMS if problems else EXIT_CHANGED if changed else EXIT_OK
 
 
-def _at_weight(prepared, data: dict, args, styles):
+def _at_weight(prepared, source, data: dict, args, styles):
     """The profile as the card is compared with it: at `--weight` when given, else at the weight the card was made
     for when one was given for it (`weight_given`), else at the profile's own; and the words that say which."""
-    from kneeboard.pipeline import prepare_file
-
     weight = args.weight or data.get("weight_given")
     if not isinstance(weight, str) or not weight:
         return prepared, ""
     said = f" at {weight} (--weight)" if args.weight else f" at {weight}, the weight the card was made for"
-    return (_safely(prepare_file, prepared.path, _styles(args, weight=weight, language=args.language, styles=styles)),
+    return (_safely(source, _styles(args, weight=weight, language=args.language, styles=styles)),
             printable(said))
 
 

@@ -15,7 +15,8 @@ from kneeboard import registrations
 from kneeboard.card import Card, LayoutError, attachment
 from kneeboard.card.sheets import SheetError
 from kneeboard.fileio import FileProblem, refuse_overwrite_of_inputs, write_atomic
-from kneeboard.pipeline import Styles, card_pdf, make_card, prepare_file
+from kneeboard.inputs.profiles import Unparsed, read_text_once
+from kneeboard.pipeline import Styles, card_pdf, make_card, prepare_source
 from kneeboard.problems import Problem, printable
 
 
@@ -25,10 +26,12 @@ class Failure:
     lines: list[str]  #: what went wrong, one line each
 
 
-def _card(path: Path, styles: Styles, made_on: str | None, batch: "Export") -> Card | None:
-    """The card of one profile file, or None with its failure and warnings noted in `batch`."""
+def _card(listed: Unparsed, styles: Styles, made_on: str | None, batch: "Export") -> Card | None:
+    """The card of one profile file (its text as read once), or None with its failure and warnings noted in
+    `batch`."""
+    path = listed.path
     try:
-        prepared = prepare_file(path, styles)
+        prepared = prepare_source(listed.source(), styles)
         batch.warnings += prepared.warnings
         if prepared.table is None:
             batch.failures.append(Failure(path, [str(p) for p in prepared.errors]))
@@ -106,18 +109,14 @@ class Export:
     clashes: list[Problem] = field(default_factory=list)  #: profiles whose own files would be one: not written
 
 
-def registration_order(paths: list[Path]) -> list[Path]:
-    """`paths` in the order their cards print: by registration (`registrations.key`), then file name.
-
-    Only the files' data is read (no validation, no physics), so ordering a fleet costs a fraction of making it.
-    """
-    return [path for _, path in _registered(paths)]
-
-
-def _registered(paths: list[Path]) -> list[tuple[str | None, Path]]:
-    """(registration or None, file) in registration order."""
-    found = [(registrations.of_file(path), Path(path)) for path in paths]
-    return sorted(found, key=lambda item: (registrations.key(item[0] or ""), str(item[1])))
+def _registered(paths: list[Path]) -> list[tuple[str | None, Unparsed]]:
+    """(registration or None, the file's text as read) in the order cards print: by registration
+    (`registrations.key`), then file name. Each file is read here, once: its card is made from the text kept."""
+    found = []
+    for path in paths:
+        listed = read_text_once(path)
+        found.append((listed.source().registration, listed))
+    return sorted(found, key=lambda item: (registrations.key(item[0] or ""), str(item[1].path)))
 
 
 def file_clashes(registered: list[tuple[str | None, Path]], folder: Path) -> dict[Path, Problem]:
@@ -156,8 +155,9 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
 
     result = Export()
     registered = _registered(paths)
-    ordered = [path for _, path in registered]
-    clashes = file_clashes(registered, each if each is not None else out.parent) if each or png_dpi else {}
+    ordered = [listed.path for _, listed in registered]
+    clashes = file_clashes([(registration, listed.path) for registration, listed in registered],
+                           each if each is not None else out.parent) if each or png_dpi else {}
     result.clashes = list(clashes.values())
     for path in ordered:
         styles.for_profile(path)  # every style (and its logo) is known before anything is written
@@ -184,11 +184,12 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
             writer.add(impose(group[:grid.per_sheet], sheet, languages[0]))
             del group[:grid.per_sheet], languages[:grid.per_sheet]
 
-    for i, path in enumerate(ordered):
+    for i, (_, listed) in enumerate(registered):
+        path = listed.path
         if progress is not None and progress(i, len(ordered), path.name) is False:
             result.cancelled = True
             return result
-        card = _card(path, styles, made_on, result)
+        card = _card(listed, styles, made_on, result)
         if card is None:
             continue
         stem = safe_name(card.registration)

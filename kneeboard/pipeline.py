@@ -25,15 +25,16 @@ from dataclasses import dataclass, field, replace
 from datetime import date
 from pathlib import Path
 
-from kneeboard import fields, report
+from kneeboard import report
 from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organization_problems
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
 from kneeboard.i18n import Msg
+from kneeboard.inputs import profile_keys
+from kneeboard.inputs.profiles import Source, figure_data, fingerprint, read_source, source_from_text
+from kneeboard.inputs.schema import profile_from_data
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import Profile
-from kneeboard.profile_io import Source, figure_data, fingerprint, read_source, source_from_text
-from kneeboard.schema import profile_from_data
 from kneeboard.tables import CardTable, build
 
 
@@ -181,8 +182,13 @@ def _at(data, path: str):
 
 def prepare_file(path: Path, styles: Styles) -> Prepared:
     """Read the profile file at `path` and prepare it with its style by the one rule."""
-    style, style_problems = styles.for_profile(path)
-    return prepare(read_source(Path(path)), style, styles.overrides, style_problems)
+    return prepare_source(read_source(Path(path)), styles)
+
+
+def prepare_source(source: Source, styles: Styles) -> Prepared:
+    """A profile file already read (`source.path` says where it is) prepared with its style by the one rule."""
+    style, style_problems = styles.for_profile(source.path)
+    return prepare(source, style, styles.overrides, style_problems)
 
 
 def prepare_text(text: str, style: CardStyle, overrides: Overrides = NONE, path: Path | None = None) -> Prepared:
@@ -275,10 +281,10 @@ def placeholder_problems(data: dict) -> list[Problem]:
                     for i, (a, b) in enumerate(zip(ours[key], value), start=1):
                         if isinstance(a, dict):
                             walk(a, b, f"{here}[{i}]", section or key)
-            elif ours[key] == value and f"{section or key}.{key}" not in fields.NOT_PLACEHOLDERS:
+            elif ours[key] == value and f"{section or key}.{key}" not in profile_keys.NOT_PLACEHOLDERS:
                 found.append(Problem(here, PLACEHOLDER, "this aircraft's own figure", value, WARNING))
 
-    for section in fields.PLACEHOLDER_SECTIONS:
+    for section in profile_keys.PLACEHOLDER_SECTIONS:
         if isinstance(data.get(section), (dict, list)) and section in template:
             ours, theirs = data[section], template[section]
             if isinstance(theirs, dict) and isinstance(ours, dict):
@@ -343,11 +349,11 @@ def warning_line(problem: Problem, profile: Profile) -> Msg:
     if m and int(m.group(1)) <= len(profile.configurations):
         name = profile.configurations[int(m.group(1)) - 1].name
         key = m.group(2)
-        label = fields.BY_PATH[f"configuration.{key}"].label.lower() if f"configuration.{key}" in fields.BY_PATH \
-            else (key or "")
+        declared = profile_keys.BY_PATH.get(f"configuration.{key}")
+        label = declared.label.lower() if declared is not None else (key or "")
         where = f"{name}, {label}{m.group(3)}" if label else name
-    elif where in fields.BY_PATH:
-        where = fields.BY_PATH[where].label.lower()
+    elif where in profile_keys.BY_PATH:
+        where = profile_keys.BY_PATH[where].label.lower()
     return Msg("WARNING {field}: {message}", field=where, message=problem.message)
 
 
@@ -377,8 +383,8 @@ def _merged(data: dict, style: CardStyle | None, overrides: Overrides) -> tuple[
             card_setting("bank_angles", list(bank_angles), origin("bank_angles"))
         if speed_unit is not None:
             card_setting("speed_unit", speed_unit, origin("speed_unit"))
-            if distance_unit is None and speed_unit == "km/h":
-                card_setting("distance_unit", "m", origin("speed_unit"))
+            if distance_unit is None and profile_keys.distance_unit_with(speed_unit):
+                card_setting("distance_unit", profile_keys.distance_unit_with(speed_unit), origin("speed_unit"))
         if distance_unit is not None:
             card_setting("distance_unit", distance_unit, origin("distance_unit"))
         if language is not None:

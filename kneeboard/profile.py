@@ -1,4 +1,4 @@
-"""Aircraft profiles: immutable data, SI floats, validated on creation by `kneeboard.schema`.
+"""Aircraft profiles: immutable data, SI floats, validated on creation by `kneeboard.inputs.schema`.
 
 A profile holds what the flight manual publishes (stall speeds per configuration at a reference
 weight, weights, limits, a glider's polar) and what the card is for (the weight flown, the bank
@@ -11,20 +11,16 @@ from dataclasses import dataclass, replace
 
 CATEGORIES = ("normal", "utility", "acrobatic", "glider")
 SPEED_BASES = ("IAS", "CAS")
+# The defaults of the profile's keys: each declared, with where it comes from, beside its key in
+# kneeboard/inputs/profile_keys.py (the reader, the editor's placeholders and the templates' check take them there).
 DEFAULT_BANKS_DEG = (0.0, 15.0, 30.0, 45.0, 60.0)
-#: The pattern speed as a factor of the stall speed: 1.4 is common practice; FAA-H-8083-3 gives about 1.3 VSO on final.
-DEFAULT_PATTERN_FACTOR = 1.4
-#: Heading changes of a turn back after an engine failure [deg]: regaining the runway needs more than 180
-#: (FAA-H-8083-3, engine failure after take-off); 270 is the usual figure for a turn back to the runway's line
-#: (common practice).
-DEFAULT_TURN_BACK_DEG = (180.0, 270.0)
-#: Seconds of straight glide before the turn: the time to recognise the failure and lower the nose. The published
-#: turn-back analyses assume a few seconds; 4 s is chosen (common practice).
-DEFAULT_REACTION_TIME = 4.0
+DEFAULT_PATTERN_FACTOR = 1.4  #: pattern speed / stall speed
+DEFAULT_TURN_BACK_DEG = (180.0, 270.0)  #: heading changes of a turn back after an engine failure [deg]
+DEFAULT_REACTION_TIME = 4.0  #: seconds of straight glide before the turn [s]
 #: What a configuration has extended, for its limit load factor (14 CFR 23.345; CS 22.345).
 NOTHING, FLAPS, AIR_BRAKES = "nothing", "flaps", "air brakes"
 EXTENDED = (NOTHING, FLAPS, AIR_BRAKES)
-AVGAS_DENSITY = 720.0  #: default fuel density [kg/m^3] (aviation gasoline, about 0.72 kg/L)
+AVGAS_DENSITY = 720.0  #: default density of an item given by volume [kg/m^3] (aviation gasoline, 0.72 kg/L)
 
 
 @dataclass(frozen=True)

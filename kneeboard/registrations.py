@@ -17,16 +17,6 @@ def key(registration: str) -> str:
     return unicodedata.normalize("NFC", folded)
 
 
-def of_file(path: Path) -> str | None:
-    """The registration a profile file gives, read from its data alone (no validation); None when it has none."""
-    from kneeboard.profile_io import read_source
-
-    data = read_source(Path(path)).data or {}
-    aircraft = data.get("aircraft") if isinstance(data.get("aircraft"), dict) else {}
-    registration = aircraft.get("registration")
-    return registration if isinstance(registration, str) and registration.strip() else None
-
-
 def duplicates(pairs: Iterable[tuple[str | None, Path]]) -> dict[str, list[Path]]:
     """(registration, file) pairs -> every registration (as first written) given by more than one file, with its
     files in the order given."""

@@ -39,12 +39,18 @@ _EXAMPLE = re.compile(r"^# ([a-z_]+ = )", re.MULTILINE)
 
 def template_data(category: str) -> dict | None:
     """The plain data of a category's template, its commented examples included (a value left as the example is
-    a placeholder too), or None when there is no such template."""
-    import tomllib
+    a placeholder too), or None when there is no such template. Raises FileProblem when the shipped template
+    cannot be read (a broken installation): a profile made from it is never read as if it had no placeholders."""
+    from kneeboard.fileio import FileProblem, read_text
+    from kneeboard.inputs.toml import parse_text
 
     if category not in CATEGORIES_WITH_TEMPLATES:
         return None
-    return tomllib.loads(_EXAMPLE.sub(r"\1", template_path(category).read_text(encoding="utf-8")))
+    path = template_path(category)
+    data, problems = parse_text(_EXAMPLE.sub(r"\1", read_text(path)))
+    if data is None:
+        raise FileProblem(f"{path}: the shipped template {problems[0].message}; reinstall kneeboard")
+    return data
 
 
 def samples_folder() -> Path:

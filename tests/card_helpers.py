@@ -7,8 +7,8 @@ from conftest import SAMPLES
 
 from kneeboard.card import card_pdf
 from kneeboard.card.style import CardStyle, load_style
+from kneeboard.inputs.profiles import read_source, source_from_text
 from kneeboard.pipeline import Overrides, make_card, prepare
-from kneeboard.profile_io import load_profile, read_source, source_from_text
 
 MADE_ON = "2026-12-01"
 #: The blocks a 4x6 card holds for the powered samples (every block would not fit: the layout says so by name).
@@ -24,7 +24,8 @@ def default_style() -> CardStyle:
 
 @cache
 def loaded(name: str):
-    return load_profile(SAMPLES / f"{name}.toml")
+    """A sample (by file stem) through the pipeline with the shipped style, prepared once per session."""
+    return prepared(name)
 
 
 def prepared(name: str, style: CardStyle | None = None, **overrides):

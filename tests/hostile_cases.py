@@ -10,7 +10,7 @@ from conftest import MINIMAL, SAMPLES
 from hypothesis import strategies as st
 
 from kneeboard import units
-from kneeboard.schema import KNOWN_KEYS
+from kneeboard.inputs.schema import KNOWN_KEYS
 
 BASE_TEXTS = {"minimal": MINIMAL} | {p.stem: p.read_text(encoding="utf-8") for p in sorted(SAMPLES.glob("*.toml"))}
 BASES = st.sampled_from(sorted(BASE_TEXTS))

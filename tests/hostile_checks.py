@@ -19,8 +19,8 @@ from hypothesis import HealthCheck, settings
 
 from kneeboard import report
 from kneeboard.cli import main
+from kneeboard.inputs.schema import KNOWN_KEYS
 from kneeboard.pipeline import PLACEHOLDER, Prepared
-from kneeboard.schema import KNOWN_KEYS
 from kneeboard.tables import LIMIT_MARK, Printed, build
 from kneeboard.texts import CAUTION
 

@@ -39,7 +39,9 @@ def test_the_cards_units_come_from_the_profile_or_from_what_its_file_names():
     broken = checked(MINIMAL.replace('"50 kt"', '"fast"') + '\n[card]\nspeed_unit = "mph"\ndistance_unit = "fathom"\n')
     assert broken.profile is None
     assert hints.card_units(broken, {"speed_unit": "mph", "distance_unit": "fathom"}) == ("mph", "ft", "kg")
-    assert hints.card_units(broken, "not a table") == hints.DEFAULT_UNITS
+    assert hints.card_units(broken, "not a table") == ("kt", "ft", "kg")  # the declared defaults
+    # the reader's rule, not a second one: a card in km/h measures distance in metres unless it says otherwise
+    assert hints.card_units(broken, {"speed_unit": "km/h"}) == ("km/h", "m", "kg")
 
 
 @pytest.mark.parametrize("category, shown", [

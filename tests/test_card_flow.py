@@ -26,8 +26,8 @@ from kneeboard.card.geometry import CARD_SIZES, LARGE_CARDS
 from kneeboard.card.layout import block_order
 from kneeboard.card.ops import FIGURE, Circle, Text
 from kneeboard.card.ops import Path as PathOp
+from kneeboard.inputs.profiles import read_source
 from kneeboard.pipeline import Overrides, make_card, prepare
-from kneeboard.profile_io import read_source
 
 AIRCRAFT = Path(__file__).parent / "aircraft"
 PROFILES = sorted(SAMPLES.glob("*.toml")) + sorted(AIRCRAFT.glob("*.toml"))

@@ -17,8 +17,9 @@ import sys
 import pytest
 from conftest import ROOT, SAMPLES
 
-from kneeboard import fields, terms, texts
+from kneeboard import terms, texts
 from kneeboard.card.ops import Text
+from kneeboard.inputs import profile_keys
 from kneeboard.pipeline import Overrides, Styles, make_card, prepare_file, report_text
 
 DEVELOPERS = ROOT / "DEVELOPERS.md"
@@ -27,7 +28,7 @@ HELP_PAGES = ([], ["check"], ["table"], ["card"], ["compare"], ["new"], ["sample
 #: Replaced words found in code the documentation's author does not own: reported to its owner, not fixed here.
 #: Each entry is (where, the words found); only these exact cases are let through, every other find fails.
 REPORTED = {
-    # Reported in the documentation hand-over, "replaced words": kneeboard/fields.py line 66, the editor's label of
+    # Reported in the documentation hand-over, "replaced words": kneeboard/inputs/profile_keys.py, the editor's label of
     # aircraft.reference_weight is "Speeds published at", the words `reference weight` replaced.
     ("editor label of aircraft.reference_weight", "Speeds published at"),
 }
@@ -93,7 +94,7 @@ def _card_texts(cards) -> dict[str, str]:
 
 def _field_texts() -> dict[str, str]:
     out = {}
-    for f in fields.FIELDS:
+    for f in profile_keys.FIELDS:
         for part in ("label", "placeholder", "help"):
             if getattr(f, part):
                 out[f"editor {part} of {f.path}"] = getattr(f, part)
@@ -154,7 +155,7 @@ def test_every_replaced_word_has_a_term_and_every_pattern_finds_its_former_words
 def test_every_file_key_in_the_table_is_a_declared_profile_field():
     for t in terms.TERMS:
         for key in t.file_keys:
-            assert key in fields.BY_PATH, (t.name, key)
+            assert key in profile_keys.BY_PATH, (t.name, key)
 
 
 def test_every_card_word_in_the_table_is_printed_on_a_sample_card(cards):
@@ -221,7 +222,8 @@ def test_the_readme_profile_format_names_every_field_with_its_default():
     section = _readme_section("The profile file")
     block = re.search(r"```toml\n(.*?)```", section, re.S).group(1)
     written = set(re.findall(r"^#?\s*(\w+) = ", block, re.M))
-    declared = {f.key for f in fields.FIELDS if f.kind != fields.ITEMS} | set(fields.TOP_LEVEL) - set(fields.SECTIONS)
+    keys = profile_keys
+    declared = {f.key for f in keys.FIELDS if f.kind != keys.ITEMS} | set(keys.TOP_LEVEL) - set(keys.SECTIONS)
     assert declared <= written, sorted(declared - written)
     assert {f"[{s}]" for s in ("aircraft", "weight", "glider", "card")} | {"[[configuration]]", "[[weight.item]]"} \
         <= set(re.findall(r"^#?\s*(\[\[?[\w.]+\]\]?)", block, re.M))

@@ -282,7 +282,7 @@ def test_other_outputs_pass(tmp_path, inputs):
 
 @pytest.mark.parametrize("special", ["fifo", "/dev/null", "/dev/zero", "loop"])
 def test_the_profile_loader_names_special_files_without_waiting(tmp_path, fifo, special):
-    from kneeboard.profile_io import load_profile
+    from conftest import checked_file
 
     if special == "fifo":
         path = fifo
@@ -291,7 +291,7 @@ def test_the_profile_loader_names_special_files_without_waiting(tmp_path, fifo, 
         path.symlink_to("loop.toml")
     else:
         path = Path(special)
-    outcome = promptly(load_profile, path)
+    outcome = promptly(checked_file, path)
     loaded = outcome["value"]
     assert loaded.profile is None and [p.path for p in loaded.problems] == ["(file)"]
     assert any(word in loaded.problems[0].message for word in ("FIFO", "device", "loop"))

@@ -67,7 +67,6 @@ from hypothesis import strategies as st
 from kneeboard import units
 from kneeboard.compute import compute
 from kneeboard.fileio import MAX_FILE_BYTES
-from kneeboard.profile_io import profile_from_text
 
 
 @pytest.fixture(scope="session", autouse=True)
@@ -171,7 +170,7 @@ def test_duplicate_configuration_names(tmp_path, capsys, base, data):
 @fuzz(50)
 @given(base=BASES, data=st.data())
 def test_pattern_speed_at_or_below_the_stall_speed(tmp_path, capsys, base, data):
-    profile = profile_from_text(BASE_TEXTS[base]).profile
+    profile = checked(BASE_TEXTS[base]).profile
     i = data.draw(st.integers(0, len(profile.configurations) - 1))
     c, r = profile.configurations[i], compute(profile).configurations[i]
     calibration = profile.calibration_for(c)

@@ -1,8 +1,8 @@
 """File formats: newer ones refused with a reason, older ones migrated, their originals kept."""
 
-from conftest import MINIMAL
+from conftest import MINIMAL, checked_file
 
-from kneeboard.profile_io import file_format, load_profile, migrate_text
+from kneeboard.inputs.migration import file_format, migrate_text
 
 FORMAT_0 = "# an old hand-written profile (invented)\n" + MINIMAL.replace("schema = 1\n", "")
 
@@ -12,7 +12,7 @@ def test_newer_format_is_refused_with_a_reason(tmp_path, capsys):
 
     path = tmp_path / "new.toml"
     path.write_text(MINIMAL.replace("schema = 1", "schema = 2"))
-    loaded = load_profile(path)
+    loaded = checked_file(path)
     assert loaded.profile is None
     assert "format 2, written by a newer kneeboard; this version reads format 1" in loaded.errors[0].message
     assert main(["check", str(path)]) == 2

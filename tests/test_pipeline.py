@@ -11,7 +11,7 @@ from conftest import SAMPLES
 from pypdf import PdfReader
 
 from kneeboard import compute as compute_module
-from kneeboard import fields, pipeline, tables
+from kneeboard import pipeline, tables
 from kneeboard.card import blocks
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import Draw, figure
@@ -19,7 +19,8 @@ from kneeboard.card.ops import LABEL
 from kneeboard.card.style import load_style
 from kneeboard.cli import main
 from kneeboard.compare import compare
-from kneeboard.schema import KNOWN_KEYS
+from kneeboard.inputs import profile_keys
+from kneeboard.inputs.schema import KNOWN_KEYS
 
 STYLE = 'speed_unit = "km/h"\nbank_angles = [0, 20, 40]\norganization = "Demo Flying Club"\n'
 
@@ -82,10 +83,10 @@ def test_the_physics_runs_once_per_card(tmp_path, monkeypatch):
 
 
 def test_reading_a_profile_runs_no_physics():
-    from kneeboard.profile_io import load_profile
+    from kneeboard.inputs.schema import profile_from_data
 
     with mock.patch.object(compute_module, "compute", side_effect=AssertionError("physics while reading")):
-        assert load_profile(SAMPLES / "demo_tourer.toml").profile is not None
+        assert profile_from_data(pipeline.read_source(SAMPLES / "demo_tourer.toml").data)[0] is not None
 
 
 def test_an_override_is_checked_like_the_files_own_value_and_names_itself():
@@ -125,11 +126,11 @@ def test_a_new_block_is_one_declaration_for_the_style_the_layout_and_compare(thr
 
 
 def test_every_key_the_reader_accepts_is_declared_once():
-    declared = {(f.section, f.key) for f in fields.FIELDS}
-    assert len(declared) == len(fields.FIELDS)
+    declared = {(f.section, f.key) for f in profile_keys.FIELDS}
+    assert len(declared) == len(profile_keys.FIELDS)
     for section, keys in KNOWN_KEYS.items():
         for key in keys:
-            assert (section, key) in declared or (section == "" and key in fields.TOP_LEVEL), (section, key)
+            assert (section, key) in declared or (section == "" and key in profile_keys.TOP_LEVEL), (section, key)
 
 
 def test_templates_use_only_declared_fields():
@@ -140,12 +141,12 @@ def test_templates_use_only_declared_fields():
     for category in CATEGORIES_WITH_TEMPLATES:
         data = tomllib.loads(template_path(category).read_text(encoding="utf-8"))
         for section, table in data.items():
-            if section not in fields.SECTIONS:
-                assert section in fields.TOP_LEVEL, section
+            if section not in profile_keys.SECTIONS:
+                assert section in profile_keys.TOP_LEVEL, section
                 continue
             for row in table if isinstance(table, list) else [table]:
                 for key in row:
-                    assert (section, key) in {(f.section, f.key) for f in fields.FIELDS}, (category, section, key)
+                    assert (section, key) in {(f.section, f.key) for f in profile_keys.FIELDS}, (category, section, key)
 
 
 def test_a_profile_from_a_template_warns_until_every_placeholder_is_replaced():

@@ -13,8 +13,8 @@ from card_helpers import MADE_ON, default_style
 from conftest import SAMPLES
 
 from kneeboard import printed, report, rounding
+from kneeboard.inputs.profiles import read_source
 from kneeboard.pipeline import Overrides, make_card, prepare
-from kneeboard.profile_io import read_source
 
 AIRCRAFT = Path(__file__).parent / "aircraft"
 PROFILES = sorted(SAMPLES.glob("*.toml")) + sorted(AIRCRAFT.glob("*.toml"))

@@ -3,13 +3,13 @@
 import math
 
 import pytest
+from conftest import checked_file
 from hypothesis import given
 from hypothesis import strategies as st
 
 from kneeboard import rounding
 from kneeboard.compute import compute
 from kneeboard.profile import Aircraft, CardSettings, Configuration, Profile
-from kneeboard.profile_io import load_profile
 from kneeboard.tables import BUFFER, OK, STALL, build
 
 KT = 1852 / 3600
@@ -122,14 +122,14 @@ def test_properties_of_the_computation(vs, w1, w2, factor):
 def test_samples_compute(sample_paths):
     assert len(sample_paths) >= 5
     for path in sample_paths:
-        loaded = load_profile(path)
+        loaded = checked_file(path)
         assert loaded.errors == [], path
         t = build(loaded.profile)
         assert t.configurations and all(c.rows for c in t.configurations)
 
 
 def test_glider_sample_circling():
-    loaded = load_profile(next(p for p in __import__("conftest").SAMPLES.glob("*glider*.toml")))
+    loaded = checked_file(next(p for p in __import__("conftest").SAMPLES.glob("*glider*.toml")))
     t = build(loaded.profile)
     g = t.glider
     speeds = [row.speed.value for row in g.rows]

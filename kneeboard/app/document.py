@@ -14,12 +14,10 @@ file watcher tells the window as soon as that happens, so no one's change is ove
 import copy
 import hashlib
 import os
-import tomllib
 import uuid
 from dataclasses import dataclass
 from pathlib import Path
 
-import tomlkit
 from PySide6.QtCore import QFileSystemWatcher, QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
@@ -32,13 +30,10 @@ from kneeboard.fileio import (
     same_file,
     write_atomic,
 )
+from kneeboard.inputs import toml
+from kneeboard.inputs.migration import backup_path, file_format, migrate_text
+from kneeboard.inputs.toml import document_from_text
 from kneeboard.pipeline import Prepared
-from kneeboard.profile_io import (
-    backup_path,
-    document_from_text,
-    file_format,
-    migrate_text,
-)
 
 Key = tuple  #: a path into the document: ("configuration", 0, "stall_speed")
 
@@ -167,15 +162,13 @@ class ProfileDocument(QObject):
         if self._plain is None:
             if self._doc is not None:
                 self._plain = self._doc.unwrap()
-            else:  # after undo or redo only the text is known; tomllib reads it several times faster
-                try:
-                    self._plain = tomllib.loads(self._text)
-                except tomllib.TOMLDecodeError:
-                    self._plain = self.editable().unwrap()
+            else:  # after undo or redo only the text is known; the plain reader is several times faster
+                data, _problems = toml.parse_text(self._text)
+                self._plain = data if data is not None else self.editable().unwrap()
         return self._plain
 
-    def editable(self) -> tomlkit.TOMLDocument:
-        """The tomlkit document, parsed from the text when an edit first needs it."""
+    def editable(self) -> toml.Document:
+        """The editable document, parsed from the text when an edit first needs it."""
         if self._doc is None:
             self._doc = document_from_text(self._text, str(self.path or ""))
         return self._doc
@@ -227,14 +220,14 @@ class ProfileDocument(QObject):
     def apply(self, change, label: str, merge_id: int = -1) -> None:
         """Run `change(document)`; if the text changed, push it as one undoable step.
 
-        The document is changed in place (copying a tomlkit document costs more than the whole
+        The document is changed in place (copying a TOML document costs more than the whole
         edit); the text before is the snapshot, so a change that fails halfway is undone by
         reading that text back.
         """
         doc = self.editable()
         try:
             change(doc)
-            after = tomlkit.dumps(doc)
+            after = toml.dumps(doc)
         except (KeyError, IndexError, TypeError, ValueError):
             self._doc = document_from_text(self._text, str(self.path or ""))
             return  # the edit does not apply to this document's shape: nothing happens
@@ -253,8 +246,8 @@ class ProfileDocument(QObject):
         def change(doc):
             parent = _walk(doc, key[:-1], create=True)
             if key[-1] not in parent:
-                parent[key[-1]] = tomlkit.aot()
-            table = tomlkit.table()
+                parent[key[-1]] = toml.new_array_of_tables()
+            table = toml.new_table()
             for k, v in values.items():
                 table[k] = v
             aot = parent[key[-1]]
@@ -380,6 +373,6 @@ def _walk(doc, key: Key, create: bool = False):
     node = doc
     for part in key:
         if isinstance(part, str) and create and part not in node:
-            node[part] = tomlkit.table()
+            node[part] = toml.new_table()
         node = node[part]
     return node

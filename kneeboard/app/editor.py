@@ -20,12 +20,12 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard import fields as declared
 from kneeboard import terms, units
 from kneeboard.app import hints
 from kneeboard.app.document import ProfileDocument, key_text
-from kneeboard.app.fields import ChoiceField, Field, NotesField, NumberField, PairsField, TextField
+from kneeboard.app.fields import BanksField, ChoiceField, Field, NotesField, NumberField, PairsField, TextField
 from kneeboard.app.items import ItemsField
+from kneeboard.inputs import profile_keys as declared
 from kneeboard.problems import Problem
 
 CONFIG = "configuration"
@@ -92,7 +92,7 @@ class ProfileEditor(QScrollArea):
         return form
 
     def _declared(self, form: QFormLayout | None, key: tuple, decl: declared.Field) -> Field:
-        """The widget of one declared field (`kneeboard.fields`), bound to `key` of the document."""
+        """The widget of one declared field (`kneeboard.inputs.profile_keys`), bound to `key` of the document."""
         if decl.kind == declared.CHOICE:
             options = decl.options if decl.required else (None,) + tuple(decl.options)
             widget = ChoiceField(options, {None: DEFAULT})
@@ -205,7 +205,6 @@ class ProfileEditor(QScrollArea):
         self.config_tabs.setCurrentIndex(max(0, min(i + delta, self.doc.count((CONFIG,)) - 1)))
 
     def _set_pattern_mode(self, i: int, mode: str):
-        c = (CONFIG, i)
         loaded = self.doc.loaded
 
         def change(doc):
@@ -215,10 +214,9 @@ class ProfileEditor(QScrollArea):
                 table["pattern_speed"] = self._pattern_speed_text(loaded, i)
             elif mode == "factor" and "pattern_speed" in table:
                 del table["pattern_speed"]
-                table["pattern_factor"] = 1.4
+                table["pattern_factor"] = declared.default("configuration.pattern_factor")
 
         self.doc.apply(change, "Change pattern speed")
-        del c
 
     def _pattern_speed_text(self, loaded, i: int) -> str:
         return hints.pattern_speed_text(loaded, i, self.card_units()[0])  # the speed the card prints now
@@ -233,9 +231,9 @@ class ProfileEditor(QScrollArea):
                 doc.pop("weight", None)
                 return
             if "weight" not in doc:
-                import tomlkit
+                from kneeboard.inputs.toml import new_table
 
-                doc["weight"] = tomlkit.table()
+                doc["weight"] = new_table()
             w = doc["weight"]
             if mode == "total" and "total" not in w:
                 for key in ("empty", "item"):
@@ -282,8 +280,8 @@ class ProfileEditor(QScrollArea):
         """The lists past the profile's limits, checked before any widget is built for them: the editor built a
         tab for each of 10,000 configurations (minutes, gigabytes) where the command line refused the file at
         once. The Problems list then shows the command line's own refusal; Undo goes back."""
-        from kneeboard.schema import MAX_BANKS, MAX_CONFIGURATIONS, MAX_ITEMS
-        from kneeboard.values import MAX_POLAR_POINTS
+        from kneeboard.inputs.schema import MAX_BANKS, MAX_CONFIGURATIONS, MAX_ITEMS
+        from kneeboard.inputs.values import MAX_POLAR_POINTS
 
         limits = [((CONFIG,), MAX_CONFIGURATIONS), (("weight", "item"), MAX_ITEMS),
                   (("card", "bank_angles"), MAX_BANKS), (("glider", "polar"), MAX_POLAR_POINTS),
@@ -378,31 +376,3 @@ class ProfileEditor(QScrollArea):
             self.config_tabs.setCurrentIndex(int(path[len(CONFIG) + 1:].split("]")[0]) - 1)
         self.ensureWidgetVisible(field)
         field.input.setFocus()
-
-
-class BanksField(TextField):
-    """Bank angles typed as "0, 15, 30, 45, 60"; kept as text when it is not a list of numbers."""
-
-    def __init__(self, placeholder: str = "degrees, e.g. 0, 15, 30, 45, 60", parent=None):
-        super().__init__(placeholder, parent)
-        self.input.textEdited.disconnect()
-        self.input.textEdited.connect(lambda text: self.edited.emit(parse_banks(text)))
-
-    def set_value(self, value) -> None:
-        if isinstance(value, list):
-            value = ", ".join(f"{b:g}" if isinstance(b, (int, float)) else str(b) for b in value)
-        super().set_value(value)
-
-
-def parse_banks(text: str):
-    parts = [p.strip() for p in text.replace(";", ",").split(",") if p.strip()]
-    if not parts:
-        return None
-    numbers = []
-    for p in parts:
-        try:
-            number = float(p)
-        except ValueError:
-            return text  # kept as typed: the profile check says what is wrong with it
-        numbers.append(int(number) if number.is_integer() else number)
-    return numbers

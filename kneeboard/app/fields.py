@@ -102,16 +102,20 @@ class TextField(Field):
             self.input.setCursorPosition(min(pos, len(text)))
 
 
-class NumberField(TextField):
-    """A plain number (a load factor, a pattern factor); what is not a number is kept as text."""
+class ParsedField(TextField):
+    """Text typed into a value of the document (a number, a list of numbers): `parse` makes the value, `shown`
+    writes one as text. What does not parse is kept as typed, so its problem can be shown."""
+
+    parse = staticmethod(lambda text: text)
+    shown = staticmethod(lambda value: value)
 
     def __init__(self, placeholder: str = "", parent=None):
         super().__init__(placeholder, parent)
         self.input.textEdited.disconnect()
-        self.input.textEdited.connect(lambda text: self.edited.emit(parse_number(text)))
+        self.input.textEdited.connect(lambda text: self.edited.emit(self.parse(text)))
 
     def set_value(self, value) -> None:
-        super().set_value(format_number(value))
+        super().set_value(self.shown(value))
 
 
 def parse_number(text: str):
@@ -132,6 +136,41 @@ def format_number(value) -> str:
     if isinstance(value, float) and value.is_integer():
         return f"{value:.1f}"
     return str(value)
+
+
+class NumberField(ParsedField):
+    """A plain number (a load factor, a pattern factor)."""
+
+    parse = staticmethod(parse_number)
+    shown = staticmethod(format_number)
+
+
+def parse_banks(text: str):
+    """ "0, 15, 30" -> [0, 15, 30]; "" -> None; anything else stays text."""
+    parts = [p.strip() for p in text.replace(";", ",").split(",") if p.strip()]
+    if not parts:
+        return None
+    numbers = []
+    for p in parts:
+        try:
+            number = float(p)
+        except ValueError:
+            return text  # kept as typed: the profile check says what is wrong with it
+        numbers.append(int(number) if number.is_integer() else number)
+    return numbers
+
+
+def format_banks(value):
+    if isinstance(value, list):
+        return ", ".join(f"{b:g}" if isinstance(b, (int, float)) else str(b) for b in value)
+    return value
+
+
+class BanksField(ParsedField):
+    """Angles typed as "0, 15, 30, 45, 60" (bank angles, turn-back headings)."""
+
+    parse = staticmethod(parse_banks)
+    shown = staticmethod(format_banks)
 
 
 class ChoiceField(Field):

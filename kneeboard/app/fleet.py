@@ -10,7 +10,7 @@ from pathlib import Path
 
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
 
-from kneeboard.profile_io import Source, profile_files, read_source
+from kneeboard.inputs.profiles import Source, profile_files, read_source
 from kneeboard.registrations import duplicates, others
 
 #: The roles a view or a test reads (every column answers every role).

@@ -9,19 +9,24 @@ and the one units registry, so what a field shows beside it is what the card com
 from kneeboard import units
 from kneeboard.aero.limits import CATEGORY_LIMIT_LOAD
 
-DEFAULT_UNITS = ("kt", "ft", "kg")  #: speed, distance, weight while the profile's own cannot be read
-
 
 def card_units(prepared, card: dict | None) -> tuple[str, str, str]:
     """Speed, distance and weight units of the card: the profile's as prepared, else those its `card` table names
-    (only the known ones: the file may hold anything), else the defaults."""
+    (only the known ones: the file may hold anything), else the declared defaults (metres with km/h, as the reader
+    has it)."""
+    from kneeboard.inputs import profile_keys
+
     if prepared.profile is not None:
         c = prepared.profile.card
         return c.speed_unit, c.distance_unit, c.weight_unit
     card = card if isinstance(card, dict) else {}
-    return tuple(card.get(key) if card.get(key) in options else default for key, options, default in (
-        ("speed_unit", units.SPEED_UNITS, DEFAULT_UNITS[0]), ("distance_unit", units.DISTANCE_UNITS, DEFAULT_UNITS[1]),
-        ("weight_unit", units.WEIGHT_UNITS, DEFAULT_UNITS[2])))
+
+    def named(key, options, default):
+        return card.get(key) if card.get(key) in options else default
+
+    speed = named("speed_unit", units.SPEED_UNITS, profile_keys.default("card.speed_unit"))
+    return (speed, named("distance_unit", units.DISTANCE_UNITS, profile_keys.default_distance_unit(speed)),
+            named("weight_unit", units.WEIGHT_UNITS, profile_keys.default("card.weight_unit")))
 
 
 def target_unit(kind: units.Kind, sink: bool, shown: tuple[str, str, str]) -> str | None:

@@ -97,7 +97,7 @@ class CardOutputs:
     def _refuse_inputs(self, path: Path) -> None:
         """An export never replaces the open profile, a profile of the fleet, or a style or logo it uses."""
         from kneeboard.fileio import refuse_overwrite_of_inputs
-        from kneeboard.profile_io import profile_files
+        from kneeboard.inputs.profiles import profile_files
 
         session = self.c.session
         inputs = [p for p in (self.c.doc.path if self.c.doc else None,) if p is not None]
@@ -131,7 +131,7 @@ class CardOutputs:
     def export_fleet(self):
         """Every card of the open folder in one PDF, as `kneeboard card FOLDER -o FILE` makes it."""
         from kneeboard.app.dialogs import export_fleet
-        from kneeboard.profile_io import profile_files
+        from kneeboard.inputs.profiles import profile_files
 
         c = self.c
         folder = c.fleet.folder

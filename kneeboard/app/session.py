@@ -17,8 +17,8 @@ from kneeboard import registrations
 
 if TYPE_CHECKING:  # the pipeline loads numpy, pint and the card package: at the first profile, not at start-up
     from kneeboard.card.ops import Figure
+    from kneeboard.inputs.profiles import Source
     from kneeboard.pipeline import Prepared, Styles
-    from kneeboard.profile_io import Source
 
 UNTITLED = "untitled.toml"  #: the name a new profile's style is looked up by, in the open folder
 
@@ -93,12 +93,12 @@ class Session:
         return prepare(source, style, overrides, style_problems=style_problems)
 
     def prepare_plain(self, data: dict, path: Path | None = None, weight: str | None = None) -> Prepared:
-        from kneeboard.profile_io import source_from_plain
+        from kneeboard.inputs.profiles import source_from_plain
 
         return self.prepare_source(source_from_plain(data, path), weight)
 
     def prepare_text(self, text: str, path: Path | None = None) -> Prepared:
-        from kneeboard.profile_io import source_from_text
+        from kneeboard.inputs.profiles import source_from_text
 
         return self.prepare_source(source_from_text(text, path))
 

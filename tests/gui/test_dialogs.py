@@ -5,6 +5,7 @@ from pathlib import Path
 
 import pytest
 from card_helpers import card_of, prepared
+from conftest import checked_file
 from PySide6.QtCore import QSettings, Qt
 from PySide6.QtGui import QGuiApplication
 from PySide6.QtWidgets import QWidget
@@ -21,9 +22,9 @@ from kneeboard.app.dialogs import (
     show_caution_once,
 )
 from kneeboard.compare import HIGHER_IS_WORSE, LOWER_IS_WORSE, Change, compare
+from kneeboard.inputs.profiles import expand_paths
 from kneeboard.pipeline import Styles
 from kneeboard.problems import ERROR, WARNING, Problem
-from kneeboard.profile_io import expand_paths, load_profile
 from kneeboard.texts import CAUTION
 
 # The samples folder, found from this file.
@@ -146,7 +147,7 @@ def test_problems_dialog_lists_errors_before_warnings(qtbot):
 def test_problems_dialog_of_a_real_broken_profile(qtbot, tmp_path, minimal_text):
     path = tmp_path / "broken.toml"
     path.write_text(minimal_text.replace('"50 kt"', '"50"'), encoding="utf-8")
-    loaded = load_profile(path)
+    loaded = checked_file(path)
     assert loaded.profile is None
     dialog = ProblemsDialog(path.name, list(loaded.problems))
     qtbot.addWidget(dialog)
@@ -166,7 +167,7 @@ def fleet_with_broken(tmp_path, minimal_text):
 
 
 def registrations():
-    return sorted(load_profile(p).profile.aircraft.registration for p in SAMPLES.glob("*.toml"))
+    return sorted(checked_file(p).profile.aircraft.registration for p in SAMPLES.glob("*.toml"))
 
 
 def test_export_each_writes_one_pdf_per_aircraft_and_reports_the_broken_one(qtbot, tmp_path, fleet_with_broken):

@@ -4,8 +4,7 @@ import random
 
 import pytest
 
-from kneeboard.app.editor import BanksField
-from kneeboard.app.fields import ChoiceField, NotesField, NumberField, PairsField, TextField
+from kneeboard.app.fields import BanksField, ChoiceField, NotesField, NumberField, PairsField, TextField
 from kneeboard.app.items import ItemsField
 
 STEPS = int(__import__("os").environ.get("KB_MONKEY_STEPS", "3000"))

@@ -5,21 +5,18 @@ its path, what is wrong and what would be accepted, and reading goes on so that 
 everything. Errors make the profile unusable; warnings are shown but do not stop a card.
 """
 
-from kneeboard import fields, units
-from kneeboard.fields import (
+from kneeboard import units
+from kneeboard.i18n import Msg, Num
+from kneeboard.inputs import profile_keys
+from kneeboard.inputs.profile_keys import (
     MAX_BANK_DEG,
     OAT_RANGE,
     SINK_RANGE,
     SPEED_RANGE,
 )
-from kneeboard.i18n import Msg, Num
+from kneeboard.inputs.values import MAX_POLAR_POINTS, Reader, finite
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import (
-    AVGAS_DENSITY,
-    DEFAULT_BANKS_DEG,
-    DEFAULT_PATTERN_FACTOR,
-    DEFAULT_REACTION_TIME,
-    DEFAULT_TURN_BACK_DEG,
     FLAPS,
     NOTHING,
     Aircraft,
@@ -31,7 +28,6 @@ from kneeboard.profile import (
     WeightItem,
     name_key,
 )
-from kneeboard.values import MAX_POLAR_POINTS, Reader, finite
 
 SCHEMA_VERSION = 1
 MAX_CONFIGURATIONS = 12
@@ -39,7 +35,7 @@ MAX_BANKS = 24
 MAX_ITEMS = 40
 
 #: Section -> the keys a file may have there, derived from the field declarations.
-KNOWN_KEYS = fields.known_keys()
+KNOWN_KEYS = profile_keys.known_keys()
 
 
 def profile_from_data(data: dict) -> tuple[Profile | None, list[Problem]]:
@@ -90,18 +86,8 @@ def _read_aircraft(r, data):
     if a is None:
         return None
     r.unknown(a, KNOWN_KEYS["aircraft"], "aircraft")
-    registration = r.read("aircraft.registration", a)
-    model = r.read("aircraft.model", a)
-    category = r.read("aircraft.category", a, default="normal")
-    max_weight = r.read("aircraft.max_weight", a)
-    reference = r.read("aircraft.reference_weight", a)
-    n_limit = r.read("aircraft.limit_load_factor", a)
-    va = r.read("aircraft.maneuvering_speed", a)
-    va_weight = r.read("aircraft.maneuvering_speed_weight", a)
-    basis = r.read("aircraft.speed_basis", a, default="IAS")
-    best_glide = r.read("aircraft.best_glide_speed", a)
-    glide_ratio = r.read("aircraft.glide_ratio", a)
-    best_glide_sink = r.read("aircraft.best_glide_sink", a)
+    v = r.read_section("aircraft", a)
+    best_glide, glide_ratio, best_glide_sink = v["best_glide_speed"], v["glide_ratio"], v["best_glide_sink"]
     if "glide_ratio" in a and "best_glide_sink" in a:
         r.problem("aircraft", "gives both glide_ratio and best_glide_sink", "one of them, never both")
     elif ("glide_ratio" in a or "best_glide_sink" in a) != ("best_glide_speed" in a):
@@ -112,24 +98,24 @@ def _read_aircraft(r, data):
                             "and the profile gives one. Both are in the flight manual"))
         best_glide = glide_ratio = best_glide_sink = None
     calibration = r.calibration(a, "aircraft.calibration")
-    glide_configuration = r.read("aircraft.glide_configuration", a) or None
+    max_weight = v["max_weight"]
     if max_weight is None:
         return None
     return Aircraft(
-        registration=registration,
-        model=model,
-        category=category,
+        registration=v["registration"],
+        model=v["model"],
+        category=v["category"],
         max_weight=max_weight,
-        reference_weight=max_weight if reference is None else reference,
-        limit_load_factor=n_limit,
-        maneuvering_speed=va,
-        maneuvering_speed_weight=va_weight,
+        reference_weight=max_weight if v["reference_weight"] is None else v["reference_weight"],
+        limit_load_factor=v["limit_load_factor"],
+        maneuvering_speed=v["maneuvering_speed"],
+        maneuvering_speed_weight=v["maneuvering_speed_weight"],
         best_glide_speed=best_glide,
         glide_ratio=glide_ratio,
         best_glide_sink=best_glide_sink,
-        speed_basis=basis,
+        speed_basis=v["speed_basis"],
         calibration=calibration,
-        glide_configuration=glide_configuration,
+        glide_configuration=v["glide_configuration"] or None,
     )
 
 
@@ -176,7 +162,6 @@ def _read_item(r, raw, path):
     density = r.read("weight.item.density", raw, f"{path}.density")
     if volume is None or ("density" in raw and density is None):
         return None
-    density = AVGAS_DENSITY if density is None else density
     return WeightItem(name, volume * density, volume, density)
 
 
@@ -196,26 +181,19 @@ def _read_configurations(r, data):
             r.problem(path, "must be a [[configuration]] table", wanted, c)
             continue
         r.unknown(c, KNOWN_KEYS["configuration"], path)
-        name = r.read("configuration.name", c, f"{path}.name")
+        v = r.read_section("configuration", c, path, extended=FLAPS if "flap_limit_speed" in c else NOTHING)
+        name = v["name"]
         if name and _name_key(name) in seen:
             r.problem(f"{path}.name", "is used by an earlier configuration", "a name unique in this profile", name)
         seen.add(_name_key(name))
-        stall = r.read("configuration.stall_speed", c, f"{path}.stall_speed")
-        factor = r.read("configuration.pattern_factor", c, f"{path}.pattern_factor")
-        fixed = r.read("configuration.pattern_speed", c, f"{path}.pattern_speed")
         if "pattern_factor" in c and "pattern_speed" in c:
             r.problem(path, "gives both pattern_factor and pattern_speed", "one of them, never both")
-        vfe = r.read("configuration.flap_limit_speed", c, f"{path}.flap_limit_speed")
         calibration = r.calibration(c, f"{path}.calibration")
-        extended = r.read("configuration.extended", c, f"{path}.extended",
-                          default=FLAPS if vfe is not None else NOTHING)
-        n_limit = r.read("configuration.limit_load_factor", c, f"{path}.limit_load_factor")
-        if stall is None:
+        if v["stall_speed"] is None:
             continue
-        if fixed is None and factor is None:
-            factor = DEFAULT_PATTERN_FACTOR
-        result.append(Configuration(name, stall, None if fixed is not None else factor, fixed, vfe, calibration,
-                                    extended, n_limit))
+        fixed = v["pattern_speed"]  # without one, the factor: the file's, else the declared default
+        result.append(Configuration(name, v["stall_speed"], None if fixed is not None else v["pattern_factor"], fixed,
+                                    v["flap_limit_speed"], calibration, v["extended"], v["limit_load_factor"]))
     return result
 
 
@@ -243,13 +221,15 @@ def _read_glider(r, data):
 def _read_card(r, data):
     c = r.table(data, "card", "card") or {}
     r.unknown(c, KNOWN_KEYS["card"], "card")
-    banks = _read_banks(r, c)
-    speed_unit = r.read("card.speed_unit", c,
-                        default=units.display_unit(_first_stall_speed(data), units.SPEED_UNITS) or "kt")
-    distance_unit = r.read("card.distance_unit", c, default="m" if speed_unit == "km/h" else "ft")
+    banks = _read_degrees(r, c, "card.bank_angles", MAX_BANKS, lambda b: 0 <= b <= MAX_BANK_DEG,
+                          f"a list of 1 to {MAX_BANKS} bank angles in degrees, each from 0 to {MAX_BANK_DEG:g}, "
+                          "e.g. [0, 15, 30, 45, 60]", "is not a bank angle a level turn can hold")
+    # the units' defaults follow rules; where a rule finds nothing, the declared default
+    speed_unit = r.read("card.speed_unit", c, default=units.display_unit(_first_stall_speed(data), units.SPEED_UNITS))
+    distance_unit = r.read("card.distance_unit", c, default=profile_keys.default_distance_unit(speed_unit))
     aircraft = data.get("aircraft") if isinstance(data.get("aircraft"), dict) else {}
     weight_unit = r.read("card.weight_unit", c,
-                         default=units.display_unit(aircraft.get("max_weight"), units.WEIGHT_UNITS) or "kg")
+                         default=units.display_unit(aircraft.get("max_weight"), units.WEIGHT_UNITS))
     buffer = r.read("card.buffer", c)
     altitude = r.read("card.pressure_altitude", c)
     temperature = r.read("card.temperature", c)
@@ -266,40 +246,47 @@ def _read_card(r, data):
                   plain=Msg("Temperature {temperature} °C is outside -70 to +60 °C: check the temperature of the "
                             "turn figures", temperature=Num(f"{temperature - 273.15:.0f}")))
     notes = r.read("card.notes", c)
-    headings = _read_headings(r, c)
+    headings = _read_degrees(r, c, "card.turn_back_degrees", 6, lambda h: 0 < h <= 360,
+                             "a list of 1 to 6 heading changes in degrees, each above 0 and at most 360, "
+                             "e.g. [180, 270]", "is not a heading change")
     reaction = r.read("card.reaction_time", c)
-    language = r.read("card.language", c, default="en")
+    language = r.read("card.language", c)
     return CardSettings(
         bank_angles_deg=banks,
         speed_unit=speed_unit,
         distance_unit=distance_unit,
         weight_unit=weight_unit,
-        buffer=buffer or 0.0,
-        pressure_altitude=altitude or 0.0,
+        buffer=buffer,
+        pressure_altitude=altitude,
         temperature=temperature,
         notes=notes,
         turn_back_deg=headings,
-        reaction_time=DEFAULT_REACTION_TIME if reaction is None else reaction,
+        reaction_time=reaction,
         language=language,
     )
 
 
-def _read_headings(r, c):
-    """The heading changes of a turn back [deg]: 1 to 6 numbers, each above 0 and at most 360."""
-    if "turn_back_degrees" not in c:
-        return DEFAULT_TURN_BACK_DEG
-    raw = c["turn_back_degrees"]
-    wanted = "a list of 1 to 6 heading changes in degrees, each above 0 and at most 360, e.g. [180, 270]"
-    if not isinstance(raw, list) or not 1 <= len(raw) <= 6:
-        r.problem("card.turn_back_degrees", "must be a list of numbers", wanted, raw)
-        return DEFAULT_TURN_BACK_DEG
-    headings = []
-    for i, h in enumerate(raw, start=1):
-        if isinstance(h, bool) or not isinstance(h, (int, float)) or not (finite(h) and 0 < h <= 360):
-            r.problem(f"card.turn_back_degrees[{i}]", "is not a heading change", wanted, h)
+def _read_degrees(r, c, name: str, most: int, accepted, wanted: str, refused: str) -> tuple[float, ...]:
+    """A list of 1 to `most` angles [deg] (bank angles, heading changes), each `accepted`, ascending, each once; the
+    declared default when the file gives none (or none that can be read). Naming each angle refused."""
+    default = profile_keys.default(name)
+    key = name.split(".")[1]
+    if key not in c:
+        return default
+    raw = c[key]
+    if not isinstance(raw, list) or not 1 <= len(raw) <= most:
+        r.problem(name, "must be a list of numbers", wanted, raw)
+        return default
+    angles = []
+    for i, a in enumerate(raw, start=1):
+        if isinstance(a, bool) or not isinstance(a, (int, float)) or not (finite(a) and accepted(a)):
+            r.problem(f"{name}[{i}]", refused, wanted, a)
             continue
-        headings.append(float(h))
-    return tuple(sorted(set(headings))) or DEFAULT_TURN_BACK_DEG
+        angles.append(float(a))
+    if name == "card.bank_angles" and len(set(angles)) != len(angles):
+        r.problem(name, "lists a bank twice; it is printed once", "each bank once", raw, WARNING,
+                  plain=Msg("A bank angle is listed twice; it is printed once"))
+    return tuple(sorted(set(angles))) or default
 
 
 def _first_stall_speed(data):
@@ -307,27 +294,6 @@ def _first_stall_speed(data):
     if isinstance(configurations, list) and configurations and isinstance(configurations[0], dict):
         return configurations[0].get("stall_speed")
     return None
-
-
-def _read_banks(r, c):
-    if "bank_angles" not in c:
-        return DEFAULT_BANKS_DEG
-    raw = c["bank_angles"]
-    wanted = (f"a list of 1 to {MAX_BANKS} bank angles in degrees, each from 0 to {MAX_BANK_DEG:g}, "
-              "e.g. [0, 15, 30, 45, 60]")
-    if not isinstance(raw, list) or not 1 <= len(raw) <= MAX_BANKS:
-        r.problem("card.bank_angles", "must be a list of numbers", wanted, raw)
-        return DEFAULT_BANKS_DEG
-    banks = []
-    for i, b in enumerate(raw, start=1):
-        if isinstance(b, bool) or not isinstance(b, (int, float)) or not (finite(b) and 0 <= b <= MAX_BANK_DEG):
-            r.problem(f"card.bank_angles[{i}]", "is not a bank angle a level turn can hold", wanted, b)
-            continue
-        banks.append(float(b))
-    if len(set(banks)) != len(banks):
-        r.problem("card.bank_angles", "lists a bank twice; it is printed once", "each bank once", raw, WARNING,
-                  plain=Msg("A bank angle is listed twice; it is printed once"))
-    return tuple(sorted(set(banks))) or DEFAULT_BANKS_DEG
 
 
 def _name_key(name: str) -> str:
