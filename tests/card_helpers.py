@@ -6,7 +6,8 @@ from pathlib import Path
 from conftest import SAMPLES
 
 from kneeboard.card import card_pdf
-from kneeboard.card.style import CardStyle, load_style
+from kneeboard.card.style import CardStyle
+from kneeboard.inputs.styles import load_style
 from kneeboard.pipeline import Overrides, make_card, prepare
 from kneeboard.profile_io import load_profile, read_source, source_from_text
 
