@@ -113,8 +113,7 @@ def _print_problems(problems: list[Problem], stream) -> None:
 
 
 def _styles(args, styles=None, cards=True, **overrides):
-    """The style of each profile by the one rule; `cards=False` for a command that makes no card (check, table),
-    which then loads no card code: the organization's fit is a card's question."""
+    """The style of each profile by the one rule; `cards=False`: a command that makes no card loads no card code."""
     from kneeboard.pipeline import Overrides, Styles
 
     if styles is not None:  # another run's overrides over the same style files
