@@ -16,14 +16,6 @@ from kneeboard.fileio import DEVICE_FAILURES, FileProblem, terminate_cleanly
 from kneeboard.problems import Problem, printable
 from kneeboard.texts import CAUTION
 
-# Sizes and options are plain names here; the modules behind each command load only when it runs,
-# so `kneeboard` opening the app does not first pay for the command line's card and table machinery.
-CARD_SIZES = ("a5", "half-letter", "5x8", "4x6")
-SHEET_SIZES = ("letter", "a4")
-SPEED_UNITS = ("kt", "mph", "km/h")
-DISTANCE_UNITS = ("ft", "m")
-LANGUAGES = ("en", "de", "fr", "es", "cs", "pl")  #: kneeboard.i18n.LANGUAGES, named here so help loads no catalogue
-
 EXIT_OK, EXIT_PROBLEMS, EXIT_BUG, EXIT_OUTPUT = 0, 2, 70, 74  #: 74: the output device failed (EX_IOERR)
 EXIT_PIPE = 141  #: the reader of the output went away (128 + SIGPIPE), as a shell tool's exit
 COMMANDS = ("check", "table", "card", "compare", "new", "samples")
@@ -41,6 +33,13 @@ USAGE = """kneeboard [PROFILE_OR_FOLDER]      open the app (on the last fleet, o
 
 
 def _parser() -> argparse.ArgumentParser:
+    # the choices that mirror a style key are that key's declared options (the declarations load neither the units
+    # library nor the card code); made only when a command runs, so `kneeboard` opening the app does not pay for them
+    from kneeboard.card.geometry import SHEET_SIZES
+    from kneeboard.inputs.style_keys import BY_KEY
+
+    sizes, languages = BY_KEY["size"].options, BY_KEY["language"].options
+    speed_units, distance_units = BY_KEY["speed_unit"].options, BY_KEY["distance_unit"].options
     caution = textwrap.fill(CAUTION, 79)
     p = argparse.ArgumentParser(
         prog="kneeboard",
@@ -68,27 +67,27 @@ def _parser() -> argparse.ArgumentParser:
     table.add_argument("profile", metavar="PROFILE")
     table.add_argument("--weight", metavar="QTY", help='weight to compute for, e.g. "690 kg" or "1500 lb"')
     table.add_argument("--bank", metavar="LIST", help="bank angles in degrees, e.g. 0,20,40")
-    table.add_argument("--speed-unit", choices=SPEED_UNITS)
-    table.add_argument("--distance-unit", choices=DISTANCE_UNITS)
+    table.add_argument("--speed-unit", choices=speed_units)
+    table.add_argument("--distance-unit", choices=distance_units)
     table.add_argument("--format", choices=("text", "csv", "json"), default="text")
-    table.add_argument("--language", choices=LANGUAGES, help=language_help)
+    table.add_argument("--language", choices=languages, help=language_help)
     table.add_argument("--style", metavar="STYLE.toml", help=style_help)
     card = command("card", "make cockpit cards as PDF (one aircraft or a whole folder)")
     card.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
     card.add_argument("-o", "--output", metavar="OUT.pdf", help="one PDF with every card")
     card.add_argument("--each", metavar="DIR", help="one PDF per aircraft in DIR, named by registration")
-    card.add_argument("--size", choices=tuple(CARD_SIZES), help="card size (default: the style's, a5)")
+    card.add_argument("--size", choices=sizes, help=f"card size (default: the style's, {BY_KEY['size'].default})")
     card.add_argument("--landscape", action="store_true", help="turn the card sideways")
     card.add_argument("--style", metavar="STYLE.toml", help=style_help)
     card.add_argument("--weight", metavar="QTY", help='weight for every card, e.g. "690 kg"')
     card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help="impose several cards on Letter or A4 sheets")
     card.add_argument("--png", metavar="DPI", type=int, help="also write each card page as PNG at DPI")
-    card.add_argument("--language", choices=LANGUAGES, help=language_help)
+    card.add_argument("--language", choices=languages, help=language_help)
     compare = command("compare", "compare a printed card with what its profile prints now (exit 1 when it changed)")
     compare.add_argument("card", metavar="CARD.pdf_OR_FOLDER", help="a card PDF, or a folder of them")
     compare.add_argument("profile", metavar="PROFILE_OR_FOLDER", help="its profile, or the fleet folder")
     compare.add_argument("--style", metavar="STYLE.toml", help=style_help)
-    compare.add_argument("--language", choices=LANGUAGES, help=language_help)
+    compare.add_argument("--language", choices=languages, help=language_help)
     compare.add_argument("--weight", metavar="QTY", help="compare at this weight, not at the weight the card was "
                          'made for, e.g. "690 kg"')
     starter.add_commands(command)
@@ -113,12 +112,13 @@ def _print_problems(problems: list[Problem], stream) -> None:
         print(p, file=stream)  # Problem's text escapes what a file holds (newlines, escape sequences)
 
 
-def _styles(args, styles=None, **overrides):
+def _styles(args, styles=None, cards=True, **overrides):
+    """The style of each profile by the one rule; `cards=False`: a command that makes no card loads no card code."""
     from kneeboard.pipeline import Overrides, Styles
 
     if styles is not None:  # another run's overrides over the same style files
-        return Styles(styles.explicit, Overrides(**overrides))
-    return Styles(Path(args.style) if getattr(args, "style", None) else None, Overrides(**overrides))
+        return Styles(styles.explicit, Overrides(**overrides), cards)
+    return Styles(Path(args.style) if getattr(args, "style", None) else None, Overrides(**overrides), cards)
 
 
 def _print_style_problems(styles, paths) -> None:
@@ -140,7 +140,7 @@ def cmd_check(args) -> int:
         return EXIT_PROBLEMS
     from kneeboard import registrations
 
-    styles = _styles(args)
+    styles = _styles(args, cards=False)
     _print_style_problems(styles, files)
     failed = 0
     registered = []  # (registration as written, file): each file read once, for its check and for this
@@ -166,8 +166,8 @@ def cmd_check(args) -> int:
 def cmd_table(args) -> int:
     from kneeboard.pipeline import prepare_file, report_text
 
-    styles = _styles(args, weight=args.weight, bank_angles=_parse_banks(args.bank), speed_unit=args.speed_unit,
-                     distance_unit=args.distance_unit, language=args.language)
+    styles = _styles(args, cards=False, weight=args.weight, bank_angles=_parse_banks(args.bank),
+                     speed_unit=args.speed_unit, distance_unit=args.distance_unit, language=args.language)
     path = Path(args.profile)
     _print_style_problems(styles, [path])
     prepared = prepare_file(path, styles)

@@ -6,6 +6,8 @@ provides it, so the answer is one `apt install` line. Nothing here imports Qt.
 """
 
 import os
+import re
+import socket
 import sys
 from pathlib import Path
 
@@ -75,3 +77,40 @@ def window_problem(environ=None, platform: str | None = None, folders=None) -> s
                 f"  sudo apt install {' '.join(missing)}\n"
                 f"Meanwhile {HEADLESS}.")
     return None
+
+
+def display_reachable(environ=None, platform: str | None = None) -> bool:
+    """Does a display server answer where DISPLAY or WAYLAND_DISPLAY points? (Linux; elsewhere always True.)
+
+    A DISPLAY naming a server that is not there (`:99` with nothing listening, a stale SSH forwarding) makes Qt
+    abort the process; headless work (a card's logo, a PNG of a page) then draws offscreen instead. The server's
+    socket is only connected to and closed: nothing is sent.
+    """
+    environ = os.environ if environ is None else environ
+    platform = sys.platform if platform is None else platform
+    if not platform.startswith("linux"):
+        return True
+    wayland = environ.get("WAYLAND_DISPLAY")
+    if wayland:
+        folder = environ.get("XDG_RUNTIME_DIR", "")
+        path = wayland if os.path.isabs(wayland) else os.path.join(folder, wayland) if folder else ""
+        if path and _answers(socket.AF_UNIX, path):
+            return True
+    match = re.fullmatch(r"(?:unix)?([^:/]*):(\d+)(?:\.\d+)?", environ.get("DISPLAY", ""))
+    if match is None:
+        return False
+    host, number = match.group(1), int(match.group(2))
+    if host in ("", "unix"):
+        path = f"/tmp/.X11-unix/X{number}"
+        return _answers(socket.AF_UNIX, "\0" + path) or _answers(socket.AF_UNIX, path)
+    return _answers(socket.AF_INET, (host, 6000 + number))
+
+
+def _answers(family, address) -> bool:
+    try:
+        with socket.socket(family, socket.SOCK_STREAM) as s:
+            s.settimeout(1.0)
+            s.connect(address)
+        return True
+    except (OSError, ValueError):
+        return False

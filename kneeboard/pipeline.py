@@ -26,13 +26,14 @@ from datetime import date
 from pathlib import Path
 
 from kneeboard import report
-from kneeboard.card.style import CardStyle, fleet_style_path, load_style, organization_problems
+from kneeboard.card.style import CardStyle
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
 from kneeboard.i18n import Msg
 from kneeboard.inputs import profile_keys
 from kneeboard.inputs.profiles import Source, figure_data, fingerprint, read_source, source_from_text
 from kneeboard.inputs.schema import profile_from_data
+from kneeboard.inputs.styles import fleet_style_path, load_style
 from kneeboard.problems import WARNING, Problem
 from kneeboard.profile import Profile
 from kneeboard.tables import CardTable, build
@@ -67,11 +68,17 @@ NONE = Overrides()
 
 
 class Styles:
-    """The card style of each profile by the one rule, each style file read once per run."""
+    """The card style of each profile by the one rule, each style file read once per run.
 
-    def __init__(self, explicit: Path | None = None, overrides: Overrides = NONE):
+    For cards (`cards`, the default) a style whose organization does not fit its card is refused, named at
+    `organization` (`card.organization`, which measures with the card's fonts); `check` and `table` make no card and
+    read styles without the card code (no fonts, no reportlab, no Qt).
+    """
+
+    def __init__(self, explicit: Path | None = None, overrides: Overrides = NONE, cards: bool = True):
         self.explicit = Path(explicit) if explicit is not None else None
         self.overrides = overrides
+        self.cards = cards
         self._loaded: dict[Path | None, tuple[CardStyle | None, tuple[Problem, ...]]] = {}
 
     def path_for(self, profile_path: Path | None) -> Path | None:
@@ -85,11 +92,13 @@ class Styles:
         key = self.path_for(profile_path)
         if key not in self._loaded:
             style, problems = load_style(key)
-            if style is not None and (self.overrides.size is not None or self.overrides.landscape is not None):
+            if style is not None:
                 style = self.overrides.styled(style)
-                too_wide = organization_problems(style)  # the organization must fit the card this run makes
-                problems = list(problems) + [p.in_file(str(key or "")) for p in too_wide]
-                style = None if too_wide else style
+            if self.cards:
+                from kneeboard.card.organization import fitted
+
+                # the organization must fit the card this run makes (its size and orientation included)
+                style, problems = fitted(style, problems, str(style.source if style is not None else key or ""))
             self._loaded[key] = (style, tuple(problems))
         return self._loaded[key]
 
@@ -206,11 +215,22 @@ def make_card(prepared: Prepared, made_on: str | None = None):
     if prepared.table is None:
         raise ValueError("a profile with errors has no card")
     _refuse_empty_card(prepared)
-    # the logo was decoded and checked when the style was read: drawing never meets a broken one
     layout = layout_card(prepared.table, prepared.style, prepared.fingerprint, made_on or today(),
-                         prepared.style.logo_png)
+                         card_logo(prepared.style))
     return Card(prepared.table.registration, prepared.table, layout, prepared.fingerprint, made_on or today(),
                 prepared.weight_given)
+
+
+def card_logo(style: CardStyle) -> bytes | None:
+    """The logo a card of `style` prints, drawn from the bytes checked when the style was read (Qt for an SVG, once
+    per logo); LayoutError naming `logo` when it cannot be drawn after all."""
+    from kneeboard.card import LayoutError
+    from kneeboard.card.logo import LogoProblem, drawn_logo
+
+    try:
+        return drawn_logo(style)
+    except LogoProblem as exc:
+        raise LayoutError("logo", f"The card style's logo {exc}; the card is not made without it.") from None
 
 
 def _refuse_empty_card(prepared: Prepared) -> None:

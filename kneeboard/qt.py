@@ -19,7 +19,12 @@ def ensure_gui_app():
         if threading.current_thread() is not threading.main_thread():
             # Qt's application object belongs to the main thread; one made elsewhere corrupts Qt's event loop later
             raise RuntimeError("the Qt application must be started on the main thread before rendering elsewhere")
-        if not os.environ.get("DISPLAY") and not os.environ.get("WAYLAND_DISPLAY"):
-            os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+        if not os.environ.get("QT_QPA_PLATFORM"):
+            from kneeboard.display import display_reachable, window_problem
+
+            # headless work needs no screen: without a display Qt can use (none set, none answering where DISPLAY
+            # points, or the xcb libraries missing) Qt would abort the process, so it draws offscreen instead
+            if not display_reachable() or window_problem() is not None:
+                os.environ["QT_QPA_PLATFORM"] = "offscreen"
         app = QApplication(["kneeboard"])
     return app

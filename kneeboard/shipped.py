@@ -62,7 +62,7 @@ def sample_files() -> list[Path]:
     return sorted(p for p in samples_folder().iterdir() if p.suffix == ".toml")
 
 
-#: the style a fleet folder's cards use (card.style.FLEET_STYLE, which loads the units library; a test holds them equal)
+#: the style a fleet folder's cards use, defined here alone (kneeboard.inputs.styles reads it under this name)
 FLEET_STYLE = "fleet.style.toml"
 
 

@@ -14,6 +14,9 @@ from functools import lru_cache
 
 import pint
 
+#: Display units a card may use, as written in profiles and styles (named in `unit_names`, which loads no pint).
+from kneeboard.unit_names import DISTANCE_UNITS, SPEED_UNITS, WEIGHT_UNITS  # noqa: F401
+
 
 def _registry() -> pint.UnitRegistry:
     """The registry, from pint's own cache of its parsed definitions when it can keep one.
@@ -51,10 +54,6 @@ DENSITY = Kind("density", "[mass] / [length] ** 3", "kg/m**3", '"0.72 kg/L"')
 TEMPERATURE = Kind("temperature", "[temperature]", "K", '"15 degC", "59 degF" or "288 K"')
 TIME = Kind("time", "[time]", "s", '"4 s"')
 
-#: Display units a card may use, as written in profiles and styles.
-SPEED_UNITS = ("kt", "mph", "km/h")
-DISTANCE_UNITS = ("ft", "m")
-WEIGHT_UNITS = ("kg", "lb")
 
 MAX_TEXT = 64
 # ASCII digits only: other scripts' digits (Bengali 4 looks like 8) would read as a number a person does not see.

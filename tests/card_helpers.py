@@ -6,8 +6,9 @@ from pathlib import Path
 from conftest import SAMPLES
 
 from kneeboard.card import card_pdf
-from kneeboard.card.style import CardStyle, load_style
+from kneeboard.card.style import CardStyle
 from kneeboard.inputs.profiles import read_source, source_from_text
+from kneeboard.inputs.styles import load_style
 from kneeboard.pipeline import Overrides, make_card, prepare
 
 MADE_ON = "2026-12-01"

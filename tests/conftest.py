@@ -27,7 +27,7 @@ stall_speed = "50 kt"
 
 def checked(text: str, path=None):
     """A profile text through the whole pipeline (the checks `kneeboard check` makes), with the default style."""
-    from kneeboard.card.style import load_style
+    from kneeboard.inputs.styles import load_style
     from kneeboard.pipeline import prepare_text
 
     style, _ = load_style()

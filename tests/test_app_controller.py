@@ -339,7 +339,7 @@ def test_a_style_that_cannot_be_saved_is_said_and_nothing_changes(qtbot, control
 
     assert controller.outputs.save_style(cannot, style_edit.target) is False and not restyled
     assert person.problems[-1][0] == "The style was not saved" and "Your entries are kept" in person.problems[-1][1]
-    from kneeboard.card.style import load_style
+    from kneeboard.inputs.styles import load_style
 
     assert controller.outputs.save_style(lambda path: load_style(None), style_edit.target) is True and restyled
 

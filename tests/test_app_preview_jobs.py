@@ -11,7 +11,7 @@ from PySide6.QtCore import QTimer
 
 from kneeboard.app.preview_jobs import Renders
 from kneeboard.card import LayoutError, card_pdf
-from kneeboard.card.style import load_style
+from kneeboard.inputs.styles import load_style
 
 WAIT_MS = 10_000
 

@@ -194,7 +194,7 @@ def test_a_cap_on_faces_names_what_is_left_out_and_what_would_fit():
 
 
 def test_the_style_key_max_faces_is_read_and_checked(tmp_path):
-    from kneeboard.card.style import load_style
+    from kneeboard.inputs.styles import load_style
 
     (tmp_path / "ok.style.toml").write_text("max_faces = 4\n")
     style, problems = load_style(tmp_path / "ok.style.toml")

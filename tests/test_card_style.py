@@ -6,7 +6,7 @@ import pytest
 from card_helpers import card_of
 
 from kneeboard.card.ops import Image, Text
-from kneeboard.card.style import load_style
+from kneeboard.inputs.styles import load_style
 from kneeboard.shipped import default_style_path
 
 # a 2 x 1 pixel PNG (invented test image; every chunk's checksum right, as logos are now checked)
@@ -34,7 +34,7 @@ def write(tmp_path, text, name="style.toml"):
     ("font_scale = 5", "font_scale"),
     ('front = ["header", "weather"]', "front"),
     ('orientation = "sideways"', "orientation"),
-    ("bank_angles = [0, 95]", "bank_angles"),
+    ("bank_angles = [0, 95]", "bank_angles[2]"),  # the profile's bank rule: the entry is named
     ('speed_unit = "furlong/fortnight"', "speed_unit"),
     ("style = 9", "style"),
 ])

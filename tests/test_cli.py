@@ -122,13 +122,17 @@ def test_console_script_has_no_traceback(tmp_path):
     assert "UTF-8" in proc.stdout
 
 
-def test_command_line_names_match_the_modules_behind_them():
-    # the command line keeps its option lists as plain names so that it can start without the card modules
+def test_the_command_lines_choices_are_the_style_keys_options():
+    # the options that mirror a style key come from its declaration, never from a copy
     from kneeboard import cli, units
-    from kneeboard.card.geometry import CARD_SIZES, SHEET_SIZES
+    from kneeboard.inputs.style_keys import BY_KEY
 
-    assert tuple(CARD_SIZES) == cli.CARD_SIZES and tuple(SHEET_SIZES) == cli.SHEET_SIZES
-    assert cli.SPEED_UNITS == units.SPEED_UNITS and cli.DISTANCE_UNITS == units.DISTANCE_UNITS
+    actions = {(name, a.dest): a for name, sub in cli._parser()._subparsers._group_actions[0].choices.items()
+               for a in sub._actions}
+    assert tuple(actions["card", "size"].choices) == BY_KEY["size"].options
+    for command in ("table", "card", "compare"):
+        assert tuple(actions[command, "language"].choices) == BY_KEY["language"].options
+    assert tuple(actions["table", "speed_unit"].choices) == BY_KEY["speed_unit"].options == units.SPEED_UNITS
 
 
 def test_each_commands_usage_names_the_command_and_the_main_usage_names_every_command(capsys):

@@ -67,11 +67,6 @@ def test_fingerprint_follows_data_not_comments(sample_paths, tmp_path):
 
 # --- the one door for TOML ----------------------------------------------------------------------------------------
 
-#: Modules still importing tomlkit themselves until they move onto kneeboard.inputs.toml (another branch moves them;
-#: this list is emptied when it is merged).
-NOT_MOVED_YET = {"kneeboard/app/style_dialog.py"}
-
-
 def test_only_the_inputs_toml_module_imports_the_toml_libraries():
     import ast
     from pathlib import Path
@@ -86,7 +81,7 @@ def test_only_the_inputs_toml_module_imports_the_toml_libraries():
                 [node.module or ""] if isinstance(node, ast.ImportFrom) and not node.level else []
             if any(name.split(".")[0] in ("tomllib", "tomlkit") for name in names):
                 found.add(module.relative_to(package.parent).as_posix())
-    assert found - NOT_MOVED_YET == {"kneeboard/inputs/toml.py"}
+    assert found == {"kneeboard/inputs/toml.py"}
 
 
 def test_a_document_is_guarded_as_the_plain_reading_is():

@@ -16,11 +16,11 @@ from kneeboard.card import blocks
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import Draw, figure
 from kneeboard.card.ops import LABEL
-from kneeboard.card.style import load_style
 from kneeboard.cli import main
 from kneeboard.compare import compare
 from kneeboard.inputs import profile_keys
 from kneeboard.inputs.schema import KNOWN_KEYS
+from kneeboard.inputs.styles import load_style
 
 STYLE = 'speed_unit = "km/h"\nbank_angles = [0, 20, 40]\norganization = "Demo Flying Club"\n'
 

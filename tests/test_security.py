@@ -30,7 +30,7 @@ def test_unit_strings_are_only_quantities(text):
 
 @pytest.mark.parametrize("logo", ["../../etc/passwd", "/etc/passwd", "../outside.png", "sub/../../outside.png"])
 def test_style_paths_stay_in_the_style_folder(tmp_path, logo):
-    from kneeboard.card.style import load_style
+    from kneeboard.inputs.styles import load_style
 
     (tmp_path / "outside.png").write_bytes(b"\x89PNG")
     folder = tmp_path / "styles"

@@ -90,7 +90,7 @@ def test_samples_copies_the_fleet_and_its_style_which_make_cards(capsys, tmp_pat
 
 def test_the_copies_style_is_the_one_a_fleet_folder_uses_and_the_app_copies_it_too(tmp_path):
     from kneeboard import shipped
-    from kneeboard.card.style import FLEET_STYLE
+    from kneeboard.inputs.styles import FLEET_STYLE
 
     assert shipped.FLEET_STYLE == FLEET_STYLE
     folder = shipped.copy_samples(tmp_path / "app copy")  # the app's first start

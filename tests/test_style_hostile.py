@@ -13,10 +13,12 @@ import pytest
 from card_helpers import card_of, loaded
 from hang_guard import promptly
 
-from kneeboard.card.logo import LogoProblem, logo_png
+from kneeboard.card.logo import LogoProblem, drawn_logo, logo_png
 from kneeboard.card.ops import Image
-from kneeboard.card.style import CardStyle, load_style, organization_problems
+from kneeboard.card.organization import load_card_style, organization_problems
+from kneeboard.card.style import CardStyle
 from kneeboard.card.svgcheck import MAX_DRAWN
+from kneeboard.inputs.styles import load_style
 
 SVG_NS = 'xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink"'
 
@@ -38,10 +40,11 @@ def svg(body: str, canvas: str = 'width="40" height="20"') -> str:
 
 
 def load(folder, text, name="style.toml"):
-    """load_style on a style file of `text` in `folder`, promptly; returns (style, problems)."""
+    """A style file of `text` in `folder` read as a card uses it (the organization fitted), promptly; returns
+    (style, problems)."""
     path = folder / name
     path.write_text(text)
-    outcome = promptly(load_style, path)
+    outcome = promptly(load_card_style, path)
     assert "error" not in outcome, outcome  # never an exception, whatever the file holds
     return outcome["value"]
 
@@ -136,7 +139,7 @@ def test_every_organization_the_loader_accepts_fits_its_card(tmp_path, sample_pa
     # the longest name of short words the loader accepts for a card prints on every sample aircraft
     # (their registrations are no wider than the ten characters the room is measured beside)
     from kneeboard.card import fonts
-    from kneeboard.card.style import REGISTRATION_SAMPLE
+    from kneeboard.card.organization import REGISTRATION_SAMPLE
 
     (tmp_path / "logo.png").write_bytes(png(40, 20))
     # only the header is at stake here (a glider's circling table never fits a bound 4x6 card, organization or not)
@@ -236,8 +239,8 @@ def test_an_oversized_logo_file_is_refused_unread(tmp_path):
 def test_a_large_png_logo_is_kept_small(tmp_path):
     (tmp_path / "logo.png").write_bytes(png(3000, 1500))
     style, problems = load(tmp_path, 'logo = "logo.png"\n')
-    assert problems == [] and style.logo_png.startswith(b"\x89PNG")
-    width, height = struct.unpack(">II", style.logo_png[16:24])
+    assert problems == [] and drawn_logo(style).startswith(b"\x89PNG")
+    width, height = struct.unpack(">II", drawn_logo(style)[16:24])
     assert (width, height) == (1200, 600)
 
 
@@ -350,9 +353,9 @@ def test_good_svg_logos_load_and_print(tmp_path, body, canvas):
     (tmp_path / "logo.svg").write_text(svg(body, canvas))
     style, problems = load(tmp_path, 'logo = "logo.svg"\n')
     assert problems == [], problems
-    assert style.logo_png.startswith(b"\x89PNG")
+    assert drawn_logo(style).startswith(b"\x89PNG")
     card = card_of("demo_trainer", style)
-    assert [op.png for op in card.pages[0].ops if isinstance(op, Image)] == [style.logo_png]
+    assert [op.png for op in card.pages[0].ops if isinstance(op, Image)] == [drawn_logo(style)]
 
 
 def test_drawing_uses_the_logo_checked_at_load_time(tmp_path):
@@ -360,7 +363,7 @@ def test_drawing_uses_the_logo_checked_at_load_time(tmp_path):
     style, _ = load(tmp_path, 'logo = "logo.png"\n')
     (tmp_path / "logo.png").write_bytes(b"broken after the style was loaded")
     card = card_of("demo_trainer", style)
-    assert [op.png for op in card.pages[0].ops if isinstance(op, Image)] == [style.logo_png]
+    assert [op.png for op in card.pages[0].ops if isinstance(op, Image)] == [drawn_logo(style)]
 
 
 def test_logo_png_still_serves_callers_and_styles_compare_without_the_bytes(tmp_path):
@@ -370,4 +373,4 @@ def test_logo_png_still_serves_callers_and_styles_compare_without_the_bytes(tmp_
     with pytest.raises(LogoProblem, match="not a PNG"):
         logo_png(tmp_path / "bad.png")
     style, _ = load(tmp_path, 'logo = "logo.png"\n')
-    assert style.logo_png and style == CardStyle(logo=tmp_path.resolve() / "logo.png")
+    assert style.logo_bytes and style == CardStyle(logo=tmp_path.resolve() / "logo.png")

@@ -156,7 +156,7 @@ def test_each_template_shows_the_turn_back_fields_and_they_read_as_written(categ
     assert all(f"# {key} = " in text for key in keys)
     for key in keys:
         text = text.replace(f"# {key} = ", f"{key} = ")
-    from kneeboard.card.style import load_style
+    from kneeboard.inputs.styles import load_style
 
     style, _ = load_style()
     prepared = prepare_text(text, style)

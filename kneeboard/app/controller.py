@@ -404,7 +404,7 @@ class Controller(QObject):
         # the card is a function of the data (its fingerprint), the style, the sheet and the date: an edit that
         # changes none of them ("1182.0 kg" for "1182 kg") prints the very same card, so nothing is drawn
         style, mode = prepared.style, self.preview_mode
-        key = (prepared.fingerprint, style, hash(style.logo_png), mode, today())
+        key = (prepared.fingerprint, style, hash(style.logo_bytes), mode, today())
         if key == self._requested and not self._failed:
             return
         self._requested = key

@@ -280,7 +280,8 @@ class ProfileEditor(QScrollArea):
         """The lists past the profile's limits, checked before any widget is built for them: the editor built a
         tab for each of 10,000 configurations (minutes, gigabytes) where the command line refused the file at
         once. The Problems list then shows the command line's own refusal; Undo goes back."""
-        from kneeboard.inputs.schema import MAX_BANKS, MAX_CONFIGURATIONS, MAX_ITEMS
+        from kneeboard.inputs.banks import MAX_BANKS
+        from kneeboard.inputs.schema import MAX_CONFIGURATIONS, MAX_ITEMS
         from kneeboard.inputs.values import MAX_POLAR_POINTS
 
         limits = [((CONFIG,), MAX_CONFIGURATIONS), (("weight", "item"), MAX_ITEMS),

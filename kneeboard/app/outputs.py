@@ -257,7 +257,7 @@ class CardOutputs:
         if target is None:
             c.ui.show_problems("No fleet", "Open a folder of profiles first: its style is saved beside them.")
             return None
-        from kneeboard.card.style import load_style
+        from kneeboard.inputs.styles import load_style
 
         style, _problems = c.session.style_for(c.doc.path if c.doc is not None else None)
         if style is None:
@@ -287,14 +287,15 @@ class CardOutputs:
 
         def faces(values: dict) -> str:
             from kneeboard.card import LayoutError, layout_card
-            from kneeboard.card.style import style_from_data
-            from kneeboard.pipeline import today
+            from kneeboard.card.organization import fitted
+            from kneeboard.inputs.styles import style_from_data
+            from kneeboard.pipeline import card_logo, today
 
-            trial, problems = style_from_data({**values, "back": list(style.back), "logo": ""}, folder)
-            if any(p.is_error for p in problems):
+            trial, problems = fitted(*style_from_data({**values, "back": list(style.back), "logo": ""}, folder))
+            if trial is None or any(p.is_error for p in problems):
                 return "not known: " + "; ".join(str(p) for p in problems if p.is_error)
             try:
-                layout = layout_card(prepared.table, trial, prepared.fingerprint, today(), style.logo_png)
+                layout = layout_card(prepared.table, trial, prepared.fingerprint, today(), card_logo(style))
             except LayoutError as exc:
                 return f"cannot be made: {exc}"
             n, f = layout.cards, layout.faces
@@ -308,9 +309,9 @@ class CardOutputs:
         path = ui.ask_open_path("Card style", str(self.c.start_folder()), "Card styles (*.style.toml)")
         if path is None:
             return None
-        from kneeboard.card.style import load_style
+        from kneeboard.card.organization import load_card_style
 
-        style, problems = load_style(Path(path))
+        style, problems = load_card_style(Path(path))
         if style is None:
             ui.show_problems("The style has problems", "\n".join(str(p) for p in problems))
             return None

@@ -70,7 +70,7 @@ class Session:
 
     def fleet_style_file(self) -> Path | None:
         """Where the open folder's style is (or would be) saved."""
-        from kneeboard.card.style import FLEET_STYLE
+        from kneeboard.inputs.styles import FLEET_STYLE
 
         return self.folder / FLEET_STYLE if self.folder is not None else None
 

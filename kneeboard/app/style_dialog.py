@@ -1,9 +1,11 @@
-"""Editing a fleet's card style: the fields of a style file, saved beside the fleet's profiles."""
+"""Editing a fleet's card style: the fields of a style file, saved beside the fleet's profiles.
+
+Each input is made from its key's declaration (`kneeboard.inputs.style_keys`): its label, its help as a tooltip,
+its options and bounds, so the dialog offers exactly what the reader accepts.
+"""
 
 from pathlib import Path
 
-import tomlkit
-import tomlkit.exceptions
 from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor
 from PySide6.QtWidgets import (
@@ -23,14 +25,12 @@ from PySide6.QtWidgets import (
 )
 
 from kneeboard.card.blocks import registry
-from kneeboard.card.geometry import CARD_SIZES
-from kneeboard.card.style import BINDINGS, LEGACY_ORGANIZATION, CardStyle, load_style
-from kneeboard.fileio import FileProblem, read_text, write_atomic
+from kneeboard.card.organization import load_card_style
+from kneeboard.card.style import CardStyle
+from kneeboard.fileio import FileProblem
+from kneeboard.inputs.style_keys import BY_KEY, LEGACY_ORGANIZATION
+from kneeboard.inputs.toml import load_document, save_document
 from kneeboard.shipped import default_style_path
-
-#: What the card sizes are, as a person buying card stock reads them.
-SIZE_LABELS = {"a5": "A5 (148 x 210 mm)", "half-letter": "Half letter (5.5 x 8.5 in)", "5x8": "5 x 8 in",
-               "4x6": "4 x 6 in"}
 
 
 class StyleDialog(QDialog):
@@ -44,18 +44,20 @@ class StyleDialog(QDialog):
         self.style_in = style
         form = QFormLayout()
         self.organization = QLineEdit(style.organization)
+        self.organization.setMaxLength(BY_KEY["organization"].limit)
         self.logo = QLineEdit(style.logo.name if style.logo else "")
-        self.logo.setPlaceholderText("a PNG or SVG file in the fleet folder, e.g. logo.png")
+        self.logo.setPlaceholderText(BY_KEY["logo"].help.split(",")[0] + ", e.g. logo.png")
         self.accent = QPushButton(style.accent)
         self.accent.clicked.connect(self._pick_colour)
         self._show_colour(style.accent)
         self.scale = QDoubleSpinBox()
-        self.scale.setRange(0.7, 1.6)
-        self.scale.setSingleStep(0.05)
+        scale = BY_KEY["font_scale"]
+        self.scale.setRange(*scale.bounds)
+        self.scale.setSingleStep(scale.step)
         self.scale.setValue(style.font_scale)
-        self.size = _combo(tuple(CARD_SIZES), style.size, SIZE_LABELS)
-        self.orientation = _combo(("portrait", "landscape"), "landscape" if style.landscape else "portrait")
-        self.binding = _combo(BINDINGS, style.binding)
+        self.size = _combo("size", style.size)
+        self.orientation = _combo("orientation", "landscape" if style.landscape else "portrait")
+        self.binding = _combo("binding", style.binding)
         self.blocks = QListWidget()
         self.blocks.setDragDropMode(QAbstractItemView.DragDropMode.InternalMove)
         labels = registry.labels()  # every registered block has its label: a new block needs no entry here
@@ -68,14 +70,15 @@ class StyleDialog(QDialog):
             item.setCheckState(Qt.CheckState.Checked if name in front or name in style.back
                                else Qt.CheckState.Unchecked)
             self.blocks.addItem(item)
-        form.addRow("Organization", self.organization)
-        form.addRow("Logo", self.logo)
-        form.addRow("Accent colour", self.accent)
-        form.addRow("Type size", self.scale)
-        form.addRow("Card size", self.size)
-        form.addRow("Orientation", self.orientation)
-        form.addRow("Binding edge", self.binding)
-        form.addRow(QLabel("Blocks, in order (drag to reorder; the caution is always printed):"))
+        inputs = {"organization": self.organization, "logo": self.logo, "accent": self.accent,
+                  "font_scale": self.scale, "size": self.size, "orientation": self.orientation,
+                  "binding": self.binding}
+        for key, widget in inputs.items():
+            widget.setToolTip(BY_KEY[key].help)
+            form.addRow(BY_KEY[key].label, widget)
+        front_key = BY_KEY["front"]
+        form.addRow(QLabel(f"{front_key.label} (drag to reorder; the caution is always printed):"))
+        self.blocks.setToolTip(front_key.help)
         form.addRow(self.blocks)
         self.faces = QLabel()
         self.faces.setObjectName("faces")
@@ -125,23 +128,24 @@ class StyleDialog(QDialog):
     def save(self, path: Path):
         """Write the style to `path` and read it back; returns (style or None, problems)."""
         source = path if path.is_file() else (self.style_in.source or default_style_path())
-        text = read_text(source)
         try:
-            doc = tomlkit.parse(text)
-        except (tomlkit.exceptions.TOMLKitError, ValueError, RecursionError) as exc:
+            doc = load_document(source)
+        except FileProblem as exc:
             # its comments and other keys would be lost: a style file the person must mend is never replaced
-            raise FileProblem(f"{source}: is not valid TOML ({str(exc)[:120]}); it was left as it is") from None
+            raise FileProblem(f"{exc}; it was left as it is") from None
         for key, value in self.values().items():
             doc[key] = value
         doc.pop(LEGACY_ORGANIZATION, None)  # its value is in organization now: the file speaks one spelling
-        write_atomic(path, tomlkit.dumps(doc))
-        return load_style(path)
+        save_document(doc, path)
+        return load_card_style(path)
 
 
-def _combo(options, current, labels: dict[str, str] | None = None) -> QComboBox:
-    """A choice of `options` (each shown by its label); `currentData()` is the option as the file writes it."""
+def _combo(key: str, current) -> QComboBox:
+    """The choice of a style key's options (each shown by its label); `currentData()` is the option as the file
+    writes it."""
     combo = QComboBox()
-    for option in options:
-        combo.addItem((labels or {}).get(option, option), option)
+    declared = BY_KEY[key]
+    for option in declared.options:
+        combo.addItem(declared.shown(option), option)
     combo.setCurrentIndex(max(0, combo.findData(current)))
     return combo

@@ -28,9 +28,6 @@ from functools import cache, lru_cache
 from importlib import metadata, resources
 from pathlib import Path
 
-from reportlab.pdfbase import pdfmetrics
-from reportlab.pdfbase.ttfonts import TTFError, TTFont
-
 REGULAR, BOLD = "KbSans", "KbSans-Bold"
 FONT_PACKAGE = "fontpkg-fira-sans"  #: the distribution that ships the font files and their licence
 _MODULE = "fontpkg_fira_sans"
@@ -132,8 +129,10 @@ def _feature_glyph(font, tag: str, glyph: str | None) -> str | None:
 CACHED_FONT_LIMIT = 8 * 1024 * 1024  #: a built card font is about half a MiB; a larger cache file is not ours
 
 
-def _load(name: str) -> tuple[TTFont, bytes]:
+def _load(name: str) -> tuple["TTFont", bytes]:  # noqa: F821  (reportlab's, imported here: see `register`)
     """The reportlab font of `name` and its file's bytes: from the cache, else built (and cached if it can be)."""
+    from reportlab.pdfbase.ttfonts import TTFError, TTFont
+
     from kneeboard.fileio import FileProblem, read_bytes, write_atomic
 
     cached = cached_file(name)
@@ -168,7 +167,10 @@ _files: dict[str, bytes] = {}
 
 @cache
 def register() -> None:
-    """Register the fonts with reportlab once per process."""
+    """Register the fonts with reportlab once per process (reportlab loads here, at the first measure or drawing:
+    `missing`, which `kneeboard check` asks, reads the fonts' character maps without it)."""
+    from reportlab.pdfbase import pdfmetrics
+
     with _lock:
         for name in _SOURCES:
             font, _files[name] = _load(name)
@@ -179,7 +181,7 @@ def register() -> None:
 SUBSETS_KEPT = 32  #: font subsets remembered per font (a card's are 20 to 40 kB each, compressed a third of that)
 
 
-def _remember_subsets(font: TTFont) -> None:
+def _remember_subsets(font) -> None:
     """Make each font subset once per process, and compress it once.
 
     reportlab cuts the glyphs a PDF uses out of the font file again for every PDF, and compresses them again:
@@ -220,10 +222,12 @@ def font_bytes(name: str) -> bytes:
 
 @cache
 def _drawable() -> frozenset[int]:
-    """Code points both card fonts have a glyph for."""
-    register()
-    regular, bold = (pdfmetrics.getFont(name).face.charToGlyph for name in (REGULAR, BOLD))
-    return frozenset(c for c in regular if regular[c] and bold.get(c))
+    """Code points both card fonts have a glyph for, from their character maps (fontTools, without reportlab: a
+    check of a profile's text loads no PDF library). Building the fonts changes no character's coverage."""
+    from fontTools.ttLib import TTFont as FontFile
+
+    regular, bold = (FontFile(source_file(name), lazy=True).getBestCmap() for name in (REGULAR, BOLD))
+    return frozenset(c for c in regular if c in bold)
 
 
 @cache
@@ -288,12 +292,16 @@ def width(text: str, font: str, size: float) -> float:
 
 @lru_cache(maxsize=8192)
 def _unit_width(text: str, font: str) -> float:
+    from reportlab.pdfbase import pdfmetrics
+
     register()
     return pdfmetrics.stringWidth(printable(text), font, 1000.0) / 1000.0
 
 
 @cache
 def _cap_height() -> float:
+    from reportlab.pdfbase import pdfmetrics
+
     register()
     return pdfmetrics.getFont(REGULAR).face.capHeight / 1000
 

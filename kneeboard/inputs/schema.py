@@ -8,8 +8,8 @@ everything. Errors make the profile unusable; warnings are shown but do not stop
 from kneeboard import units
 from kneeboard.i18n import Msg, Num
 from kneeboard.inputs import profile_keys
+from kneeboard.inputs.banks import read_banks
 from kneeboard.inputs.profile_keys import (
-    MAX_BANK_DEG,
     OAT_RANGE,
     SINK_RANGE,
     SPEED_RANGE,
@@ -31,7 +31,6 @@ from kneeboard.profile import (
 
 SCHEMA_VERSION = 1
 MAX_CONFIGURATIONS = 12
-MAX_BANKS = 24
 MAX_ITEMS = 40
 
 #: Section -> the keys a file may have there, derived from the field declarations.
@@ -221,9 +220,8 @@ def _read_glider(r, data):
 def _read_card(r, data):
     c = r.table(data, "card", "card") or {}
     r.unknown(c, KNOWN_KEYS["card"], "card")
-    banks = _read_degrees(r, c, "card.bank_angles", MAX_BANKS, lambda b: 0 <= b <= MAX_BANK_DEG,
-                          f"a list of 1 to {MAX_BANKS} bank angles in degrees, each from 0 to {MAX_BANK_DEG:g}, "
-                          "e.g. [0, 15, 30, 45, 60]", "is not a bank angle a level turn can hold")
+    banks = ("bank_angles" in c and read_banks(c["bank_angles"], "card.bank_angles", r.problem)
+             or profile_keys.default("card.bank_angles"))
     # the units' defaults follow rules; where a rule finds nothing, the declared default
     speed_unit = r.read("card.speed_unit", c, default=units.display_unit(_first_stall_speed(data), units.SPEED_UNITS))
     distance_unit = r.read("card.distance_unit", c, default=profile_keys.default_distance_unit(speed_unit))
@@ -267,8 +265,8 @@ def _read_card(r, data):
 
 
 def _read_degrees(r, c, name: str, most: int, accepted, wanted: str, refused: str) -> tuple[float, ...]:
-    """A list of 1 to `most` angles [deg] (bank angles, heading changes), each `accepted`, ascending, each once; the
-    declared default when the file gives none (or none that can be read). Naming each angle refused."""
+    """A list of 1 to `most` angles [deg] (the turn back's heading changes), each `accepted`, ascending, each once;
+    the declared default when the file gives none (or none that can be read). Naming each angle refused."""
     default = profile_keys.default(name)
     key = name.split(".")[1]
     if key not in c:
@@ -283,9 +281,6 @@ def _read_degrees(r, c, name: str, most: int, accepted, wanted: str, refused: st
             r.problem(f"{name}[{i}]", refused, wanted, a)
             continue
         angles.append(float(a))
-    if name == "card.bank_angles" and len(set(angles)) != len(angles):
-        r.problem(name, "lists a bank twice; it is printed once", "each bank once", raw, WARNING,
-                  plain=Msg("A bank angle is listed twice; it is printed once"))
     return tuple(sorted(set(angles))) or default
 
 

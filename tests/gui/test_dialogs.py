@@ -256,3 +256,25 @@ def test_export_needs_somewhere_to_write(fleet_with_broken):
     _, paths, style = fleet_with_broken
     with pytest.raises(ValueError):
         export_fleet(None, paths, style, progress_factory=quiet)
+
+
+def test_the_style_dialogs_inputs_are_made_from_the_style_keys(qtbot):
+    from PySide6.QtWidgets import QFormLayout
+
+    from kneeboard.app.style_dialog import StyleDialog
+    from kneeboard.card.style import CardStyle
+    from kneeboard.inputs.style_keys import BY_KEY
+
+    dialog = StyleDialog(CardStyle(size="5x8", binding="top"))
+    qtbot.addWidget(dialog)
+    form = dialog.findChild(QFormLayout)
+    labels = [form.itemAt(row, QFormLayout.ItemRole.LabelRole).widget().text() for row in range(form.rowCount())
+              if form.itemAt(row, QFormLayout.ItemRole.LabelRole) is not None]
+    for key in ("organization", "logo", "accent", "font_scale", "size", "orientation", "binding"):
+        assert BY_KEY[key].label in labels
+    for key, combo in (("size", dialog.size), ("orientation", dialog.orientation), ("binding", dialog.binding)):
+        assert tuple(combo.itemData(i) for i in range(combo.count())) == BY_KEY[key].options
+        assert combo.toolTip() == BY_KEY[key].help
+    assert dialog.size.currentText() == BY_KEY["size"].shown("5x8") == "5 x 8 in"
+    assert (dialog.scale.minimum(), dialog.scale.maximum()) == BY_KEY["font_scale"].bounds
+    assert set(dialog.values()) <= set(BY_KEY)  # the dialog writes declared keys only

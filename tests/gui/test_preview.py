@@ -11,7 +11,7 @@ from PySide6.QtWidgets import QComboBox, QWidget
 
 from kneeboard.app.preview import ZOOM_STEPS, CardPreview
 from kneeboard.card import card_pdf, fleet_pdf
-from kneeboard.card.style import load_style
+from kneeboard.inputs.styles import load_style
 
 WAIT_MS = 10_000  #: generous: a loaded test machine must not fail a test, only slow it
 A5_POINTS = (419.53, 595.28)  # 148 x 210 mm, computed

@@ -14,7 +14,7 @@ from PySide6.QtWidgets import QWidget
 
 from kneeboard.app.preview import CardPreview
 from kneeboard.card import card_pdf
-from kneeboard.card.style import load_style
+from kneeboard.inputs.styles import load_style
 
 WAIT_MS = 10_000
 KEY_DELAY_MS = 15  #: a quick typist: renders start between keystrokes and are overtaken by the next ones

@@ -13,7 +13,7 @@ from PySide6.QtWidgets import QDialog
 
 from kneeboard.app.printing import print_pdf, print_with_dialog
 from kneeboard.card import card_pdf, fleet_pdf
-from kneeboard.card.style import load_style
+from kneeboard.inputs.styles import load_style
 
 MADE_ON = "2026-12-01"
 

@@ -10,6 +10,7 @@ Adding a block is adding one module (and importing it in `kneeboard/card/blocks/
 from collections.abc import Callable
 from dataclasses import dataclass
 
+from kneeboard.card import block_names
 from kneeboard.card.draw import Plan, Whole
 
 
@@ -52,12 +53,14 @@ def register(spec: BlockSpec) -> BlockSpec:
     if spec.plan is None and spec.draw is None:
         raise ValueError(f"the block {spec.name!r} has neither a plan nor a draw")
     _BLOCKS[spec.name] = spec
+    block_names.add(spec.name)  # a style may list it (the style reader knows the names without the blocks)
     return spec
 
 
 def unregister(name: str) -> None:
     """Remove a block (for tests that register a throwaway one)."""
     _BLOCKS.pop(name, None)
+    block_names.remove(name)
 
 
 def names() -> tuple[str, ...]:
