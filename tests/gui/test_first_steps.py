@@ -87,7 +87,7 @@ def test_an_export_is_confirmed_in_the_status_bar_naming_the_file(qtbot, window,
     deep.mkdir(parents=True)
     for action, name, what in ((window.act_export, "trainer card.pdf", "the card of DEMO-TRN"),
                                (window.act_export_csv, "trainer.csv", "the table of DEMO-TRN"),
-                               (window.act_export_fleet, "all.pdf", "5 card(s)")):
+                               (window.act_export_fleet, "all.pdf", "5 cards")):
         for folder in (tmp_path, deep):
             window.ask_save_path = lambda *_, f=folder, n=name: f / n
             action.trigger()

@@ -5,6 +5,7 @@ from kneeboard.card.blocks.grid import ColumnHeads, Grid, Heading, even_columns
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import Context, Draw, Measure, Piece, Plan, Section, weight_text
 from kneeboard.card.ops import SMALL
+from kneeboard.i18n import N_
 
 NAME = "circling"
 
@@ -43,5 +44,5 @@ class Circling(Plan):
         return d.block(NAME, -y)
 
 
-SPEC = BlockSpec(NAME, "Circling at minimum sink (gliders)", plan=Circling,
+SPEC = BlockSpec(NAME, N_("Circling at minimum sink (gliders)"), plan=Circling,
                  applies=lambda table: table.glider is not None)

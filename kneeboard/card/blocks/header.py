@@ -19,6 +19,7 @@ from kneeboard.card.draw import (
     weight_text,
 )
 from kneeboard.card.ops import HEADING, LABEL, SMALL, TITLE, Image
+from kneeboard.i18n import N_
 
 NAME = "header"
 
@@ -143,5 +144,5 @@ def back_header(ctx: Context, width: float, card: str = ""):
     return d.block("back-header", back_header_height(ctx))
 
 
-SPEC = BlockSpec(NAME, "Header: registration, model, weights, date, fingerprint", plan=Header,
+SPEC = BlockSpec(NAME, N_("Header: registration, model, weights, date, fingerprint"), plan=Header,
                  full_width=True)

@@ -12,7 +12,7 @@ from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Heading, NamedRo
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
-from kneeboard.i18n import Msg
+from kneeboard.i18n import N_, Msg
 from kneeboard.tables import LIMIT_MARK
 
 NAME = "limits"
@@ -87,4 +87,4 @@ class Limits(Plan):
         return d.block(NAME, -y)
 
 
-SPEC = BlockSpec(NAME, "Limits: load factor, VA, buffer and zero-margin banks", plan=Limits)
+SPEC = BlockSpec(NAME, N_("Limits: load factor, VA, buffer and zero-margin banks"), plan=Limits)

@@ -26,6 +26,7 @@ from kneeboard.card.draw import (
     weight_text,
 )
 from kneeboard.card.ops import LABEL, SMALL
+from kneeboard.i18n import N_
 
 NAME = "margin-table"
 
@@ -147,4 +148,4 @@ def _draw_legend(d: Draw, top: float, placed, height: float) -> float:
     return top - height
 
 
-SPEC = BlockSpec(NAME, "Margin table: stall speed and margin by bank", plan=MarginTable)
+SPEC = BlockSpec(NAME, N_("Margin table: stall speed and margin by bank"), plan=MarginTable)

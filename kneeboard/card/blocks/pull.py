@@ -59,4 +59,4 @@ class Pull(Plan):
         return d.block(NAME, -y)
 
 
-SPEC = BlockSpec(NAME, "Pull at the pattern speed: the load factor that stalls the wing", plan=Pull)
+SPEC = BlockSpec(NAME, N_("Pull at the pattern speed: the load factor that stalls the wing"), plan=Pull)

@@ -9,7 +9,7 @@ from kneeboard.card.blocks.grid import NOTE_LINES, ColumnHeads, Grid, Heading, e
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import INK, Context, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import CAUTION, LABEL, SMALL
-from kneeboard.i18n import Num
+from kneeboard.i18n import N_, Num
 from kneeboard.texts import CAUTION_TURN_BACK
 
 NAME = "turn-back"
@@ -65,5 +65,5 @@ class TurnBack(Plan):
         return d.block(NAME, -y)
 
 
-SPEC = BlockSpec(NAME, "Turn back after an engine (or launch) failure", plan=TurnBack,
+SPEC = BlockSpec(NAME, N_("Turn back after an engine (or launch) failure"), plan=TurnBack,
                  applies=lambda table: table.turn_back is not None and bool(table.turn_back.rows))
