@@ -6,8 +6,10 @@ compile them into the `.mo` files the package carries (`make catalogues`; Babel,
 
 The messages are every string the code marks: `tr("...")` and `tr.plural("...", "...", n)` where it is shown,
 `Msg("...")` where a message is made with its values, `N_("...")` where a constant is declared (`kneeboard.i18n`).
-The app's own windows (kneeboard/app/) are not extracted yet: their words are not marked. The `.po` files keep
-no source line numbers, so moving code changes no catalogue.
+The app's windows (kneeboard/app/) mark theirs the same way (`tr` from `kneeboard.app.words`). The profile's
+declared fields (`kneeboard.fields`: the editor's labels, placeholders, help and column names) are read from the
+declarations themselves, which are data rather than marked calls. The `.po` files keep no source line numbers, so
+moving code changes no catalogue.
 """
 
 import sys
@@ -32,7 +34,7 @@ HEADER = """\
 #"""
 
 KEYWORDS = {"tr": None, "Msg": None, "N_": None, "plural": (1, 2), "pgettext": ((1, "c"), 2)}
-METHODS = [("app/**.py", "ignore"), ("**.py", "python")]
+METHODS = [("**.py", "python")]
 
 
 def template() -> Catalog:
@@ -43,7 +45,22 @@ def template() -> Catalog:
     for _file, _line, message, comments, context in extract_from_dir(SOURCE, METHODS, keywords=KEYWORDS,
                                                                       strip_comment_tags=True):
         catalogue.add(message, None, auto_comments=comments, context=context)
+    for message in declared():
+        if message not in catalogue:
+            catalogue.add(message, None, auto_comments=["a profile field's label, placeholder or help (the editor)"])
     return catalogue
+
+
+def declared() -> list[str]:
+    """The words of the profile's declared fields the editor shows: label, placeholder, help, column names."""
+    try:
+        from kneeboard.inputs.fields import FIELDS
+    except ImportError:
+        from kneeboard.fields import FIELDS
+    words = []
+    for field in FIELDS:
+        words += [w for w in (field.label, field.placeholder, field.help, *field.columns) if w]
+    return list(dict.fromkeys(words))
 
 
 def po_path(language: str) -> Path:
