@@ -26,10 +26,10 @@ def compare(args) -> int:
     from kneeboard.pipeline import make_card, prepare_file
     from kneeboard.profile_io import expand_paths
 
-    say = translator(args.language) if args.language else translated()  # --language, else the locale's
+    tr = translator(args.language) if args.language else translated()  # --language, else the locale's
     card_path, profile_path = Path(args.card), Path(args.profile)
     folder = card_path.is_dir()
-    skipped = say("; skipped") if folder else ""
+    skipped = tr("; skipped") if folder else ""
     pdfs = sorted(card_path.glob("*.pdf")) if folder else [card_path]
     cards, unread = [], 0
     for pdf in pdfs:
@@ -46,7 +46,7 @@ def compare(args) -> int:
             unread += 1
             continue
         if not found and not folder:
-            print(printable("kneeboard compare: " + say(
+            print(printable("kneeboard compare: " + tr(
                 "{file}: not a kneeboard card (it carries no printed figures)", file=str(pdf))), file=sys.stderr)
             return EXIT_PROBLEMS
         cards += [(pdf, data) for data in found]
@@ -60,28 +60,28 @@ def compare(args) -> int:
             profiles.setdefault(registrations.key(prepared.table.registration), []).append(prepared)
         elif not profile_path.is_dir():
             _print_problems(list(prepared.errors), sys.stderr)
-            print(say("{file}: {n} error(s); nothing to compare with", file=printable(path), n=len(prepared.errors)),
+            print(tr("{file}: {n} error(s); nothing to compare with", file=printable(path), n=len(prepared.errors)),
                   file=sys.stderr)
             return EXIT_PROBLEMS
     changed, problems = 0, unread
     for pdf, data in cards:
         registration = str(data.get("registration", ""))
         found = profiles.get(registrations.key(registration), [])
-        where = printable(say("{file} ({registration}, printed {date})", file=str(pdf), registration=registration,
+        where = printable(tr("{file} ({registration}, printed {date})", file=str(pdf), registration=registration,
                               date=str(data.get("made_on", "?"))))
         if len(found) != 1:
             if found:  # a backup copy beside the profile: which one printed this card cannot be told
                 files = ", ".join(str(p.path) for p in found)
-                print(printable("kneeboard compare: " + say(
+                print(printable("kneeboard compare: " + tr(
                     "{where}: {registration} is the registration of {n} profiles: {files}; remove the copies or give "
                     "each its own registration", where=where, registration=registration, n=len(found), files=files)),
                     file=sys.stderr)
             else:
-                print(say("{where}: no profile of {registration} to compare with", where=where,
+                print(tr("{where}: no profile of {registration} to compare with", where=where,
                           registration=printable(registration)))
             problems += 1
             continue
-        prepared, weight = _at_weight(found[0], data, args, styles, say)
+        prepared, weight = _at_weight(found[0], data, args, styles, tr)
         if prepared.table is None:
             _print_problems(list(prepared.errors), sys.stderr)
             problems += 1
@@ -89,41 +89,41 @@ def compare(args) -> int:
         changes = compare_figures(figures_of(data), make_card(prepared).figures())
         if not changes:
             stamp = printable(str(data.get("fingerprint", "")))
-            why = (say("fingerprint {fingerprint}", fingerprint=stamp) if stamp == prepared.fingerprint else
-                   say("the profile changed, not a figure this card prints: fingerprint now {now}, the card's {card}",
+            why = (tr("fingerprint {fingerprint}", fingerprint=stamp) if stamp == prepared.fingerprint else
+                   tr("the profile changed, not a figure this card prints: fingerprint now {now}, the card's {card}",
                        now=prepared.fingerprint, card=stamp))
-            print(say("{where}: current{weight}: every printed figure reads the same ({why})", where=where,
+            print(tr("{where}: current{weight}: every printed figure reads the same ({why})", where=where,
                       weight=weight, why=why))
             continue
         changed += 1
         worse = sum(c.worse for c in changes)
-        verdict = say("{where}: OUT OF DATE{weight}: {n} printed figure(s) read differently", where=where,
+        verdict = tr("{where}: OUT OF DATE{weight}: {n} printed figure(s) read differently", where=where,
                       weight=weight, n=len(changes))
         if worse:
-            verdict += say(", {n} leaving less room", n=worse)
-        print(verdict + say("; print a new card"))
-        print(printable("  " + say("summary: {line}", line=summary(changes).line(say))))
+            verdict += tr(", {n} leaving less room", n=worse)
+        print(verdict + tr("; print a new card"))
+        print(printable("  " + tr("summary: {line}", line=summary(changes).line(tr))))
         for c in changes:
-            mark = say("! less room: ") if c.worse else ""
-            old, new = (say.number(x) if x else say("not printed") for x in (c.old, c.new))
-            print(printable(f"  {mark}{say.label(c.label)}: {old} -> {new}"))
+            mark = tr("! less room: ") if c.worse else ""
+            old, new = (tr.number(x) if x else tr("not printed") for x in (c.old, c.new))
+            print(printable(f"  {mark}{tr.label(c.label)}: {old} -> {new}"))
     if not cards:
-        print(printable("kneeboard compare: " + say("{file}: no kneeboard card found", file=str(card_path))),
+        print(printable("kneeboard compare: " + tr("{file}: no kneeboard card found", file=str(card_path))),
               file=sys.stderr)
         return EXIT_PROBLEMS
-    print(say(CAUTION))
+    print(tr(CAUTION))
     return EXIT_PROBLEMS if problems else EXIT_CHANGED if changed else EXIT_OK
 
 
-def _at_weight(prepared, data: dict, args, styles, say):
+def _at_weight(prepared, data: dict, args, styles, tr):
     """The profile as the card is compared with it: at `--weight` when given, else at the weight the card was made
-    for when one was given for it (`weight_given`), else at the profile's own; and the words that say which."""
+    for when one was given for it (`weight_given`), else at the profile's own; and the words that tr which."""
     from kneeboard.pipeline import prepare_file
 
     weight = args.weight or data.get("weight_given")
     if not isinstance(weight, str) or not weight:
         return prepared, ""
-    said = (say(" at {weight} (--weight)", weight=weight) if args.weight else
-            say(" at {weight}, the weight the card was made for", weight=weight))
+    said = (tr(" at {weight} (--weight)", weight=weight) if args.weight else
+            tr(" at {weight}, the weight the card was made for", weight=weight))
     return (_safely(prepare_file, prepared.path, _styles(args, weight=weight, language=args.language, styles=styles)),
             printable(said))

@@ -29,7 +29,7 @@ def test_ctrl_n_asks_the_category_offering_the_open_ones_and_opens_its_template(
     assert offered == ["utility"]  # offered first: the category of the trainer that was open
     assert window.doc.loaded.profile.aircraft.category == "glider"
     assert highlighted(window) == []  # the new profile is none of the fleet's aircraft
-    assert "glider profile" in window.statusBar().currentMessage()
+    assert "template “Glider”" in window.statusBar().currentMessage()
 
 
 def test_a_cancelled_question_leaves_the_open_profile(qtbot, window):
