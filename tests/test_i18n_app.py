@@ -109,3 +109,24 @@ def test_the_installed_entry_point_reads_the_locale(tmp_path):
                           cwd=tmp_path, check=False)
     assert done.returncode == 0, done.stderr
     assert done.stdout.startswith("utilisation : kneeboard") and "afficher cette aide et quitter" in done.stdout
+
+
+def test_the_window_free_controller_asks_and_tells_in_the_apps_language(controller):
+    from kneeboard.app import words
+
+    changed = []
+    controller.languageChanged.connect(changed.append)
+    controller.set_language("de")
+    assert changed == ["de"] and words.language() == "de"
+    asked = []
+    controller.ui.ask_open_path = lambda title, start, filters: asked.append((title, filters))
+    controller.open_asked()
+    assert asked == [("Profil öffnen", "Profile (*.toml)")]
+    said = []
+    controller.status.connect(lambda text, _ms: said.append(text))
+    controller.use_style_file(None)
+    assert said == ["Die Karten verwenden den Standardstil."]
+    with pytest.raises(ValueError, match="klingon"):
+        controller.set_language("klingon")
+    controller.set_language("")  # the system's: the tests' English
+    assert words.language() == "en"
