@@ -237,8 +237,8 @@ def cmd_card(args) -> int:
     if made.cards:
         pngs = [p for p in made.written if p.suffix == ".png"]
         if out is not None:
-            on = (tr("{cards} card(s) on {n} sheet(s)", cards=made.cards, n=made.pages) if args.sheet else
-                  tr("{cards} card(s) on {n} page(s)", cards=made.cards, n=made.pages))
+            on = (tr("{cards} card(s) on {n} sheets", cards=made.cards, n=made.pages) if args.sheet else
+                  tr("{cards} card(s) on {n} pages", cards=made.cards, n=made.pages))
             print(printable(tr("wrote {file}: {what}", file=str(out), what=on)))
         if each is not None:
             n = sum(1 for p in made.written if p.suffix == ".pdf" and p.parent == each)
