@@ -12,6 +12,7 @@ import textwrap
 from pathlib import Path
 
 from kneeboard import __version__, starter
+from kneeboard.cli_words import plural, start, tr
 from kneeboard.fileio import DEVICE_FAILURES, FileProblem, terminate_cleanly
 from kneeboard.problems import Problem, printable
 from kneeboard.texts import CAUTION
@@ -27,12 +28,15 @@ class UsageProblem(Exception):
     """A bad option value; the message names the option."""
 
 
-USAGE = """kneeboard [PROFILE_OR_FOLDER]      open the app (on the last fleet, or a copy of the sample fleet)
-       kneeboard COMMAND ...              check | table | card | compare, without a window
-       kneeboard new | samples ...        start: a profile from a template, or a copy of the samples"""
+def _usage() -> str:
+    return "\n       ".join((
+        "kneeboard [PROFILE_OR_FOLDER]      " + tr("open the app (on the last fleet, or a copy of the sample fleet)"),
+        "kneeboard COMMAND ...              " + tr("check | table | card | compare, without a window"),
+        "kneeboard new | samples ...        " + tr("start: a profile from a template, or a copy of the samples")))
 
 
 def _parser() -> argparse.ArgumentParser:
+    """The command line's options and help, in its language (`cli_words.start` chose it)."""
     # the choices that mirror a style key are that key's declared options (the declarations load neither the units
     # library nor the card code); made only when a command runs, so `kneeboard` opening the app does not pay for them
     from kneeboard.card.geometry import SHEET_SIZES
@@ -40,15 +44,17 @@ def _parser() -> argparse.ArgumentParser:
 
     sizes, languages = BY_KEY["size"].options, BY_KEY["language"].options
     speed_units, distance_units = BY_KEY["speed_unit"].options, BY_KEY["distance_unit"].options
-    caution = textwrap.fill(CAUTION, 79)
+    caution = textwrap.fill(tr(CAUTION), 79)
     p = argparse.ArgumentParser(
         prog="kneeboard",
-        usage=USAGE,
-        description="Cockpit cards of stall speed and margin by bank angle, from an aircraft's published figures.",
+        usage=_usage(),
+        description=tr("Cockpit cards of stall speed and margin by bank angle, from an aircraft's published "
+                       "figures."),
         epilog=caution,
         formatter_class=argparse.RawDescriptionHelpFormatter,
     )
-    p.add_argument("--version", action="version", version=f"kneeboard {__version__}\n{caution}")
+    p.add_argument("--version", action="version", version=f"kneeboard {__version__}\n{caution}",
+                   help=tr("show program's version number and exit"))
     sub = p.add_subparsers(dest="command", metavar="COMMAND")
 
     def command(name, help_text):
@@ -56,40 +62,42 @@ def _parser() -> argparse.ArgumentParser:
                               description=help_text[0].upper() + help_text[1:] + ".", epilog=caution,
                               formatter_class=argparse.RawDescriptionHelpFormatter)
 
-    style_help = "card style (default: the fleet.style.toml beside each profile, else the shipped default)"
-    language_help = ("the language of the card's words (default: the style's, else the profile's, else en); the "
-                     "figures are the same in every language")
-    check = command("check", "validate profiles and list every problem")
+    style_help = tr("card style (default: the fleet.style.toml beside each profile, else the shipped default)")
+    language_help = tr("the language of the card's words (default: the style's, else the profile's, else en); the "
+                       "figures are the same in every language")
+    check = command("check", tr("validate profiles and list every problem"))
     check.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
     check.add_argument("--style", metavar="STYLE.toml", help=style_help)
 
-    table = command("table", "print the computed table of one profile")
+    table = command("table", tr("print the computed table of one profile"))
     table.add_argument("profile", metavar="PROFILE")
-    table.add_argument("--weight", metavar="QTY", help='weight to compute for, e.g. "690 kg" or "1500 lb"')
-    table.add_argument("--bank", metavar="LIST", help="bank angles in degrees, e.g. 0,20,40")
+    table.add_argument("--weight", metavar="QTY", help=tr('weight to compute for, e.g. "690 kg" or "1500 lb"'))
+    table.add_argument("--bank", metavar="LIST", help=tr("bank angles in degrees, e.g. 0,20,40"))
     table.add_argument("--speed-unit", choices=speed_units)
     table.add_argument("--distance-unit", choices=distance_units)
     table.add_argument("--format", choices=("text", "csv", "json"), default="text")
     table.add_argument("--language", choices=languages, help=language_help)
     table.add_argument("--style", metavar="STYLE.toml", help=style_help)
-    card = command("card", "make cockpit cards as PDF (one aircraft or a whole folder)")
+    card = command("card", tr("make cockpit cards as PDF (one aircraft or a whole folder)"))
     card.add_argument("profiles", nargs="+", metavar="PROFILE_OR_FOLDER")
-    card.add_argument("-o", "--output", metavar="OUT.pdf", help="one PDF with every card")
-    card.add_argument("--each", metavar="DIR", help="one PDF per aircraft in DIR, named by registration")
-    card.add_argument("--size", choices=sizes, help=f"card size (default: the style's, {BY_KEY['size'].default})")
-    card.add_argument("--landscape", action="store_true", help="turn the card sideways")
+    card.add_argument("-o", "--output", metavar="OUT.pdf", help=tr("one PDF with every card"))
+    card.add_argument("--each", metavar="DIR", help=tr("one PDF per aircraft in DIR, named by registration"))
+    card.add_argument("--size", choices=sizes,
+                      help=tr("card size (default: the style's, {size})", size=BY_KEY["size"].default))
+    card.add_argument("--landscape", action="store_true", help=tr("turn the card sideways"))
     card.add_argument("--style", metavar="STYLE.toml", help=style_help)
-    card.add_argument("--weight", metavar="QTY", help='weight for every card, e.g. "690 kg"')
-    card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help="impose several cards on Letter or A4 sheets")
-    card.add_argument("--png", metavar="DPI", type=int, help="also write each card page as PNG at DPI")
+    card.add_argument("--weight", metavar="QTY", help=tr('weight for every card, e.g. "690 kg"'))
+    card.add_argument("--sheet", choices=tuple(SHEET_SIZES), help=tr("impose several cards on Letter or A4 sheets"))
+    card.add_argument("--png", metavar="DPI", type=int, help=tr("also write each card page as PNG at DPI"))
     card.add_argument("--language", choices=languages, help=language_help)
-    compare = command("compare", "compare a printed card with what its profile prints now (exit 1 when it changed)")
-    compare.add_argument("card", metavar="CARD.pdf_OR_FOLDER", help="a card PDF, or a folder of them")
-    compare.add_argument("profile", metavar="PROFILE_OR_FOLDER", help="its profile, or the fleet folder")
+    compare = command("compare", tr("compare a printed card with what its profile prints now (exit 1 when it "
+                                     "changed)"))
+    compare.add_argument("card", metavar="CARD.pdf_OR_FOLDER", help=tr("a card PDF, or a folder of them"))
+    compare.add_argument("profile", metavar="PROFILE_OR_FOLDER", help=tr("its profile, or the fleet folder"))
     compare.add_argument("--style", metavar="STYLE.toml", help=style_help)
     compare.add_argument("--language", choices=languages, help=language_help)
-    compare.add_argument("--weight", metavar="QTY", help="compare at this weight, not at the weight the card was "
-                         'made for, e.g. "690 kg"')
+    compare.add_argument("--weight", metavar="QTY", help=tr('compare at this weight, not at the weight the card '
+                                                            'was made for, e.g. "690 kg"'))
     starter.add_commands(command)
     return p
 
@@ -101,9 +109,9 @@ def _parse_banks(text: str | None):
     try:
         banks = [float(part) for part in text.split(",") if part.strip()]
     except ValueError:
-        raise UsageProblem(f"--bank {text!r}: not a list of numbers; expected e.g. 0,20,40") from None
+        raise UsageProblem(tr("--bank {text}: not a list of numbers; expected e.g. 0,20,40", text=repr(text))) from None
     if not banks:
-        raise UsageProblem(f"--bank {text!r}: no bank angle given; expected e.g. 0,20,40")
+        raise UsageProblem(tr("--bank {text}: no bank angle given; expected e.g. 0,20,40", text=repr(text)))
     return tuple(banks)
 
 
@@ -136,7 +144,7 @@ def cmd_check(args) -> int:
 
     files = expand_paths(args.profiles)
     if not files:
-        print("kneeboard check: no profile files (*.toml) found", file=sys.stderr)
+        print("kneeboard check: " + tr("no profile files (*.toml) found"), file=sys.stderr)
         return EXIT_PROBLEMS
     from kneeboard import registrations
 
@@ -150,16 +158,18 @@ def cmd_check(args) -> int:
         _print_problems(list(prepared.problems), sys.stdout)
         if prepared.table is None:
             failed += 1
-            print(f"{printable(path)}: {len(prepared.errors)} error(s); no card can be made")
+            print(tr("{file}: {n} error(s); no card can be made", file=printable(path), n=len(prepared.errors)))
             continue
         a = prepared.profile.aircraft
         names = ", ".join(_quoted(c.name) for c in prepared.profile.configurations)  # names may hold commas
-        warned = f", {len(prepared.warnings)} warning(s)" if prepared.warnings else ""
-        print(printable(f"{path}: ok{warned}: {a.registration} ({a.model}), {len(prepared.profile.configurations)} "
-                        f"configuration(s): {names}; fingerprint {prepared.fingerprint}"))
+        warned = tr(", {n} warning(s)", n=len(prepared.warnings)) if prepared.warnings else ""
+        print(printable(tr("{file}: ok{warned}: {registration} ({model}), {n} configuration(s): {names}; "
+                           "fingerprint {fingerprint}", file=str(path), warned=warned, registration=a.registration,
+                           model=a.model, n=len(prepared.profile.configurations), names=names,
+                           fingerprint=prepared.fingerprint)))
     duplicates = registrations.duplicates(registered)
     _print_problems(registrations.problems(duplicates), sys.stdout)  # every file of each duplicate, named
-    print(CAUTION)
+    print(tr(CAUTION))
     return EXIT_PROBLEMS if failed or duplicates else EXIT_OK
 
 
@@ -174,11 +184,14 @@ def cmd_table(args) -> int:
     machine = args.format != "text"
     _print_problems(list(prepared.problems), sys.stderr)
     if prepared.table is None:
-        print(f"{printable(args.profile)}: {len(prepared.errors)} error(s); no table can be made", file=sys.stderr)
+        print(tr("{file}: {n} error(s); no table can be made", file=printable(args.profile), n=len(prepared.errors)),
+              file=sys.stderr)
         return EXIT_PROBLEMS
     sys.stdout.write(report_text(prepared, args.format))
-    # the caution in the table's language; JSON is the machine interface, in English (its keys and its texts)
-    caution = CAUTION if args.format == "json" else _translated(CAUTION, prepared.table.language)
+    # the caution in the table's language when one was chosen (--language, the style, the profile), else in the
+    # locale's; JSON is the machine interface, in English (its keys and its texts)
+    language = prepared.table.language if args.language or prepared.table.language != "en" else None
+    caution = CAUTION if args.format == "json" else _translated(CAUTION, language)
     print(caution, file=sys.stderr if machine else sys.stdout)
     return EXIT_OK
 
@@ -188,20 +201,20 @@ def cmd_card(args) -> int:
     from kneeboard.inputs.profiles import expand_paths
 
     if not args.output and not args.each:
-        raise UsageProblem("say where to write: -o OUT.pdf, --each DIR, or both")
+        raise UsageProblem(tr("say where to write: -o OUT.pdf, --each DIR, or both"))
     if args.png is not None and not 36 <= args.png <= 1200:
-        raise UsageProblem(f"--png {args.png}: expected a resolution from 36 to 1200 dpi")
+        raise UsageProblem(tr("--png {dpi}: expected a resolution from 36 to 1200 dpi", dpi=args.png))
     styles = _styles(args, weight=args.weight, size=args.size, landscape=True if args.landscape else None,
                      language=args.language)
     paths = expand_paths(args.profiles)
     if not paths:
-        print("kneeboard card: no profile files (*.toml) found", file=sys.stderr)
+        print("kneeboard card: " + tr("no profile files (*.toml) found"), file=sys.stderr)
         return EXIT_PROBLEMS
     show = len(paths) > PROGRESS_ABOVE
 
     def progress(done, total, name):
         if show and name:
-            print(printable(f"card {done + 1} of {total}: {name}"), file=sys.stderr)
+            print(printable(tr("card {n} of {total}: {name}", n=done + 1, total=total, name=name)), file=sys.stderr)
         return True
 
     _print_style_problems(styles, paths)
@@ -219,33 +232,36 @@ def cmd_card(args) -> int:
     for failure in made.failures:
         for line in failure.lines:
             print(printable(line), file=sys.stderr)
-        print(f"{printable(failure.path)}: skipped", file=sys.stderr)
+        print(tr("{file}: skipped", file=printable(failure.path)), file=sys.stderr)
     for registration, cards, faces in made.made:
-        print(printable(f"{registration}: {cards} card{'s' if cards != 1 else ''} ({faces} "
-                        f"face{'s' if faces != 1 else ''})"))
+        print(printable(f"{registration}: " + tr("{cards} ({faces})", cards=plural("{n} card", "{n} cards", cards),
+                                                 faces=plural("{n} face", "{n} faces", faces))))
     if made.cards:
         pngs = [p for p in made.written if p.suffix == ".png"]
         if out is not None:
-            print(printable(f"wrote {out}: {made.cards} card(s) on {made.pages} {'sheets' if args.sheet else 'pages'}"))
+            on = (tr("{cards} card(s) on {n} sheets", cards=made.cards, n=made.pages) if args.sheet else
+                  tr("{cards} card(s) on {n} pages", cards=made.cards, n=made.pages))
+            print(printable(tr("wrote {file}: {what}", file=str(out), what=on)))
         if each is not None:
             n = sum(1 for p in made.written if p.suffix == ".pdf" and p.parent == each)
-            print(printable(f"wrote {n} PDF(s) in {each}"))
+            print(printable(tr("wrote {n} PDF(s) in {folder}", n=n, folder=str(each))))
         if pngs:
-            print(printable(f"wrote {len(pngs)} PNG page(s) at {args.png} dpi in {pngs[0].parent}"))
+            print(printable(tr("wrote {n} PNG page(s) at {dpi} dpi in {folder}", n=len(pngs), dpi=args.png,
+                               folder=str(pngs[0].parent))))
     else:
-        print("kneeboard card: no card could be made", file=sys.stderr)
+        print("kneeboard card: " + tr("no card could be made"), file=sys.stderr)
     if len(paths) > 1 or made.failures:
-        skipped = f"; {len(made.failures)} skipped (see above)" if made.failures else ""
-        print(f"{made.cards} of {len(paths)} cards made{skipped}")
+        skipped = tr("; {n} skipped (see above)", n=len(made.failures)) if made.failures else ""
+        print(tr("{made} of {total} cards made{skipped}", made=made.cards, total=len(paths), skipped=skipped))
     print(_translated(CAUTION, args.language))
     return EXIT_PROBLEMS if made.failures or made.clashes or not made.cards else EXIT_OK
 
 
 def _translated(text: str, language: str | None) -> str:
-    """`text` (a message marked for the catalogues) in `language`; English when none is asked for."""
+    """`text` (a message marked for the catalogues) in `language`; in the locale's when none is asked for."""
     from kneeboard.i18n import translator
 
-    return translator(language or "en")(text)
+    return translator(language)(text) if language else tr(text)
 
 
 def _quoted(name: str) -> str:
@@ -262,109 +278,16 @@ def _safely(source, styles):
     except Exception as exc:
         if os.environ.get("KNEEBOARD_DEBUG"):
             raise
-        problem = Problem("(file)", f"internal error on this profile, please report it: {type(exc).__name__}: {exc}",
-                          file=str(source.path))
+        problem = Problem("(file)", tr("internal error on this profile, please report it: {error}",
+                                       error=f"{type(exc).__name__}: {exc}"), file=str(source.path))
         return Prepared(source.path, "", None, None, None, None, (problem,))
 
 
 def cmd_compare(args) -> int:
-    """A printed card against its profile: every printed figure that reads differently, old and new."""
-    from kneeboard import registrations
-    from kneeboard.card.data import CardDataProblem, figures_of, read_card_data
-    from kneeboard.compare import compare_figures, summary
-    from kneeboard.fileio import read_bytes
-    from kneeboard.i18n import translator
-    from kneeboard.inputs.profiles import expand_paths, read_source
-    from kneeboard.pipeline import make_card
+    """A printed card against its profile (`kneeboard.cli_compare`)."""
+    from kneeboard.cli_compare import compare
 
-    card_path, profile_path = Path(args.card), Path(args.profile)
-    folder = card_path.is_dir()
-    pdfs = sorted(card_path.glob("*.pdf")) if folder else [card_path]
-    cards, unread = [], 0
-    for pdf in pdfs:
-        # each file its own verdict: one that cannot be read (a FIFO, a hostile PDF) is named and skipped, and the
-        # genuine cards of the folder are still compared
-        try:
-            found = read_card_data(read_bytes(pdf, 200 * 1024 * 1024))
-        except FileProblem as exc:
-            print(f"kneeboard compare: {printable(exc)}" + ("; skipped" if folder else ""), file=sys.stderr)
-            unread += 1
-            continue
-        except CardDataProblem as exc:
-            print(printable(f"kneeboard compare: {pdf}: {exc}") + ("; skipped" if folder else ""), file=sys.stderr)
-            unread += 1
-            continue
-        if not found and not folder:
-            print(printable(f"kneeboard compare: {pdf}: not a kneeboard card (it carries no printed figures)"),
-                  file=sys.stderr)
-            return EXIT_PROBLEMS
-        cards += [(pdf, data) for data in found]
-    if not folder and unread:
-        return EXIT_PROBLEMS
-    styles = _styles(args, language=args.language)
-    profiles: dict[str, list] = {}
-    for path in expand_paths([profile_path]):
-        source = read_source(path)  # read once: a card made for another weight is prepared from it again
-        prepared = _safely(source, styles)
-        if prepared.table is not None:
-            profiles.setdefault(registrations.key(prepared.table.registration), []).append((prepared, source))
-        elif not profile_path.is_dir():
-            _print_problems(list(prepared.errors), sys.stderr)
-            print(f"{printable(path)}: {len(prepared.errors)} error(s); nothing to compare with", file=sys.stderr)
-            return EXIT_PROBLEMS
-    changed, problems = 0, unread
-    for pdf, data in cards:
-        registration = str(data.get("registration", ""))
-        found = profiles.get(registrations.key(registration), [])
-        where = printable(f"{pdf} ({registration}, printed {data.get('made_on', '?')})")
-        if len(found) != 1:
-            if found:  # a backup copy beside the profile: which one printed this card cannot be told
-                files = ", ".join(str(p.path) for p, _ in found)
-                print(printable(f"kneeboard compare: {where}: {registration} is the registration of "
-                                f"{len(found)} profiles: {files}; remove the copies or give each its own "
-                                "registration"), file=sys.stderr)
-            else:
-                print(f"{where}: no profile of {printable(registration)} to compare with")
-            problems += 1
-            continue
-        prepared, weight = _at_weight(*found[0], data, args, styles)
-        if prepared.table is None:
-            _print_problems(list(prepared.errors), sys.stderr)
-            problems += 1
-            continue
-        changes = compare_figures(figures_of(data), make_card(prepared).figures())
-        tr = translator(prepared.table.language)  # the labels and figures as the card made now prints them
-        if not changes:
-            stamp = printable(str(data.get("fingerprint", "")))
-            why = (f"fingerprint {stamp}" if stamp == prepared.fingerprint else "the profile changed, not a figure "
-                   f"this card prints: fingerprint now {prepared.fingerprint}, the card's {stamp}")
-            print(f"{where}: current{weight}: every printed figure reads the same ({why})")
-            continue
-        changed += 1
-        worse = sum(c.worse for c in changes)
-        print(f"{where}: OUT OF DATE{weight}: {len(changes)} printed figure(s) read differently"
-              + (f", {worse} leaving less room" if worse else "") + "; print a new card")
-        print(printable(f"  summary: {summary(changes).line(tr)}"))
-        for c in changes:
-            mark = "! less room: " if c.worse else ""
-            old, new = (tr.number(x) if x else "not printed" for x in (c.old, c.new))
-            print(printable(f"  {mark}{tr.label(c.label)}: {old} -> {new}"))
-    if not cards:
-        print(printable(f"kneeboard compare: {card_path}: no kneeboard card found"), file=sys.stderr)
-        return EXIT_PROBLEMS
-    print(_translated(CAUTION, args.language))
-    return EXIT_PROBLEMS if problems else EXIT_CHANGED if changed else EXIT_OK
-
-
-def _at_weight(prepared, source, data: dict, args, styles):
-    """The profile as the card is compared with it: at `--weight` when given, else at the weight the card was made
-    for when one was given for it (`weight_given`), else at the profile's own; and the words that say which."""
-    weight = args.weight or data.get("weight_given")
-    if not isinstance(weight, str) or not weight:
-        return prepared, ""
-    said = f" at {weight} (--weight)" if args.weight else f" at {weight}, the weight the card was made for"
-    return (_safely(source, _styles(args, weight=weight, language=args.language, styles=styles)),
-            printable(said))
+    return compare(args)
 
 
 HANDLERS = {"check": cmd_check, "table": cmd_table, "card": cmd_card, "compare": cmd_compare, **starter.HANDLERS}
@@ -374,6 +297,7 @@ def main(argv: list[str] | None = None) -> int:
     argv = sys.argv[1:] if argv is None else argv
     terminate_cleanly()
     _guard_streams()
+    start()  # the locale's language for help and messages: one catalogue read, none for English
     if not argv or (argv[0] not in COMMANDS and not argv[0].startswith("-")):
         return _open_app(argv[0] if argv else None)
     parser = _parser()
@@ -387,14 +311,15 @@ def main(argv: list[str] | None = None) -> int:
         print(f"kneeboard {args.command}: {printable(exc)}", file=sys.stderr)
         return EXIT_PROBLEMS
     except KeyboardInterrupt:
-        print("kneeboard: interrupted", file=sys.stderr)
+        print("kneeboard: " + tr("interrupted"), file=sys.stderr)
         return 130
     except BrokenPipeError:
         return _closed_pipe()
     except OSError as exc:
         if exc.errno in DEVICE_FAILURES or exc.errno == errno.EBADF:  # stdout on a full, failed or closed device
             _quiet_stdout()
-            print(f"kneeboard: the output could not be written ({exc.strerror or exc})", file=sys.stderr)
+            print("kneeboard: " + tr("the output could not be written ({reason})", reason=str(exc.strerror or exc)),
+                  file=sys.stderr)
             return EXIT_OUTPUT
         return _internal_error(exc)
     except Exception as exc:  # a bug, not bad input: one line, and the traceback on request
@@ -405,9 +330,10 @@ def _open_app(target: str | None) -> int:
     """`kneeboard [PATH]`: the app, when there is a screen; a word that is neither a path nor a command is a typo."""
     if target is not None and not os.path.lexists(target):
         close = difflib.get_close_matches(target, COMMANDS, n=1, cutoff=0.5)
-        hint = f"; did you mean '{close[0]}'?" if close else f"; the commands are {', '.join(COMMANDS)}"
-        print(printable(f"kneeboard: unknown command '{target}'{hint} (or give a profile or folder to open in "
-                        "the app; see kneeboard --help)"), file=sys.stderr)
+        hint = (tr("; did you mean '{command}'?", command=close[0]) if close else
+                tr("; the commands are {commands}", commands=", ".join(COMMANDS)))
+        print(printable("kneeboard: " + tr("unknown command '{word}'{hint} (or give a profile or folder to open in "
+                                           "the app; see kneeboard --help)", word=target, hint=hint)), file=sys.stderr)
         return EXIT_PROBLEMS
     from kneeboard.display import window_problem
 
@@ -423,8 +349,8 @@ def _open_app(target: str | None) -> int:
 def _internal_error(exc: Exception) -> int:
     if os.environ.get("KNEEBOARD_DEBUG"):
         raise exc
-    print(printable(f"kneeboard: internal error, please report it: {type(exc).__name__}: {exc} "
-                    "(set KNEEBOARD_DEBUG=1 for details)"), file=sys.stderr)
+    print(printable("kneeboard: " + tr("internal error, please report it: {error} (set KNEEBOARD_DEBUG=1 for "
+                                       "details)", error=f"{type(exc).__name__}: {exc}")), file=sys.stderr)
     return EXIT_BUG
 
 
@@ -495,6 +421,7 @@ def main_exit() -> None:
         code = _closed_pipe()
     except OSError as exc:
         _quiet_stdout()
-        print(f"kneeboard: the output could not be written ({exc.strerror or exc})", file=sys.stderr)
+        print("kneeboard: " + tr("the output could not be written ({reason})", reason=str(exc.strerror or exc)),
+              file=sys.stderr)
         code = EXIT_OUTPUT
     sys.exit(code)

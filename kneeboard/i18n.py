@@ -24,6 +24,7 @@ JSON keys and the profile and style files' keys are an interface, not prose: the
 """
 
 import gettext
+import os
 import re
 from functools import cache, lru_cache
 from pathlib import Path
@@ -176,6 +177,35 @@ def translator(language: str = ENGLISH, soft_hyphens: bool = False) -> Translato
         return Translator(language, translator(language)._catalogue, True)  # the catalogue is read once
     with open(catalogue_path(language), "rb") as f:
         return Translator(language, gettext.GNUTranslations(f))
+
+
+def language_of(name: str) -> str | None:
+    """The code of LANGUAGES a locale name speaks ("de_DE.UTF-8", "de-AT", "fr", "pl_PL@euro" -> "de", "de", "fr",
+    "pl"); None for a language kneeboard has no catalogue of, and for the "C" and "POSIX" locales."""
+    code = re.split(r"[_.@-]", name.strip(), maxsplit=1)[0].lower()
+    return code if code in LANGUAGES else None
+
+
+#: The environment variables gettext reads the user's language from, in its order (the first one set wins).
+LOCALE_VARIABLES = ("LANGUAGE", "LC_ALL", "LC_MESSAGES", "LANG")
+
+
+def locale_language(environ=None) -> str:
+    """The language of the user's locale, as gettext finds it: the command line's help and messages speak it.
+
+    The first of LC_ALL, LC_MESSAGES and LANG that is set names the locale; LANGUAGE, a list of languages in order
+    of preference ("de:fr"), goes before them unless the locale is "C" or "POSIX" (GNU gettext's rule: a program
+    run in the C locale speaks English whatever LANGUAGE says). English when none names a language of LANGUAGES.
+    Reads no catalogue.
+    """
+    environ = os.environ if environ is None else environ
+    locale = next((environ[v] for v in LOCALE_VARIABLES[1:] if environ.get(v)), "")
+    if locale.split(".")[0] in ("", "C", "POSIX"):
+        return ENGLISH
+    for name in [*environ.get("LANGUAGE", "").split(":"), locale]:
+        if name and language_of(name):
+            return language_of(name)
+    return ENGLISH
 
 
 def catalogue_path(language: str) -> Path:

@@ -11,6 +11,7 @@ import sys
 from pathlib import Path
 
 from kneeboard import shipped
+from kneeboard.cli_words import tr
 from kneeboard.problems import printable
 
 
@@ -20,13 +21,13 @@ class Refused(Exception):
 
 def add_commands(command) -> None:
     """Declare `new` and `samples` with the command line's `command(name, help)` (see `kneeboard.cli`)."""
-    new = command("new", "write a new profile from a template, to fill in with your aircraft's figures")
-    new.add_argument("profile", metavar="PROFILE.toml", help="the file to write (never replaced if it exists)")
+    new = command("new", tr("write a new profile from a template, to fill in with your aircraft's figures"))
+    new.add_argument("profile", metavar="PROFILE.toml", help=tr("the file to write (never replaced if it exists)"))
     new.add_argument("--template", choices=shipped.CATEGORIES_WITH_TEMPLATES, default="normal",
-                     help="the aircraft's category (default: normal)")
-    samples = command("samples", "copy the invented sample fleet and the default card style into a folder")
-    samples.add_argument("folder", metavar="DIR", help="where to copy them (made if needed; nothing in it is "
-                                                       "replaced)")
+                     help=tr("the aircraft's category (default: normal)"))
+    samples = command("samples", tr("copy the invented sample fleet and the default card style into a folder"))
+    samples.add_argument("folder", metavar="DIR", help=tr("where to copy them (made if needed; nothing in it is "
+                                                          "replaced)"))
 
 
 def write_new(path: Path, data: bytes) -> None:
@@ -94,10 +95,11 @@ def cmd_new(args) -> int:
     except Refused as exc:
         print(f"kneeboard new: {exc}", file=sys.stderr)
         return EXIT_PROBLEMS
-    print(printable(f"wrote {path} from the {args.template} template. Every figure in it is a placeholder: replace "
-                    "each with this aircraft's flight-manual figure, then delete the line template = "
-                    f"\"{args.template}\". `kneeboard check {path}` names the placeholders left."))
-    print(CAUTION)
+    print(printable(tr("wrote {file} from the {template} template. Every figure in it is a placeholder: replace "
+                       "each with this aircraft's flight-manual figure, then delete the line template = "
+                       "\"{template}\". `kneeboard check {file}` names the placeholders left.", file=str(path),
+                       template=args.template)))
+    print(tr(CAUTION))
     return EXIT_OK
 
 
@@ -112,10 +114,11 @@ def cmd_samples(args) -> int:
         print(f"kneeboard samples: {exc}", file=sys.stderr)
         return EXIT_PROBLEMS
     profiles = len(written) - 1
-    print(printable(f"copied {profiles} invented sample profiles and the card style {shipped.FLEET_STYLE} to "
-                    f"{folder}. No figure in them is from a real flight manual."))
-    print(printable(f"Try: kneeboard card {folder} -o cards.pdf"))
-    print(CAUTION)
+    print(printable(tr("copied {n} invented sample profiles and the card style {style} to {folder}. No figure in "
+                       "them is from a real flight manual.", n=profiles, style=shipped.FLEET_STYLE,
+                       folder=str(folder))))
+    print(printable(tr("Try: {command}", command=f"kneeboard card {folder} -o cards.pdf")))
+    print(tr(CAUTION))
     return EXIT_OK
 
 

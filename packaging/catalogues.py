@@ -6,8 +6,11 @@ compile them into the `.mo` files the package carries (`make catalogues`; Babel,
 
 The messages are every string the code marks: `tr("...")` and `tr.plural("...", "...", n)` where it is shown,
 `Msg("...")` where a message is made with its values, `N_("...")` where a constant is declared (`kneeboard.i18n`).
-The app's own windows (kneeboard/app/) are not extracted yet: their words are not marked. The `.po` files keep
-no source line numbers, so moving code changes no catalogue.
+The app's windows (kneeboard/app/) mark theirs the same way (`tr` from `kneeboard.app.words`). The declared
+keys' words (`kneeboard.inputs.profile_keys`: the editor's labels, placeholders, help and column names;
+`kneeboard.inputs.style_keys`: the style dialog's labels, help and options) are read from the declarations
+themselves, which are data rather than marked calls. The `.po` files keep no source line numbers, so
+moving code changes no catalogue.
 """
 
 import sys
@@ -32,7 +35,7 @@ HEADER = """\
 #"""
 
 KEYWORDS = {"tr": None, "Msg": None, "N_": None, "plural": (1, 2), "pgettext": ((1, "c"), 2)}
-METHODS = [("app/**.py", "ignore"), ("**.py", "python")]
+METHODS = [("**.py", "python")]
 
 
 def template() -> Catalog:
@@ -43,7 +46,24 @@ def template() -> Catalog:
     for _file, _line, message, comments, context in extract_from_dir(SOURCE, METHODS, keywords=KEYWORDS,
                                                                       strip_comment_tags=True):
         catalogue.add(message, None, auto_comments=comments, context=context)
+    for message in declared():
+        if message not in catalogue:
+            catalogue.add(message, None, auto_comments=["a profile field's label, placeholder or help (the editor)"])
     return catalogue
+
+
+def declared() -> list[str]:
+    """The words of the declared keys the app shows: a profile field's label, placeholder, help and column names (the
+    editor), a style key's label, help and options as shown (the style dialog)."""
+    from kneeboard.inputs.profile_keys import FIELDS
+    from kneeboard.inputs.style_keys import KEYS
+
+    words = []
+    for field in FIELDS:
+        words += [w for w in (field.label, field.placeholder, field.help, *field.columns) if w]
+    for key in KEYS:
+        words += [w for w in (key.label, key.help, *(shown for _, shown in key.option_labels)) if w]
+    return list(dict.fromkeys(words))
 
 
 def po_path(language: str) -> Path:

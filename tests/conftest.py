@@ -5,6 +5,9 @@ import shutil
 from pathlib import Path
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+# The command line speaks the locale's language and the app the system's: the tests' own words are English whatever
+# the machine's locale (a test of another language sets its own; LANGUAGE goes before LANG, as gettext reads them)
+os.environ["LANGUAGE"] = "en"
 
 import pytest  # noqa: E402
 
@@ -110,8 +113,9 @@ def fleet(tmp_path):
 
 @pytest.fixture
 def settings(tmp_path):
-    from PySide6.QtCore import QSettings
+    from PySide6.QtCore import QLocale, QSettings
 
+    QLocale.setDefault(QLocale(QLocale.Language.English, QLocale.Country.UnitedStates))  # the app's language: English
     return QSettings(str(tmp_path / "settings.ini"), QSettings.Format.IniFormat)
 
 

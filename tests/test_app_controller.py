@@ -103,7 +103,7 @@ def test_a_new_profile_is_none_of_the_fleet_until_saved_into_it(controller, pers
     person.answer("ask_category", lambda current: "glider" if current == "utility" else None)
     controller.new_profile_asked()  # offered first: the category of the trainer that was open
     assert controller.doc.path is None and controller.doc.loaded.profile.aircraft.category == "glider"
-    assert highlighted[-1] is None and "glider profile" in said[-1]
+    assert highlighted[-1] is None and "template “Glider”" in said[-1]
     person.answer("ask_save_path", fleet / "new_glider.toml")
     assert controller.save()
     assert (fleet / "new_glider.toml").is_file() and not controller.doc.modified

@@ -52,7 +52,7 @@ def test_the_card_the_table_and_the_fleet_are_exported_and_confirmed(controller,
     (progress,) = person.progresses
     assert progress.total == 5 and progress.closed and len(progress.labels) == 5 and result.cards == 5
     assert confirmed == [("the card of DEMO-TRN", tmp_path / "card.pdf"),
-                         ("the table of DEMO-TRN", tmp_path / "table.csv"), ("5 card(s)", tmp_path / "fleet.pdf")]
+                         ("the table of DEMO-TRN", tmp_path / "table.csv"), ("5 cards", tmp_path / "fleet.pdf")]
     assert person.problems == []
 
 

@@ -264,8 +264,9 @@ def test_a_card_printed_in_german_compares_current_with_its_profile_in_any_langu
                        encoding="utf-8")
     assert main(["compare", str(pdf), str(profile), "--language", "fr"]) == 1
     out = capsys.readouterr().out
-    # the labels and figures as a French card prints them; the configuration's name as the profile writes it
-    assert "! less room: Flaps up · 0° · vitesse de décrochage: 47 kt -> 48 kt" in out
+    # the verdicts, labels and figures in French, as a French card prints them; the configuration's name as the
+    # profile writes it
+    assert "! moins de marge : Flaps up · 0° · vitesse de décrochage: 47 kt -> 48 kt" in out
     assert "Flaps up · 1,5 g · vitesse de décrochage: 58 kt -> 59 kt" in out
 
 

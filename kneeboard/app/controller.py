@@ -23,19 +23,22 @@ from pathlib import Path
 from PySide6.QtCore import QObject, QSettings, QTimer, Signal
 
 from kneeboard import shipped
+from kneeboard.app import words
 from kneeboard.app.fleet import FleetModel
 from kneeboard.app.outputs import CardOutputs
 from kneeboard.app.preview_jobs import Renders
 from kneeboard.app.recovery import AUTOSAVE_MS, Recovery
 from kneeboard.app.safekeeping import Safekeeping
 from kneeboard.app.session import Session
+from kneeboard.app.words import tr
 from kneeboard.fileio import FileProblem
+from kneeboard.i18n import LANGUAGES, N_
 
 MAX_RECENT = 8
 DEBOUNCE_MS = 0  #: edits of one event-loop turn share a render; the renders drop stale results themselves
 CHECK_DELAY_MS = 50  #: [ms] from listing a folder to checking its first profile, so the list is drawn first
 MODES = ("card", "letter", "a4")  #: what the preview renders: the card, or a sheet of it
-NO_PROFILE = "No profile open: choose one in the fleet, or make one with File › New profile."
+NO_PROFILE = N_("No profile open: choose one in the fleet, or make one with File › New profile.")
 
 
 @dataclass(frozen=True)
@@ -62,11 +65,13 @@ class Controller(QObject):
     exported = Signal(str, object)  #: what was exported, and the file written (a Path)
     recoveryNote = Signal(str, str)  #: crash recovery is off: why, and more; ("", "") when it works again
     recentChanged = Signal()
+    languageChanged = Signal(str)  #: the app's words are now in this language (a code of i18n.LANGUAGES)
 
     def __init__(self, ui, settings: QSettings | None = None, recovery_dir: Path | None = None, parent=None):
         super().__init__(parent)
         self.ui = ui
         self.settings = settings or QSettings("kneeboard", "kneeboard")
+        words.start(self.settings)  # the app's own language: the setting's, else the system's
         if recovery_dir is None:
             from kneeboard.app.main import data_folder
 
@@ -93,6 +98,27 @@ class Controller(QObject):
         self.autosave_timer = QTimer(self, interval=AUTOSAVE_MS)
         self.autosave_timer.timeout.connect(self.autosave)
         self.autosave_timer.start()
+
+    # --- the app's language ---------------------------------------------------------------------
+    def chosen_language(self) -> str:
+        """The language chosen in Settings › Language; "" when the app follows the system's."""
+        return words.chosen(self.settings)
+
+    def set_language(self, code: str) -> None:
+        """Settings › Language: speak `code` (a code of i18n.LANGUAGES) from now on, or "" to follow the system's;
+        kept in the settings for the next start, and every text shown again in it at once. The card's own
+        language is the style's or the profile's, and does not change."""
+        if code and code not in LANGUAGES:
+            raise ValueError(f"no catalogue for language {code!r}; expected one of {', '.join(LANGUAGES)}")
+        self.settings.setValue(words.SETTING, code)
+        words.use(code or words.system_language())
+        self.languageChanged.emit(words.language())
+        self._update_title()
+        if self.doc is None:
+            self.figuresWithheld.emit(tr(NO_PROFILE))
+        else:
+            self._requested = None  # the note over a card that is not current is said again in the new language
+            self.schedule_preview()
 
     # --- the fleet -------------------------------------------------------------------------------
     def show_fleet(self, path: Path) -> None:
@@ -173,7 +199,7 @@ class Controller(QObject):
         try:
             doc = ProfileDocument.open(path, self, self.session)
         except FileProblem as exc:
-            self.ui.show_problems(f"Cannot open {path.name}", str(exc))
+            self.ui.show_problems(tr("Cannot open {name}", name=path.name), str(exc))
             self._highlight_open()
             return False
         if self.fleet.folder != path.parent:
@@ -182,18 +208,19 @@ class Controller(QObject):
         self.set_document(doc)
         self._remember(path)
         if doc.loaded.errors:
-            self.ui.show_problems(f"{path.name} has problems",
+            self.ui.show_problems(tr("{name} has problems", name=path.name),
                                   "\n".join(str(p).removeprefix(f"{path}: ") for p in doc.loaded.errors))
         return True
 
     def open_asked(self) -> None:
         """File › Open profile: the file the person picks."""
-        path = self.ui.ask_open_path("Open profile", str(self.start_folder()), "Profiles (*.toml)")
+        path = self.ui.ask_open_path(tr("Open profile"), str(self.start_folder()),
+                                    tr("Profiles ({pattern})", pattern="*.toml"))
         if path is not None:
             self.open_profile(path)
 
     def open_folder_asked(self) -> None:
-        path = self.ui.ask_folder("Open fleet folder", str(self.start_folder()))
+        path = self.ui.ask_folder(tr("Open fleet folder"), str(self.start_folder()))
         if path is not None:
             self.open_folder(path)
 
@@ -215,8 +242,9 @@ class Controller(QObject):
 
         text = shipped.template_path(category).read_text(encoding="utf-8")
         self.set_document(ProfileDocument(text, None, self, session=self.session))
-        self.status.emit(f"A new {category} profile: type your aircraft's flight-manual figures over its "
-                         "placeholders.", 12000)
+        name = tr(words.CATEGORY_NAMES.get(category, category))
+        self.status.emit(tr("A new profile from the template “{category}”: type your aircraft's flight-manual "
+                            "figures over its placeholders.", category=name), 12000)
 
     def set_document(self, doc) -> None:
         old, self.doc = self.doc, doc
@@ -240,7 +268,7 @@ class Controller(QObject):
         self.renders.cancel()
         self.shown, self._requested, self.card_generation = None, None, 0
         self.cardCleared.emit()
-        self.figuresWithheld.emit(NO_PROFILE)
+        self.figuresWithheld.emit(tr(NO_PROFILE))
         self._update_title()
 
     def _highlight_open(self) -> None:
@@ -251,7 +279,7 @@ class Controller(QObject):
         if self.doc is None:
             self.titleChanged.emit("kneeboard", False)
             return
-        name = self.doc.path.name if self.doc.path else "new profile"
+        name = self.doc.path.name if self.doc.path else tr("new profile")
         profile = self.doc.loaded.profile
         reg = profile.aircraft.registration if profile else ""
         self.titleChanged.emit(f"{reg + ' — ' if reg else ''}{name}[*] — kneeboard", self.doc.modified)
@@ -274,12 +302,13 @@ class Controller(QObject):
         shipped default)."""
         self.session.use_style_file(path)
         self._forget_prepared()
-        self.status.emit(f"Every card now uses the style {Path(path).name}." if path is not None else
-                         f"The cards use {self._style_name()}.", 6000)
+        self.status.emit(tr("Every card now uses the style {name}.", name=Path(path).name) if path is not None
+                         else self._style_name(), 6000)
 
     def _style_name(self) -> str:
         path = self.session.style_path(self.doc.path if self.doc is not None else None)
-        return f"the style {path.name}" if path is not None else "the default style"
+        return (tr("The cards use the style {name}.", name=path.name) if path is not None else
+                tr("The cards use the default style."))
 
     # --- saving ------------------------------------------------------------------------------------
     def save(self) -> bool:
@@ -293,7 +322,7 @@ class Controller(QObject):
         if self.doc is None:
             return True
         start = self.doc.path or self.start_folder() / "new_profile.toml"
-        path = self.ui.ask_save_path("Save profile as", str(start), "Profiles (*.toml)")
+        path = self.ui.ask_save_path(tr("Save profile as"), str(start), tr("Profiles ({pattern})", pattern="*.toml"))
         return False if path is None else self._save_to(path)
 
     def _save_to(self, path: Path | None) -> bool:
@@ -304,7 +333,7 @@ class Controller(QObject):
         except SaveConflict:  # also the open file itself reached by another path by Save as: asked as Save is
             return self.safe.settle_conflict()
         except FileProblem as exc:
-            self.ui.show_problems("The profile was not saved", f"{exc}\nYour changes are still here.")
+            self.ui.show_problems(tr("The profile was not saved"), f"{exc}\n" + tr("Your changes are still here."))
             return False
         self.after_save()
         return True
@@ -390,13 +419,13 @@ class Controller(QObject):
         if prepared.table is None:
             n = len(prepared.errors)
             # the card on show was made before the error: greyed and named as not current, never left as if it were
-            before = ("This is the card as it was before them; it is neither exported nor printed."
-                      if self.shown is not None else "No card until they are fixed.")
+            before = (tr("This is the card as it was before them; it is neither exported nor printed.")
+                      if self.shown is not None else tr("No card until they are fixed."))
             self.renders.cancel()  # every render still running is of data older than the error
             self._requested = None
-            self.cardStale.emit(f"The card is not updated: the profile has {n} error(s) (see Problems).",
-                                f"NOT CURRENT: the profile has {n} error(s) (see Problems). {before}")
-            self.figuresWithheld.emit("Fix the problems marked in the editor to see the figures.")
+            self.cardStale.emit(tr("The card is not updated: the profile has {n} error(s) (see Problems).", n=n),
+                                tr("NOT CURRENT: the profile has {n} error(s) (see Problems).", n=n) + " " + before)
+            self.figuresWithheld.emit(tr("Fix the problems marked in the editor to see the figures."))
             return
         self.figuresShown.emit(prepared.table, prepared.fingerprint)
         from kneeboard.pipeline import today

@@ -29,7 +29,9 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from kneeboard.app.words import tr, translated
 from kneeboard.fileio import FileProblem
+from kneeboard.i18n import N_
 from kneeboard.problems import Problem
 
 if TYPE_CHECKING:  # the card machinery loads with the first card, not with the window
@@ -38,19 +40,20 @@ if TYPE_CHECKING:  # the card machinery loads with the first card, not with the 
     from kneeboard.pipeline import Styles
 from kneeboard.texts import CAUTION, FORMULAS_HTML
 
-NOT_PRINTED = "not printed"  #: shown where a figure was not printed before, or no longer is
-WORSE_MARK = "! less room: "  #: leads a figure that got worse; the row is bold too, so colour is never needed
-NO_CHANGE = "No printed figure changed"
+NOT_PRINTED = N_("not printed")  #: shown where a figure was not printed before, or no longer is
+WORSE_MARK = N_("! less room: ")  #: leads a figure that got worse; the row is bold too, so colour is never needed
+NO_CHANGE = N_("No printed figure changed")
 CAUTION_KEY = "caution/acknowledged"  #: settings key recording that the caution was shown
-CAUTION_TITLE = "Before you use these figures"
-COMPARE_COLUMNS = ("Figure", "On the printed card", "Now")
-PROBLEM_COLUMNS = ("Severity", "Field", "What is wrong", "Found", "Expected")
+CAUTION_TITLE = N_("Before you use these figures")
+COMPARE_COLUMNS = (N_("Figure"), N_("On the printed card"), N_("Now"))
+PROBLEM_COLUMNS = (N_("Severity"), N_("Field"), N_("What is wrong"), N_("Found"), N_("Expected"))
+SEVERITIES = {"error": N_("ERROR"), "warning": N_("WARNING")}
 
 
 def _table(columns, rows: list[tuple[str, ...]], bold_rows: set[int] = frozenset(), tips=None) -> QTableWidget:
     """A read-only table of text rows; rows in `bold_rows` are set in bold."""
     table = QTableWidget(len(rows), len(columns))
-    table.setHorizontalHeaderLabels(list(columns))
+    table.setHorizontalHeaderLabels([tr(c) for c in columns])
     table.setEditTriggers(QAbstractItemView.EditTrigger.NoEditTriggers)
     table.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
     table.setWordWrap(True)
@@ -81,15 +84,16 @@ class CompareDialog(QDialog):
     def __init__(self, changes: list[Change], registration: str, parent: QWidget | None = None,
                  columns: tuple[str, str] = COMPARE_COLUMNS[1:], since: str = ""):
         super().__init__(parent)
-        self.setWindowTitle(f"Compare: {registration}")
+        self.setWindowTitle(tr("Compare: {registration}", registration=registration))
         self._changes = list(changes)
         self._registration = registration
         self._columns = (COMPARE_COLUMNS[0],) + tuple(columns)
         self._since = since
         worse = {i for i, c in enumerate(self._changes) if c.worse}
-        rows = [(f"{WORSE_MARK}{c.label}" if i in worse else c.label, c.old or NOT_PRINTED, c.new or NOT_PRINTED)
-                for i, c in enumerate(self._changes)]
-        tips = ["Less room before the stall than the card printed now" if i in worse else ""
+        label = translated().label  # a figure's label in the app's language (its identity stays the English)
+        rows = [(f"{tr(WORSE_MARK)}{label(c.label)}" if i in worse else label(c.label), c.old or tr(NOT_PRINTED),
+                 c.new or tr(NOT_PRINTED)) for i, c in enumerate(self._changes)]
+        tips = [tr("Less room before the stall than the card printed now") if i in worse else ""
                 for i in range(len(rows))]
 
         layout = QVBoxLayout(self)
@@ -97,12 +101,12 @@ class CompareDialog(QDialog):
         self.summary.setWordWrap(True)
         layout.addWidget(self.summary)
         self.table = _table(self._columns, rows, worse, tips)
-        self.table.setAccessibleName("Printed figures that change")
+        self.table.setAccessibleName(tr("Printed figures that change"))
         self.table.setVisible(bool(rows))
         layout.addWidget(self.table)
 
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
-        self.copy_button = QPushButton("Copy as text")
+        self.copy_button = QPushButton(tr("Copy as text"))
         buttons.addButton(self.copy_button, QDialogButtonBox.ButtonRole.ActionRole)
         self.copy_button.clicked.connect(self.copy_to_clipboard)
         buttons.rejected.connect(self.reject)
@@ -112,12 +116,14 @@ class CompareDialog(QDialog):
     def _summary(self, n_worse: int) -> str:
         since = f" {self._since}" if self._since else ""
         if not self._changes:
-            return f"{NO_CHANGE} on the card of {self._registration}{since}."
-        text = (f"{len(self._changes)} printed figure(s) on the card of {self._registration} read differently"
-                f"{since}: print a new card.")
+            return tr("No printed figure changed on the card of {registration}{since}.",
+                      registration=self._registration, since=since)
+        text = tr("{n} printed figure(s) on the card of {registration} read differently{since}: print a new card.",
+                  n=len(self._changes), registration=self._registration, since=since)
         if n_worse:
-            text += (f" Less room before the stall ({n_worse}): a smaller margin or bank, or a higher stall speed; "
-                     f"those rows are in bold and begin with \u201c{WORSE_MARK.strip()}\u201d.")
+            text += " " + tr("Less room before the stall ({n}): a smaller margin or bank, or a higher stall speed; "
+                             "those rows are in bold and begin with \u201c{mark}\u201d.", n=n_worse,
+                             mark=tr(WORSE_MARK).strip())
         return text
 
     def row_count(self) -> int:
@@ -130,9 +136,9 @@ class CompareDialog(QDialog):
     def as_text(self) -> str:
         """The plain-text list the copy button puts on the clipboard."""
         if not self._changes:
-            return f"{self._registration}: {NO_CHANGE}\n"
-        lines = [f"{self._registration}: printed figures that change ({self._columns[1].lower()} -> "
-                 f"{self._columns[2].lower()})"]
+            return f"{self._registration}: {tr(NO_CHANGE)}\n"
+        lines = [tr("{registration}: printed figures that change ({old} -> {new})", registration=self._registration,
+                    old=tr(self._columns[1]), new=tr(self._columns[2]))]
         lines += [f"{figure}: {old} -> {new}" for figure, old, new in self.rows()]
         return "\n".join(lines) + "\n"
 
@@ -145,11 +151,12 @@ class FormulaHelpDialog(QDialog):
 
     def __init__(self, parent: QWidget | None = None):
         super().__init__(parent)
-        self.setWindowTitle("How the figures are computed")
+        self.setWindowTitle(tr("How the figures are computed"))
         layout = QVBoxLayout(self)
         self.browser = QTextBrowser()
         self.browser.setOpenExternalLinks(False)  # the app never goes online
-        self.browser.setHtml(f"<p><b>{escape(CAUTION)}</b></p>{FORMULAS_HTML}")
+        # the formulas page itself is English (the formulas and their sources' titles); the caution above it is not
+        self.browser.setHtml(f"<p><b>{escape(tr(CAUTION))}</b></p>{FORMULAS_HTML}")
         layout.addWidget(self.browser)
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
         buttons.rejected.connect(self.reject)
@@ -169,7 +176,7 @@ def show_caution_once(parent: QWidget | None, settings: QSettings,
     """
     if settings.value(CAUTION_KEY, False, type=bool):
         return False
-    (ask or _message_box)(parent, CAUTION_TITLE, CAUTION)
+    (ask or _message_box)(parent, tr(CAUTION_TITLE), tr(CAUTION))
     settings.setValue(CAUTION_KEY, True)
     settings.sync()
     return True
@@ -190,18 +197,19 @@ class ProblemsDialog(QDialog):
         super().__init__(parent)
         self.setWindowTitle(title)
         ordered = sorted(problems, key=lambda p: not p.is_error)  # stable: file order within each severity
-        rows = [(p.severity.upper(), p.path, p.message, _found(p.value), p.expected) for p in ordered]
+        rows = [(tr(SEVERITIES.get(p.severity, p.severity.upper())), p.path, p.message, _found(p.value), p.expected)
+                for p in ordered]
         errors = sum(p.is_error for p in ordered)
         layout = QVBoxLayout(self)
-        summary = f"{errors} error(s), {len(ordered) - errors} warning(s)."
+        summary = tr("{errors} error(s), {warnings} warning(s).", errors=errors, warnings=len(ordered) - errors)
         if errors:
-            summary += " No card can be made until every error is corrected; warnings are shown on the way."
+            summary += " " + tr("No card can be made until every error is corrected; warnings are shown on the way.")
         self.summary = QLabel(summary)
         self.summary.setWordWrap(True)
         layout.addWidget(self.summary)
         self.table = _table(PROBLEM_COLUMNS, rows, {i for i, p in enumerate(ordered) if p.is_error},
                             [str(p) for p in ordered])
-        self.table.setAccessibleName("Problems")
+        self.table.setAccessibleName(tr("Problems"))
         layout.addWidget(self.table)
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
         buttons.rejected.connect(self.reject)
@@ -213,8 +221,8 @@ class ProblemsDialog(QDialog):
 
 
 def progress_dialog(parent: QWidget | None, total: int) -> QProgressDialog:
-    dialog = QProgressDialog("Making cards", "Cancel", 0, total, parent)
-    dialog.setWindowTitle("Making cards")
+    dialog = QProgressDialog(tr("Making cards"), tr("Cancel"), 0, total, parent)
+    dialog.setWindowTitle(tr("Making cards"))
     # Window-modal: setValue then processes events, so Cancel answers while cards are being made.
     dialog.setWindowModality(Qt.WindowModality.WindowModal)
     dialog.setMinimumDuration(0)
@@ -239,7 +247,7 @@ def export_fleet(parent: QWidget | None, paths: list[Path], styles: Styles, out:
 
     def progress(done: int, total: int, name: str) -> bool:
         if name:
-            dialog.setLabelText(f"Card {done + 1} of {total}: {name}")
+            dialog.setLabelText(tr("Card {n} of {total}: {name}", n=done + 1, total=total, name=name))
         dialog.setValue(done)
         return not dialog.wasCanceled()
 

@@ -7,6 +7,7 @@ from PySide6.QtCore import Signal
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QComboBox,
+    QFormLayout,
     QHBoxLayout,
     QHeaderView,
     QLabel,
@@ -19,9 +20,11 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from kneeboard.app.words import tr
+from kneeboard.i18n import N_
 from kneeboard.problems import Problem
 
-PLACEHOLDER_NOTE = "Warning: the template's placeholder; replace it"
+PLACEHOLDER_NOTE = N_("Warning: the template's placeholder; replace it")
 ERROR_STYLE = "color: #A11D1D;"
 WARNING_STYLE = "color: #8A5A00;"
 
@@ -62,15 +65,31 @@ class Field(QWidget):
             self.input.setStyleSheet("")
             self.input.setToolTip("")
             return
-        text = problem.message + (f"; expected {problem.expected}" if problem.expected else "")
-        prefix = "Error: " if problem.is_error else "Warning: "
+        # the problem's own words are the reader's (English); what the app says around them is in its language
+        text = tr(problem.message) + (tr("; expected {expected}", expected=problem.expected) if problem.expected
+                                      else "")
+        prefix = tr("Error: ") if problem.is_error else tr("Warning: ")
         # a new profile has a placeholder under most fields: one short line each, the whole sentence on hover
-        self.problem_label.setText(PLACEHOLDER_NOTE if is_placeholder(problem) else prefix + text)
+        self.problem_label.setText(tr(PLACEHOLDER_NOTE) if is_placeholder(problem) else prefix + text)
         self.problem_label.setStyleSheet(ERROR_STYLE if problem.is_error else WARNING_STYLE)
         self.problem_label.show()
         colour = "#C62828" if problem.is_error else "#C77700"
         self.input.setStyleSheet(f"border: 2px solid {colour};")
         self.input.setToolTip(prefix + text)
+
+    def setToolTip(self, text: str) -> None:  # noqa: N802 - Qt's name
+        """A field's help, declared in English (`kneeboard.fields`), shown in the app's language."""
+        super().setToolTip(tr(text) if text else text)
+
+    def showEvent(self, event) -> None:  # noqa: N802 - Qt's name
+        """The field's label in its form, declared in English, shown in the app's language (translated here, where
+        it is shown: the editor lays the form out with the declared label)."""
+        super().showEvent(event)
+        form = self.parentWidget().layout() if self.parentWidget() is not None else None
+        label = form.labelForField(self) if isinstance(form, QFormLayout) else None
+        if isinstance(label, QLabel) and label.property("english") is None:
+            label.setProperty("english", label.text())
+            label.setText(tr(label.text()))
 
     def set_beside(self, text: str) -> None:
         if self.beside.text() != text:
@@ -88,7 +107,7 @@ class TextField(Field):
 
     def __init__(self, placeholder: str = "", parent=None):
         super().__init__(QLineEdit(), parent)
-        self.input.setPlaceholderText(placeholder)
+        self.input.setPlaceholderText(tr(placeholder) if placeholder else "")
         self.input.textEdited.connect(self.edited.emit)
 
     def value(self) -> str:
@@ -177,7 +196,7 @@ class ChoiceField(Field):
     def __init__(self, options: tuple[str, ...], labels: dict[str, str] | None = None, parent=None):
         super().__init__(QComboBox(), parent)
         for option in options:
-            self.input.addItem((labels or {}).get(option, option), option)
+            self.input.addItem(tr((labels or {}).get(option, option)), option)
         self.input.activated.connect(lambda i: self.edited.emit(self.input.itemData(i)))
 
     def set_value(self, value) -> None:
@@ -219,15 +238,15 @@ class TableField(Field):
 
     def __init__(self, headers: tuple[str, ...], add_label: str, remove_label: str, min_height: int, parent=None):
         table = QTableWidget(0, len(headers))
-        table.setHorizontalHeaderLabels(list(headers))
+        table.setHorizontalHeaderLabels([tr(h) for h in headers])
         table.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Stretch)
         table.verticalHeader().setVisible(False)
         table.setSelectionBehavior(QAbstractItemView.SelectionBehavior.SelectRows)
         table.setMinimumHeight(min_height)
         super().__init__(table, parent)
         table.hide()
-        self.add = QPushButton(add_label)
-        self.delete = QPushButton(remove_label)
+        self.add = QPushButton(tr(add_label))
+        self.delete = QPushButton(tr(remove_label))
         buttons = QHBoxLayout()
         buttons.addWidget(self.add)
         buttons.addWidget(self.delete)
@@ -280,7 +299,7 @@ class PairsField(TableField):
     """[a, b] quantity pairs: a calibration table, a polar."""
 
     def __init__(self, headers: tuple[str, str], parent=None):
-        super().__init__(headers, "Add row", "Remove row", 110, parent)
+        super().__init__(headers, N_("Add row"), N_("Remove row"), 110, parent)
 
     def set_value(self, value) -> None:
         rows = [[str(x) for x in pair] if isinstance(pair, list) else [str(pair), ""] for pair in (value or [])]

@@ -10,6 +10,8 @@ from pathlib import Path
 
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
 
+from kneeboard.app.words import tr
+from kneeboard.i18n import N_, Word
 from kneeboard.inputs.profiles import Source, profile_files, read_source
 from kneeboard.registrations import duplicates, others
 
@@ -22,12 +24,12 @@ MARK_ROLE = Qt.ItemDataRole.UserRole + 5  #: ERROR, DUPLICATE, WARNING, or "" (n
 FINGERPRINT_ROLE = Qt.ItemDataRole.UserRole + 6  #: what its card prints beside the date ("" until checked)
 CHECKED_ROLE = Qt.ItemDataRole.UserRole + 7  #: whether its mark is made (False from listing until its check)
 
-COLUMNS = ("", "Registration", "Model")
+COLUMNS = ("", N_("Registration"), N_("Model"))
 MARK_COLUMN, REGISTRATION_COLUMN, MODEL_COLUMN = range(3)
-ERROR = "error"
-WARNING = "warning"
-DUPLICATE = "duplicate registration"  #: the mark of a profile whose registration another one of the folder has
-UNREADABLE = "cannot be read"  #: the model shown for a file that cannot be read
+ERROR = N_("error")
+WARNING = N_("warning")
+DUPLICATE = N_("duplicate registration")  #: the mark of a profile whose registration another one of the folder has
+UNREADABLE = N_("cannot be read")  #: the model shown for a file that cannot be read
 MOST_SHOWN = 8  #: problems named per profile; the rest are in the editor's list
 
 
@@ -64,8 +66,8 @@ class FleetModel(QAbstractTableModel):
             rows.append(Row(path, registration if isinstance(registration, str) else path.stem,
                             model if isinstance(model, str) else UNREADABLE, source))
             written.append((registration if isinstance(registration, str) and registration.strip() else None, path))
-        why = {path: f"{registration} is also the registration of {others(path, files)}: compare and one card per "
-                     "aircraft cannot tell them apart"
+        why = {path: tr("{registration} is also the registration of {others}: compare and one card per aircraft "
+                        "cannot tell them apart", registration=registration, others=others(path, files))
                for registration, files in duplicates(written).items() for path in files}
         for row in rows:
             row.duplicate = why.get(row.path, "")
@@ -121,7 +123,7 @@ class FleetModel(QAbstractTableModel):
 
     def headerData(self, section, orientation, role=Qt.ItemDataRole.DisplayRole):  # noqa: N802 - Qt's name
         if orientation == Qt.Orientation.Horizontal and role == Qt.ItemDataRole.DisplayRole:
-            return COLUMNS[section]
+            return tr(COLUMNS[section]) if COLUMNS[section] else ""
         return None
 
     def data(self, index: QModelIndex | QPersistentModelIndex, role=Qt.ItemDataRole.DisplayRole):
@@ -134,15 +136,17 @@ class FleetModel(QAbstractTableModel):
         if role in named:
             return named[role]
         if role == Qt.ItemDataRole.DisplayRole:
-            return {REGISTRATION_COLUMN: row.registration, MODEL_COLUMN: row.model}.get(column, "")
+            model = tr(row.model) if isinstance(row.model, Word) else row.model  # UNREADABLE: ours, said in words
+            return {REGISTRATION_COLUMN: row.registration, MODEL_COLUMN: model}.get(column, "")
         if role == Qt.ItemDataRole.ToolTipRole:
             if column == MARK_COLUMN:
                 return "\n".join(row.problems or ([row.duplicate] if row.duplicate else []))
             if column == REGISTRATION_COLUMN:  # the fingerprint: what a printed card of this aircraft carries
-                return f"{row.path}\nfingerprint {row.fingerprint}" if row.fingerprint else str(row.path)
+                return (f"{row.path}\n{tr(N_('fingerprint'))} {row.fingerprint}" if row.fingerprint
+                        else str(row.path))
             return row.model
         if role == Qt.ItemDataRole.AccessibleDescriptionRole and column == MARK_COLUMN:
-            return row.mark  # what a screen reader says for the mark's icon
+            return tr(row.mark) if row.mark else ""  # what a screen reader says for the mark's icon
         return None
 
     def _changed(self, first: int, last: int) -> None:
@@ -152,8 +156,13 @@ class FleetModel(QAbstractTableModel):
 
 def shown_folder(folder: Path) -> str:
     """`folder` as a person reads it: "in ~/.local/share/kneeboard" (the home folder as ~)."""
+    return tr("in {folder}", folder=home_relative(folder))
+
+
+def home_relative(folder: Path) -> str:
+    """`folder` with the home folder written as ~."""
     home = Path.home()
     try:
-        return f"in ~/{folder.relative_to(home).as_posix()}" if folder != home else "in ~"
+        return f"~/{folder.relative_to(home).as_posix()}" if folder != home else "~"
     except ValueError:
-        return f"in {folder}"
+        return str(folder)

@@ -23,11 +23,13 @@ from kneeboard.app.fleet import (
     REGISTRATION_COLUMN,
     WARNING,
     FleetModel,
-    shown_folder,
+    home_relative,
 )
+from kneeboard.app.words import Texts
+from kneeboard.i18n import N_
 
-EMPTY_HINT = ("No profiles (*.toml) in this folder. File › New profile from template makes one; "
-              "save it here and it appears in this list.")
+EMPTY_HINT = N_("No profiles (*.toml) in this folder. File › New profile from template makes one; save it here "
+                "and it appears in this list.")
 
 
 class _Marks(QIdentityProxyModel):
@@ -63,10 +65,13 @@ class FleetPanel(QWidget):
         self.tree.setColumnWidth(REGISTRATION_COLUMN, 110)
         self.tree.activated.connect(self._chosen)
         self.tree.clicked.connect(self._chosen)
-        self.hint = QLabel(EMPTY_HINT)
+        self.texts = Texts()  #: the panel's words, shown again when the language changes
+        self.hint = QLabel()
+        self.texts.set(self.hint.setText, EMPTY_HINT)
         self.hint.setWordWrap(True)
         self.hint.hide()
-        self.title = QLabel("No folder open")
+        self.title = QLabel()
+        self.texts.set(self.title.setText, N_("No folder open"))
         self.title.setStyleSheet("font-weight: bold;")
         self.title.setWordWrap(True)
         self.where = QLabel()  #: where the folder is (the sample fleet's copy lives in the app's data folder)
@@ -74,8 +79,10 @@ class FleetPanel(QWidget):
         self.where.setWordWrap(True)
         self.where.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
         self.where.hide()
-        self.open_folder = QPushButton("Open folder…")
-        self.reload = QPushButton("Reload")
+        self.open_folder = QPushButton()
+        self.texts.set(self.open_folder.setText, N_("Open folder…"))
+        self.reload = QPushButton()
+        self.texts.set(self.reload.setText, N_("Reload"))
         buttons = QHBoxLayout()
         buttons.addWidget(self.open_folder)
         buttons.addWidget(self.reload)
@@ -92,9 +99,9 @@ class FleetPanel(QWidget):
         """A folder was listed: its name, where it is, and the highlight of the profile being edited."""
         folder = self.model.folder
         if folder is not None:
-            self.title.setText(f"Fleet: {folder.name}")
+            self.texts.set(self.title.setText, N_("Fleet: {name}"), name=folder.name)
             self.title.setToolTip(str(folder))
-            self.where.setText(shown_folder(folder.parent))
+            self.texts.set(self.where.setText, N_("in {folder}"), folder=home_relative(folder.parent))
             self.where.setToolTip(str(folder))
             self.where.show()
         rows = self.model.rowCount()
@@ -102,6 +109,11 @@ class FleetPanel(QWidget):
         self.tree.setVisible(bool(rows))
         self.tree.resizeColumnToContents(REGISTRATION_COLUMN)
         self.select(self._current)
+
+    def retranslate(self) -> None:
+        """The app's language changed: the panel's words and the list's column heads in it."""
+        self.texts.again()
+        self.model.headerDataChanged.emit(Qt.Orientation.Horizontal, 0, self.model.columnCount() - 1)
 
     def select(self, path: Path | None) -> None:
         """Highlight the profile at `path`; None (a new profile, not in the fleet): highlight none."""

@@ -8,6 +8,7 @@ and the one units registry, so what a field shows beside it is what the card com
 
 from kneeboard import units
 from kneeboard.aero.limits import CATEGORY_LIMIT_LOAD
+from kneeboard.app.words import CATEGORY_WORDS, tr
 
 
 def card_units(prepared, card: dict | None) -> tuple[str, str, str]:
@@ -61,9 +62,11 @@ def limit_load_hint(prepared, category: str) -> str | None:
     normal category, as computed); None for a category the program does not know."""
     if prepared.results is not None:
         n = f"{prepared.results.design_limit_load_factor:.2f}".rstrip("0").rstrip(".")
-        return f"{n} for the {category} category at this maximum weight"
+        return tr("{n} for the {category} category at this maximum weight", n=n,
+                  category=tr(CATEGORY_WORDS.get(category, category)))
     if category in CATEGORY_LIMIT_LOAD:
-        return f"{CATEGORY_LIMIT_LOAD[category]} for the {category} category"
+        return tr("{n} for the {category} category", n=CATEGORY_LIMIT_LOAD[category],
+                  category=tr(CATEGORY_WORDS.get(category, category)))
     return None
 
 

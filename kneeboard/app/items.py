@@ -6,13 +6,15 @@ column, default aviation gasoline), anything else is stored as its mass, exactly
 
 from kneeboard.app.fields import TableField
 from kneeboard.app.hints import is_volume
+from kneeboard.app.words import tr
+from kneeboard.i18n import N_
 
-COLUMNS = ("Item", "Mass or volume", "Density")  #: a density is only read for a volume
+COLUMNS = (N_("Item"), N_("Mass or volume"), N_("Density"))  #: a density is only read for a volume
 
 
 class ItemsField(TableField):
     def __init__(self, parent=None):
-        super().__init__(COLUMNS, "Add item", "Remove item", 130, parent)
+        super().__init__(COLUMNS, N_("Add item"), N_("Remove item"), 130, parent)
 
     def set_value(self, value) -> None:
         rows = []
@@ -41,5 +43,5 @@ class ItemsField(TableField):
         return out or None
 
     def new_row(self) -> list[str]:
-        return ["New item", "0 kg", ""]
+        return [tr("New item"), "0 kg", ""]
 

@@ -22,7 +22,9 @@ def run(target: str | None = None) -> int:
     controller = window.controller
     last = controller.settings.value("last_folder")
     if target is not None and not Path(target).exists():
-        print(f"kneeboard: {target}: no such file or folder", file=sys.stderr)
+        from kneeboard.app.words import tr
+
+        print(tr("kneeboard: {path}: no such file or folder", path=target), file=sys.stderr)
         return 2
     start = Path(target) if target else (Path(last) if last and Path(last).is_dir() else sample_fleet())
     window.show()

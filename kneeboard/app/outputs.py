@@ -9,6 +9,7 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
 
+from kneeboard.app.words import plural, tr
 from kneeboard.fileio import FileProblem, write_atomic
 from kneeboard.problems import printable
 
@@ -47,20 +48,21 @@ class CardOutputs:
     def ready(self) -> bool:
         doc = self.c.doc
         if doc is None:
-            self.c.ui.show_problems("No card", "No profile is open.")
+            self.c.ui.show_problems(tr("No card"), tr("No profile is open."))
             return False
         if doc.loaded.table is None:
             errors = doc.loaded.errors
-            self.c.ui.show_problems("No card", f"The profile has {len(errors)} error(s); fix them first (see "
-                                    "Problems):\n" + "\n".join(str(p) for p in errors[:8]))
+            self.c.ui.show_problems(tr("No card"), tr("The profile has {n} error(s); fix them first (see Problems):",
+                                                      n=len(errors)) + "\n" + "\n".join(str(p) for p in errors[:8]))
             return False
         return True
 
-    def _card_out(self, what: str) -> bytes | None:
+    def _card_out(self, title: str) -> bytes | None:
+        """The card's PDF; None, and `title` (what could not be done) with the reason, when it cannot be made."""
         try:
             return self.c.current_pdf()
         except _layout_error() as exc:
-            self.c.ui.show_problems(f"The card cannot be {what}", str(exc))
+            self.c.ui.show_problems(title, str(exc))
             return None
 
     def _printed(self, pdf: bytes, where: str) -> None:
@@ -78,20 +80,20 @@ class CardOutputs:
 
         reg = self.c.doc.loaded.table.registration
         start = self.c.start_folder() / f"{safe_name(reg)}.pdf"
-        path = self.c.ui.ask_save_path("Export card as PDF", str(start), "PDF (*.pdf)")
+        path = self.c.ui.ask_save_path(tr("Export card as PDF"), str(start), tr("PDF ({pattern})", pattern="*.pdf"))
         if path is None:
             return None
-        pdf = self._card_out("exported")
+        pdf = self._card_out(tr("The card cannot be exported"))
         if pdf is None:
             return None
         try:
             self._refuse_inputs(path)
             write_atomic(path, pdf)
         except FileProblem as exc:
-            self.c.ui.show_problems("The card was not exported", f"{exc}\nNothing was written.")
+            self.c.ui.show_problems(tr("The card was not exported"), f"{exc}\n" + tr("Nothing was written."))
             return None
         self._printed(pdf, str(path))
-        self.c.exported.emit(f"the card of {reg}", Path(path))
+        self.c.exported.emit(tr("the card of {registration}", registration=reg), Path(path))
         return path
 
     def _refuse_inputs(self, path: Path) -> None:
@@ -113,7 +115,7 @@ class CardOutputs:
         from kneeboard.export import safe_name
 
         start = self.c.start_folder() / f"{safe_name(table.registration)}.csv"
-        path = self.c.ui.ask_save_path("Export table as CSV", str(start), "CSV (*.csv)")
+        path = self.c.ui.ask_save_path(tr("Export table as CSV"), str(start), tr("CSV ({pattern})", pattern="*.csv"))
         if path is None:
             return None
         try:
@@ -123,9 +125,9 @@ class CardOutputs:
 
             write_atomic(path, report.csv_file(table, prepared.fingerprint, today()))
         except FileProblem as exc:
-            self.c.ui.show_problems("The table was not exported", f"{exc}\nNothing was written.")
+            self.c.ui.show_problems(tr("The table was not exported"), f"{exc}\n" + tr("Nothing was written."))
             return None
-        self.c.exported.emit(f"the table of {table.registration}", Path(path))
+        self.c.exported.emit(tr("the table of {registration}", registration=table.registration), Path(path))
         return path
 
     def export_fleet(self):
@@ -136,28 +138,29 @@ class CardOutputs:
         c = self.c
         folder = c.fleet.folder
         if folder is None:
-            c.ui.show_problems("No fleet", "Open a folder of profiles first (File › Open folder).")
+            c.ui.show_problems(tr("No fleet"), tr("Open a folder of profiles first (File › Open folder)."))
             return None
         if c.doc is not None and c.doc.modified and c.doc.path is not None \
                 and c.doc.path.parent == folder and not c.maybe_save():
             return None  # the fleet's cards are made from the files: unsaved edits would be missing
-        path = c.ui.ask_save_path("Export the fleet's cards", str(folder / "fleet.pdf"), "PDF (*.pdf)")
+        path = c.ui.ask_save_path(tr("Export the fleet's cards"), str(folder / "fleet.pdf"),
+                                  tr("PDF ({pattern})", pattern="*.pdf"))
         if path is None:
             return None
         result = export_fleet(None, profile_files(folder), c.session.styles, path,
                               progress_factory=lambda _parent, total: c.ui.progress(total))
         if result.failures:
-            c.ui.show_problems("Some cards were not made",
+            c.ui.show_problems(tr("Some cards were not made"),
                                "\n".join(line for f in result.failures for line in f.lines))
         if result.cards and not result.cancelled and path in result.written:
             self._printed(Path(path).read_bytes(), str(path))
-            c.exported.emit(f"{result.cards} card(s)", Path(path))
+            c.exported.emit(plural("{n} card", "{n} cards", result.cards), Path(path))
         return result
 
     def print_card(self) -> bool:
         if not self.ready():
             return False
-        pdf = self._card_out("printed")
+        pdf = self._card_out(tr("The card cannot be printed"))
         if pdf is None:
             return False
         from kneeboard.export import safe_name
@@ -165,7 +168,7 @@ class CardOutputs:
         # the document's name, which print-to-file proposes as the file name: the registration, as exports name it
         done = self.c.ui.print_pdf(pdf, f"{safe_name(self.c.doc.loaded.table.registration)}_card")
         if done:
-            self._printed(pdf, "the printer")
+            self._printed(pdf, tr("the printer"))
         return done
 
     # --- compare ---------------------------------------------------------------------------------
@@ -187,11 +190,12 @@ class CardOutputs:
             return None
         changes = self.compare_changes()
         if changes is None:
-            self.c.ui.show_problems("Nothing to compare", "The saved or the edited profile has errors.")
+            self.c.ui.show_problems(tr("Nothing to compare"), tr("The saved or the edited profile has errors."))
             return None
-        return Comparison(changes, self.c.doc.loaded.table.registration, ("In the saved file", "With your edits"),
-                          "since the profile was last saved (the printed card may be older: compare with the "
-                          "printed card to know)")
+        return Comparison(changes, self.c.doc.loaded.table.registration,
+                          (tr("In the saved file"), tr("With your edits")),
+                          tr("since the profile was last saved (the printed card may be older: compare with the "
+                             "printed card to know)"))
 
     def compare_with_printed(self) -> Comparison | None:
         """The card as printed (exported or printed in this session, else a card PDF the person picks)
@@ -208,44 +212,47 @@ class CardOutputs:
         now, weight = c.doc.loaded, ""
         if printed.weight_given:  # made for a weight given for it: made again at that weight, and said so
             now = c.session.prepare_plain(c.doc.plain(), c.doc.path, printed.weight_given)
-            weight = f", at {printable(printed.weight_given)}, the weight it was made for"
+            weight = tr(", at {weight}, the weight it was made for", weight=printable(printed.weight_given))
             if now.table is None:
-                c.ui.show_problems("Nothing to compare", "\n".join(str(p) for p in now.errors[:8]))
+                c.ui.show_problems(tr("Nothing to compare"), "\n".join(str(p) for p in now.errors[:8]))
                 return None
         try:
             changes = c.session.changes_since_printed(printed, now)
         except _layout_error() as exc:
-            c.ui.show_problems("Nothing to compare", str(exc))
+            c.ui.show_problems(tr("Nothing to compare"), str(exc))
             return None
-        made = f" on {printed.made_on}" if printed.made_on else ""
-        return Comparison(changes, reg, ("On the printed card", "Now"),
-                          f"since the card was printed{made} ({printable(printed.where)}){weight}")
+        where = printable(printed.where)
+        since = (tr("since the card was printed on {date} ({where})", date=printed.made_on, where=where)
+                 if printed.made_on else tr("since the card was printed ({where})", where=where))
+        return Comparison(changes, reg, (tr("On the printed card"), tr("Now")), since + weight)
 
     def _pick_printed(self, registration: str):
         from kneeboard.card.data import CardDataProblem, read_card_data
         from kneeboard.fileio import read_bytes
 
         ui = self.c.ui
-        path = ui.ask_open_path(f"The printed card of {registration}", str(self.c.start_folder()),
-                                "Cards (*.pdf)")
+        path = ui.ask_open_path(tr("The printed card of {registration}", registration=registration),
+                                str(self.c.start_folder()), tr("Cards ({pattern})", pattern="*.pdf"))
         if path is None:
             return None
         try:
             found = read_card_data(read_bytes(Path(path), 200 * 1024 * 1024))
         except FileProblem as exc:
-            ui.show_problems("Cannot read the card", str(exc))
+            ui.show_problems(tr("Cannot read the card"), str(exc))
             return None
         except CardDataProblem as exc:
-            ui.show_problems("Cannot read the card", printable(f"{path}: {exc}"))
+            ui.show_problems(tr("Cannot read the card"), printable(f"{path}: {exc}"))
             return None
         from kneeboard.registrations import key
 
         mine = [d for d in found if key(str(d.get("registration", ""))) == key(registration)]
         if not mine:
-            ui.show_problems("Not this aircraft's card",
-                             f"{printable(path)} holds no kneeboard card of {registration}"
-                             + (f" (it holds {', '.join(str(d.get('registration')) for d in found)})."
-                                if found else " (it carries no printed figures: not a kneeboard card)."))
+            ui.show_problems(tr("Not this aircraft's card"),
+                             tr("{file} holds no kneeboard card of {registration} (it holds {others}).",
+                                file=printable(path), registration=registration,
+                                others=", ".join(str(d.get("registration")) for d in found)) if found else
+                             tr("{file} holds no kneeboard card of {registration} (it carries no printed figures: "
+                                "not a kneeboard card).", file=printable(path), registration=registration))
             return None
         return self.c.session.remember_printed_data(mine[0], str(path))
 
@@ -255,7 +262,7 @@ class CardOutputs:
         c = self.c
         target = c.session.fleet_style_file()
         if target is None:
-            c.ui.show_problems("No fleet", "Open a folder of profiles first: its style is saved beside them.")
+            c.ui.show_problems(tr("No fleet"), tr("Open a folder of profiles first: its style is saved beside them."))
             return None
         from kneeboard.inputs.styles import load_style
 
@@ -270,11 +277,11 @@ class CardOutputs:
         try:
             style, problems = save(target)
         except FileProblem as exc:
-            self.c.ui.show_problems("The style was not saved", f"{exc}\nNothing was written. Your entries are "
-                                    "kept: mend or move the file, then save again, or cancel.")
+            self.c.ui.show_problems(tr("The style was not saved"), f"{exc}\n" + tr(
+                "Nothing was written. Your entries are kept: mend or move the file, then save again, or cancel."))
             return False
         if style is None:
-            self.c.ui.show_problems("The style has problems", "\n".join(str(p) for p in problems))
+            self.c.ui.show_problems(tr("The style has problems"), "\n".join(str(p) for p in problems))
         self.c.restyle()
         return True
 
@@ -293,27 +300,28 @@ class CardOutputs:
 
             trial, problems = fitted(*style_from_data({**values, "back": list(style.back), "logo": ""}, folder))
             if trial is None or any(p.is_error for p in problems):
-                return "not known: " + "; ".join(str(p) for p in problems if p.is_error)
+                return tr("not known: {problems}", problems="; ".join(str(p) for p in problems if p.is_error))
             try:
                 layout = layout_card(prepared.table, trial, prepared.fingerprint, today(), card_logo(style))
             except LayoutError as exc:
-                return f"cannot be made: {exc}"
-            n, f = layout.cards, layout.faces
-            return f"{n} card{'s' if n != 1 else ''}, {f} face{'s' if f != 1 else ''} ({prepared.table.registration})"
+                return tr("cannot be made: {reason}", reason=str(exc))
+            return tr("{cards}, {faces} ({registration})", cards=plural("{n} card", "{n} cards", layout.cards),
+                      faces=plural("{n} face", "{n} faces", layout.faces), registration=prepared.table.registration)
 
         return faces
 
     def pick_style(self) -> Path | None:
         """Card › Use another style file: one the person picks, for every card, once it reads without errors."""
         ui = self.c.ui
-        path = ui.ask_open_path("Card style", str(self.c.start_folder()), "Card styles (*.style.toml)")
+        path = ui.ask_open_path(tr("Card style"), str(self.c.start_folder()),
+                                tr("Card styles ({pattern})", pattern="*.style.toml"))
         if path is None:
             return None
         from kneeboard.card.organization import load_card_style
 
         style, problems = load_card_style(Path(path))
         if style is None:
-            ui.show_problems("The style has problems", "\n".join(str(p) for p in problems))
+            ui.show_problems(tr("The style has problems"), "\n".join(str(p) for p in problems))
             return None
         self.c.use_style_file(Path(path))
         return path

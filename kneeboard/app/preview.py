@@ -22,13 +22,15 @@ from PySide6.QtPdfWidgets import QPdfView
 from PySide6.QtWidgets import QComboBox, QGridLayout, QLabel, QSizePolicy, QToolBar, QVBoxLayout, QWidget
 
 from kneeboard.app.pages import page_labels
+from kneeboard.app.words import Texts, tr
+from kneeboard.i18n import N_
 
 __all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
 
 #: Custom zoom factors the zoom buttons step through (1.0 = the page at its true size on screen).
 ZOOM_STEPS = (0.25, 0.33, 0.5, 0.67, 0.75, 0.9, 1.0, 1.1, 1.25, 1.5, 1.75, 2.0, 2.5, 3.0, 4.0)
 #: What the preview can show: (mode, label). The controller decides which card each mode renders.
-MODES = (("card", "Card"), ("letter", "Sheet (Letter)"), ("a4", "Sheet (A4)"))
+MODES = (("card", N_("Card")), ("letter", N_("Sheet (Letter)")), ("a4", N_("Sheet (A4)")))
 BUSY_DELAY_MS = 300  #: renders quicker than this never flash the "Updating" note
 
 
@@ -75,6 +77,7 @@ class CardPreview(QWidget):
         super().__init__(parent)
         self._doc: QPdfDocument | None = None
         self._pdf: bytes | None = None
+        self.texts = Texts()  #: the preview's words, shown again when the language changes
         self._busy_timer = QTimer(self, singleShot=True, interval=BUSY_DELAY_MS)
         self._busy_timer.timeout.connect(lambda: self._busy_action.setVisible(True))
 
@@ -129,13 +132,18 @@ class CardPreview(QWidget):
     # ------------------------------------------------------------------ controls
 
     def _build_toolbar(self) -> QToolBar:
-        bar = QToolBar("Preview", self)
+        bar = QToolBar(self)
+        self.texts.set(bar.setWindowTitle, N_("Preview"))
         bar.setToolButtonStyle(Qt.ToolButtonStyle.ToolButtonTextOnly)
 
         def action(name: str, text: str, tip: str, slot, keys=None) -> QAction:
-            act = QAction(text, self)
+            act = QAction(self)
             act.setObjectName(name)
-            act.setToolTip(tip)
+            if text in ("\u2212", "+"):
+                act.setText(text)
+            else:
+                self.texts.set(act.setText, text)
+            self.texts.set(act.setToolTip, tip)
             if keys is not None:
                 act.setShortcut(keys)
                 # only while the preview has focus: the editor keeps its own keys
@@ -145,18 +153,18 @@ class CardPreview(QWidget):
             bar.addAction(act)
             return act
 
-        self._zoom_out = action("zoomOut", "\u2212", "Zoom out", self.zoom_out, QKeySequence.StandardKey.ZoomOut)
+        self._zoom_out = action("zoomOut", "\u2212", N_("Zoom out"), self.zoom_out, QKeySequence.StandardKey.ZoomOut)
         self._zoom_label = QLabel(bar)
         self._zoom_label.setObjectName("zoomLabel")
         self._zoom_label.setMinimumWidth(self._zoom_label.fontMetrics().horizontalAdvance("400 %") + 8)
         self._zoom_label.setAlignment(Qt.AlignmentFlag.AlignCenter)
         bar.addWidget(self._zoom_label)
-        self._zoom_in = action("zoomIn", "+", "Zoom in", self.zoom_in, QKeySequence.StandardKey.ZoomIn)
+        self._zoom_in = action("zoomIn", "+", N_("Zoom in"), self.zoom_in, QKeySequence.StandardKey.ZoomIn)
         fits = QActionGroup(self)
         fits.setExclusionPolicy(QActionGroup.ExclusionPolicy.ExclusiveOptional)
-        self._fit_width = action("fitWidth", "Fit width", "Fit the page's width to the view",
+        self._fit_width = action("fitWidth", N_("Fit width"), N_("Fit the page's width to the view"),
                                  lambda: self._set_zoom(QPdfView.ZoomMode.FitToWidth))
-        self._whole_page = action("wholePage", "Whole page", "Show the whole page",
+        self._whole_page = action("wholePage", N_("Whole page"), N_("Show the whole page"),
                                   lambda: self._set_zoom(QPdfView.ZoomMode.FitInView))
         for act in (self._fit_width, self._whole_page):
             act.setCheckable(True)
@@ -165,7 +173,7 @@ class CardPreview(QWidget):
 
         self._pages = QComboBox(bar)
         self._pages.setObjectName("pageSelector")
-        self._pages.setToolTip("Page shown")
+        self.texts.set(self._pages.setToolTip, N_("Page shown"))
         self._pages.setSizeAdjustPolicy(QComboBox.SizeAdjustPolicy.AdjustToContents)
         self._pages.currentIndexChanged.connect(self._page_chosen)
         self._pages_action = bar.addWidget(self._pages)
@@ -174,16 +182,25 @@ class CardPreview(QWidget):
         spacer = QWidget(bar)
         spacer.setSizePolicy(QSizePolicy.Policy.Expanding, QSizePolicy.Policy.Preferred)
         bar.addWidget(spacer)
-        self._busy_action = bar.addWidget(QLabel("Updating\u2026", bar))
+        busy = QLabel(bar)
+        self.texts.set(busy.setText, N_("Updating\u2026"))
+        self._busy_action = bar.addWidget(busy)
         self._busy_action.setVisible(False)
         self._modes = QComboBox(bar)
         self._modes.setObjectName("modeSelector")
-        self._modes.setToolTip("Show the card alone or imposed on a printing sheet")
+        self.texts.set(self._modes.setToolTip, N_("Show the card alone or imposed on a printing sheet"))
         for mode, label in MODES:
-            self._modes.addItem(label, mode)
+            self._modes.addItem(tr(label), mode)
         self._modes.currentIndexChanged.connect(lambda _i: self.modeChanged.emit(self.mode()))
         bar.addWidget(self._modes)
         return bar
+
+    def retranslate(self) -> None:
+        """The app's language changed: the controls' words, the modes and the pages' names in it."""
+        self.texts.again()
+        for i, (_mode, label) in enumerate(MODES):
+            self._modes.setItemText(i, tr(label))
+        self._fill_page_selector(self.page_count(), max(0, self.current_page()) if self.page_count() else -1)
 
     def _set_zoom(self, mode: QPdfView.ZoomMode, factor: float | None = None) -> None:
         self._view.setZoomMode(mode)
@@ -268,7 +285,7 @@ class CardPreview(QWidget):
         try:
             doc = open_pdf(data, self)
         except ValueError as exc:
-            self.show_error(f"The preview could not show this card: {exc}.")
+            self.show_error(tr("The preview could not show this card: {reason}.", reason=str(exc)))
             return False
         # a new render of the same card must not move the reader: keep page, zoom and scroll
         page = max(0, self.current_page())

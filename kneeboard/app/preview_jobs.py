@@ -25,7 +25,9 @@ Job = Callable[[], bytes]
 
 def failure_text(exc: Exception) -> str:
     # a LayoutError's text is already a sentence for the pilot; anything else at least names itself
-    return str(exc) or f"The card could not be drawn ({type(exc).__name__})."
+    from kneeboard.app.words import tr
+
+    return str(exc) or tr("The card could not be drawn ({error}).", error=type(exc).__name__)
 
 
 @dataclass

@@ -12,6 +12,7 @@ from PySide6.QtPrintSupport import QAbstractPrintDialog, QPrintDialog, QPrinter
 from PySide6.QtWidgets import QDialog, QWidget
 
 from kneeboard.app.preview import open_pdf
+from kneeboard.app.words import tr
 
 __all__ = ["page_layout", "print_pdf", "print_with_dialog"]
 
@@ -121,7 +122,7 @@ def print_with_dialog(parent: QWidget | None, pdf: bytes, title: str) -> bool:
     printer.setFullPage(True)
     printer.setPageLayout(page_layout(first))  # the dialog then offers the card's own paper
     dialog = QPrintDialog(printer, parent)
-    dialog.setWindowTitle(f"Print {title}")
+    dialog.setWindowTitle(tr("Print {name}", name=title))
     dialog.setMinMax(1, count)
     dialog.setOption(QAbstractPrintDialog.PrintDialogOption.PrintPageRange, count > 1)
     dialog.setOption(QAbstractPrintDialog.PrintDialogOption.PrintSelection, False)

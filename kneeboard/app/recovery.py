@@ -17,6 +17,7 @@ import time
 from dataclasses import dataclass
 from pathlib import Path
 
+from kneeboard.app.words import tr
 from kneeboard.fileio import MAX_FILE_BYTES, FileProblem, read_text, write_atomic
 
 #: The largest record: the largest profile's text, every character escaped in the worst case, and the rest.
@@ -120,8 +121,8 @@ class Recovery:
                 if not isinstance(text, str):
                     raise TypeError("its text is not text")
             except (FileProblem, ValueError, KeyError, TypeError, AttributeError) as exc:
-                self.unreadable.append(f"{file}: unsaved edits that cannot be read back ({exc}); the file is "
-                                       "kept for you to open")
+                self.unreadable.append(tr("{file}: unsaved edits that cannot be read back ({reason}); the file is "
+                                          "kept for you to open", file=str(file), reason=str(exc)))
                 continue
             base = record.get("base")
             base = base if isinstance(base, str) else None

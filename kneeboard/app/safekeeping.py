@@ -9,6 +9,7 @@ back on the next start.
 from pathlib import Path
 
 from kneeboard.app.recovery import Pending, key_for
+from kneeboard.app.words import tr
 from kneeboard.fileio import FileProblem
 from kneeboard.problems import printable
 
@@ -29,10 +30,11 @@ class Safekeeping:
         if not doc.modified:  # nothing of this window's would be lost
             try:
                 doc.reload_from_disk()
-                note = "changed on disk and was reloaded (Undo brings back the earlier text)"
+                note = tr("{name} changed on disk and was reloaded (Undo brings back the earlier text)",
+                          name=doc.path.name)
             except FileProblem:
-                note = "changed on disk and cannot be read now; saving will ask first"
-            self.c.status.emit(f"{doc.path.name} {note}", 8000)
+                note = tr("{name} changed on disk and cannot be read now; saving will ask first", name=doc.path.name)
+            self.c.status.emit(note, 8000)
             return
         self.settle_conflict()
 
@@ -54,8 +56,8 @@ class Safekeeping:
                 self.c.after_save()
                 return True
         except FileProblem as exc:
-            self.c.ui.show_problems("The profile was not saved" if answer == "overwrite" else
-                                    "The file cannot be read", f"{exc}\nYour changes are still here.")
+            self.c.ui.show_problems(tr("The profile was not saved") if answer == "overwrite" else
+                                    tr("The file cannot be read"), f"{exc}\n" + tr("Your changes are still here."))
             return False
         return self.c.save_as() if answer == "save-as" else False
 
@@ -85,16 +87,16 @@ class Safekeeping:
         if self.recovery_off:
             self.recovery_off = False
             self.c.recoveryNote.emit("", "")
-            self.c.status.emit("Unsaved edits are copied aside again for crash recovery.", 8000)
+            self.c.status.emit(tr("Unsaved edits are copied aside again for crash recovery."), 8000)
         return path
 
     def _recovery_failed(self, reason: str) -> None:
         if self.recovery_off:
             return
         self.recovery_off = True
-        self.c.recoveryNote.emit(f"Crash recovery is off, save often: {printable(reason)}",
-                                 f"Unsaved edits cannot be copied aside into {self.c.recovery.folder}, so a crash "
-                                 "would lose them. kneeboard tries again every few seconds.")
+        self.c.recoveryNote.emit(tr("Crash recovery is off, save often: {reason}", reason=printable(reason)),
+                                 tr("Unsaved edits cannot be copied aside into {folder}, so a crash would lose them. "
+                                    "kneeboard tries again every few seconds.", folder=str(self.c.recovery.folder)))
 
     def forget_autosave(self) -> None:
         if self._autosaved is not None:
@@ -117,7 +119,7 @@ class Safekeeping:
                 recovery.remove(pending)  # the edits are in the window now, and autosaved from there
             # a restore that failed or was put off keeps its record: offered again at the next start, never lost
         if recovery.unreadable:
-            self.c.ui.show_problems("Unsaved edits that cannot be read", "\n".join(recovery.unreadable))
+            self.c.ui.show_problems(tr("Unsaved edits that cannot be read"), "\n".join(recovery.unreadable))
         return restored
 
     def restore(self, pending: Pending) -> str:
@@ -142,7 +144,7 @@ class Safekeeping:
             c.doc.undo_stack.resetClean()
             return "restored"
         try:
-            c.doc.replace_text(pending.text, "Restore unsaved changes")
+            c.doc.replace_text(pending.text, tr("Restore unsaved changes"))
         except FileProblem:
             return "failed"
         return "restored"

@@ -29,7 +29,7 @@ def test_ctrl_n_asks_the_category_offering_the_open_ones_and_opens_its_template(
     assert offered == ["utility"]  # offered first: the category of the trainer that was open
     assert window.doc.loaded.profile.aircraft.category == "glider"
     assert highlighted(window) == []  # the new profile is none of the fleet's aircraft
-    assert "glider profile" in window.statusBar().currentMessage()
+    assert "template “Glider”" in window.statusBar().currentMessage()
 
 
 def test_a_cancelled_question_leaves_the_open_profile(qtbot, window):
@@ -87,7 +87,7 @@ def test_an_export_is_confirmed_in_the_status_bar_naming_the_file(qtbot, window,
     deep.mkdir(parents=True)
     for action, name, what in ((window.act_export, "trainer card.pdf", "the card of DEMO-TRN"),
                                (window.act_export_csv, "trainer.csv", "the table of DEMO-TRN"),
-                               (window.act_export_fleet, "all.pdf", "5 card(s)")):
+                               (window.act_export_fleet, "all.pdf", "5 cards")):
         for folder in (tmp_path, deep):
             window.ask_save_path = lambda *_, f=folder, n=name: f / n
             action.trigger()

@@ -6,6 +6,7 @@ from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.blocks.table_plan import TablePlan
 from kneeboard.card.draw import Context, Draw, Measure, Section, weight_text
 from kneeboard.card.ops import SMALL
+from kneeboard.i18n import N_
 
 NAME = "circling"
 
@@ -41,5 +42,5 @@ class Circling(TablePlan):
         return top - self.ctx.size(SMALL)
 
 
-SPEC = BlockSpec(NAME, "Circling at minimum sink (gliders)", plan=Circling,
+SPEC = BlockSpec(NAME, N_("Circling at minimum sink (gliders)"), plan=Circling,
                  applies=lambda table: table.glider is not None)

@@ -6,6 +6,7 @@ from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, INK, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import HEADING, LABEL, SMALL, TITLE, Image
+from kneeboard.i18n import N_
 from kneeboard.printed import weight_text
 
 NAME = "header"
@@ -131,5 +132,5 @@ def back_header(ctx: Context, width: float, card: str = ""):
     return d.block("back-header", back_header_height(ctx))
 
 
-SPEC = BlockSpec(NAME, "Header: registration, model, weights, date, fingerprint", plan=Header,
+SPEC = BlockSpec(NAME, N_("Header: registration, model, weights, date, fingerprint"), plan=Header,
                  full_width=True)

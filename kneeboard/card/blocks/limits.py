@@ -13,7 +13,7 @@ from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.blocks.table_plan import NamedTable
 from kneeboard.card.draw import INK, Context, DoesNotFit, fit_lines, weight_text
 from kneeboard.card.ops import SMALL
-from kneeboard.i18n import Msg
+from kneeboard.i18n import N_, Msg
 from kneeboard.tables import LIMIT_MARK
 
 NAME = "limits"
@@ -73,4 +73,4 @@ class Limits(NamedTable):
         return heads, rows
 
 
-SPEC = BlockSpec(NAME, "Limits: load factor, VA, buffer and zero-margin banks", plan=Limits)
+SPEC = BlockSpec(NAME, N_("Limits: load factor, VA, buffer and zero-margin banks"), plan=Limits)

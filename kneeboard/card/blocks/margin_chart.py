@@ -24,6 +24,7 @@ from kneeboard.card.blocks.grid import groups_of
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import SMALL, Circle, Path, Text
+from kneeboard.i18n import N_
 
 NAME = "margin-chart"
 
@@ -364,4 +365,4 @@ def _clip(banks, speeds, x_max, y_hi):
     return points
 
 
-SPEC = BlockSpec(NAME, "Margin chart", plan=MarginChart)
+SPEC = BlockSpec(NAME, N_("Margin chart"), plan=MarginChart)

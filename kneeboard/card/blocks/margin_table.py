@@ -12,6 +12,7 @@ from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHead
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, HATCH, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import LABEL, SMALL
+from kneeboard.i18n import N_
 from kneeboard.printed import weight_text
 
 NAME = "margin-table"
@@ -134,4 +135,4 @@ def _draw_legend(d: Draw, top: float, placed, height: float) -> float:
     return top - height
 
 
-SPEC = BlockSpec(NAME, "Margin table: stall speed and margin by bank", plan=MarginTable)
+SPEC = BlockSpec(NAME, N_("Margin table: stall speed and margin by bank"), plan=MarginTable)

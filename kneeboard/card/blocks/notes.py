@@ -39,4 +39,4 @@ class Notes(Plan):
         return d.block(NAME, -y)
 
 
-SPEC = BlockSpec(NAME, "Notes", plan=Notes, applies=lambda table: bool(table.notes.strip()))
+SPEC = BlockSpec(NAME, N_("Notes"), plan=Notes, applies=lambda table: bool(table.notes.strip()))

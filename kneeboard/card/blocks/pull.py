@@ -44,4 +44,4 @@ class Pull(NamedTable):
         self.measure = self.measured()
 
 
-SPEC = BlockSpec(NAME, "Pull at the pattern speed: the load factor that stalls the wing", plan=Pull)
+SPEC = BlockSpec(NAME, N_("Pull at the pattern speed: the load factor that stalls the wing"), plan=Pull)

@@ -10,7 +10,7 @@ from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.blocks.table_plan import TablePlan
 from kneeboard.card.draw import INK, Context, Draw, Measure, Section, fit_lines
 from kneeboard.card.ops import CAUTION, LABEL, SMALL
-from kneeboard.i18n import Num
+from kneeboard.i18n import N_, Num
 from kneeboard.texts import CAUTION_TURN_BACK
 
 NAME = "turn-back"
@@ -61,5 +61,5 @@ class TurnBack(TablePlan):
         return y - self.ctx.size(LABEL) * 0.6
 
 
-SPEC = BlockSpec(NAME, "Turn back after an engine (or launch) failure", plan=TurnBack,
+SPEC = BlockSpec(NAME, N_("Turn back after an engine (or launch) failure"), plan=TurnBack,
                  applies=lambda table: table.turn_back is not None and bool(table.turn_back.rows))

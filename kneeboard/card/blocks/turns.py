@@ -93,4 +93,4 @@ class Turns(Plan):
         return d.block(NAME, -y)
 
 
-SPEC = BlockSpec(NAME, "Turns at pattern speed", plan=Turns)
+SPEC = BlockSpec(NAME, N_("Turns at pattern speed"), plan=Turns)

@@ -1,0 +1,125 @@
+"""The app's own words in the person's language, through the same gettext catalogues as the card
+(`kneeboard.i18n`); no Qt translation files.
+
+The app speaks one language at a time, the one its setting names (Settings › Language, kept in QSettings under
+`SETTING`), else the system's (`QLocale()`, which is the system's locale unless a default was set), else English.
+It is separate from the card's language: an English app prints a German card when the style says so.
+
+Widgets show `tr("Open profile…")`; a text that is shown again when the language changes is set through a `Texts`,
+which keeps the English with the widget's setter and sets every one again in the new language.
+"""
+
+from kneeboard.i18n import ENGLISH, LANGUAGES, N_, language_of, translator
+
+SETTING = "language"  #: QSettings key: a code of i18n.LANGUAGES, or "" (or nothing) to follow the system
+SYSTEM = N_("The system's language")  #: the language menu's first entry
+#: The templates' categories as the app names them (shipped.CATEGORIES_WITH_TEMPLATES)
+CATEGORY_NAMES = {"normal": N_("Normal"), "utility": N_("Utility"), "acrobatic": N_("Acrobatic"),
+                  "glider": N_("Glider")}
+#: The same in a sentence ("3.8 for the normal category")
+CATEGORY_WORDS = {"normal": N_("normal"), "utility": N_("utility"), "acrobatic": N_("acrobatic"),
+                  "glider": N_("glider")}
+
+_current = [translator(ENGLISH)]
+
+
+def tr(message: str, /, **params) -> str:
+    """`message` (marked for the catalogue) in the app's language, its `{values}` filled in."""
+    return _current[0](message, **params)
+
+
+def plural(singular: str, plural_: str, n: int, /, **params) -> str:
+    """The form of a message for `n`, in the app's language."""
+    return _current[0].plural(singular, plural_, n, **params)
+
+
+def translated() -> object:
+    """The app's translator itself (`i18n.Translator`), for what takes one (a comparison's summary line)."""
+    return _current[0]
+
+
+def language() -> str:
+    return _current[0].language
+
+
+def use(code: str) -> None:
+    """Speak `code` (a key of i18n.LANGUAGES) from now on."""
+    _current[0] = translator(code)
+
+
+def system_language() -> str:
+    """The system's language if kneeboard has it (Qt's default locale: the system's, unless a default was set),
+    else English."""
+    from PySide6.QtCore import QLocale
+
+    return language_of(QLocale().name()) or ENGLISH
+
+
+def chosen(settings) -> str:
+    """The language the person chose in the settings; "" when they follow the system (or chose nothing valid)."""
+    value = settings.value(SETTING, "")
+    return value if isinstance(value, str) and value in LANGUAGES else ""
+
+
+def start(settings) -> str:
+    """Speak the language the settings name, else the system's; returns it."""
+    use(chosen(settings) or system_language())
+    return language()
+
+
+class Texts:
+    """Texts of widgets kept with their English, so a change of language sets each again.
+
+    `texts.set(button.setText, "Reload")` shows the text now, and `again()` shows every one kept in the language of
+    the moment; setting the same setter again replaces what it showed.
+    """
+
+    def __init__(self):
+        self._kept: dict = {}
+
+    def set(self, setter, message: str, /, **params) -> None:
+        self._kept[setter] = (message, params)
+        setter(tr(message, **params))
+
+    def again(self) -> None:
+        for setter, (message, params) in self._kept.items():
+            setter(tr(message, **params))
+
+
+def translate_tree(widget) -> None:
+    """Show in the app's language the English texts a widget and its children were laid out with (labels, group
+    titles, buttons, check boxes, choices, list items, table heads, placeholders, tips) where the catalogue has
+    them; other text (a file name, a figure, what a person typed) stays as it is. For the widgets of modules that do
+    not mark their own words (`app.shown_words`): they are built again when the language changes."""
+    from PySide6.QtWidgets import (
+        QAbstractButton,
+        QComboBox,
+        QGroupBox,
+        QLabel,
+        QLineEdit,
+        QListWidget,
+        QTableWidget,
+        QWidget,
+    )
+
+    for w in [widget, *widget.findChildren(QWidget)]:
+        if isinstance(w, QLabel) and w.text() or isinstance(w, QAbstractButton) and w.text():
+            w.setText(tr(w.text()))
+        elif isinstance(w, QGroupBox):
+            w.setTitle(tr(w.title()))
+        elif isinstance(w, QComboBox):
+            for i in range(w.count()):
+                w.setItemText(i, tr(w.itemText(i)))
+        elif isinstance(w, QLineEdit) and w.placeholderText():
+            w.setPlaceholderText(tr(w.placeholderText()))
+        elif isinstance(w, QListWidget):
+            for i in range(w.count()):
+                w.item(i).setText(tr(w.item(i).text()))
+        elif isinstance(w, QTableWidget):
+            for i in range(w.columnCount()):
+                if w.horizontalHeaderItem(i) is not None:
+                    w.horizontalHeaderItem(i).setText(tr(w.horizontalHeaderItem(i).text()))
+        if w.toolTip():
+            w.setToolTip(tr(w.toolTip()))
+    if widget.windowTitle():
+        widget.setWindowTitle(tr(widget.windowTitle()))

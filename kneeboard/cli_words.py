@@ -1,0 +1,57 @@
+"""The command line's words in the user's language: its help, its messages and argparse's own, through the
+package's gettext catalogues (`kneeboard.i18n`), as gettext finds the language (LANGUAGE, LC_ALL, LC_MESSAGES,
+LANG; `i18n.locale_language`). English otherwise. Option names, JSON and CSV stay English.
+
+`start()` picks the language once per run, reading the one catalogue it needs (none for English), and gives
+argparse our words for its own ("usage:", "the following arguments are required: %s"): argparse asks Python's
+`gettext` for them, in a domain kneeboard does not ship, so its module's `_` and `ngettext` are pointed at our
+translator for the run. No Qt.
+"""
+
+import argparse
+
+from kneeboard.i18n import ENGLISH, N_, Translator, locale_language, translator
+
+#: argparse's own messages that kneeboard's commands can show, as argparse writes them (Python 3.11 to 3.13),
+#: marked so the catalogues carry them
+ARGPARSE = (
+    N_("usage: "), N_("positional arguments"), N_("options"), N_("show this help message and exit"),
+    N_("argument %(argument_name)s: %(message)s"), N_("unrecognized arguments: %s"),
+    N_("the following arguments are required: %s"), N_("expected one argument"),
+    N_("expected at least one argument"), N_("invalid %(type)s value: %(value)r"),
+    N_("invalid choice: %(value)r (choose from %(choices)s)"), N_("%(prog)s: error: %(message)s\n"),
+    N_("ambiguous option: %(option)s could match %(matches)s"), N_("ignored explicit argument %r"),
+    N_("not allowed with argument %s"), N_("one of the arguments %s is required"),
+)
+
+_current = [translator(ENGLISH)]
+
+
+def tr(message: str, /, **params) -> str:
+    """`message` (marked for the catalogue) in the command line's language, its `{values}` filled in."""
+    return _current[0](message, **params)
+
+
+def plural(singular: str, plural_: str, n: int, /, **params) -> str:
+    return _current[0].plural(singular, plural_, n, **params)
+
+
+def translated() -> Translator:
+    """The command line's translator itself."""
+    return _current[0]
+
+
+def start(environ=None) -> Translator:
+    """Speak the user's locale's language for this run (English when kneeboard has none of it); returns its
+    translator. argparse's own words follow."""
+    language = locale_language(environ)
+    _current[0] = translator(language)
+    if language != ENGLISH:
+        words = _current[0]
+        argparse._ = words  # argparse looks its `_` and `ngettext` up each time it speaks
+        argparse.ngettext = words.plural
+    else:
+        import gettext
+
+        argparse._, argparse.ngettext = gettext.gettext, gettext.ngettext
+    return _current[0]

@@ -1,0 +1,82 @@
+"""The app in the pilot's language: the system's by default, Settings › Language at once, kept for the next
+start; the card's own language is not the app's."""
+
+import pytest
+from PySide6.QtCore import QLocale, Qt
+from PySide6.QtGui import QAction
+from PySide6.QtWidgets import QComboBox, QGroupBox, QLabel
+
+from kneeboard.app import words
+from kneeboard.i18n import translator
+from kneeboard.texts import CAUTION, CAUTION_SHORT
+
+
+@pytest.fixture
+def german_system(settings):
+    """A German system locale (the window reads it when it is made)."""
+    QLocale.setDefault(QLocale(QLocale.Language.German, QLocale.Country.Germany))
+    yield
+    QLocale.setDefault(QLocale(QLocale.Language.English, QLocale.Country.UnitedStates))
+
+
+def menu_titles(window) -> list[str]:
+    return [action.text() for action in window.menuBar().actions()]
+
+
+ENGLISH_MENUS = ["&File", "&Edit", "&Card", "&Settings", "&Help"]
+
+
+def test_the_menus_are_german_under_a_german_system_and_french_once_chosen(qtbot, german_system, window):
+    titles = menu_titles(window)
+    assert titles == ["&Datei", "&Bearbeiten", "&Karte", "&Einstellungen", "&Hilfe"]
+    assert not set(titles) & set(ENGLISH_MENUS)
+    assert window.act_open.text() == "Profil ö&ffnen…" and window.act_export.text() == "Karte als PDF &exportieren…"
+    assert window.fleet.reload.text() == "Neu laden"
+    assert window.act_language[""].isChecked()  # following the system
+    assert window.caution.text() == translator("de")(CAUTION_SHORT)  # the caution on screen, in German
+    labels = {label.text() for label in window.editor.findChildren(QLabel)}
+    assert {"Kennzeichen", "Höchstmasse", "Überziehgeschwindigkeit"} <= labels  # the declared fields' labels
+    assert not {"Registration", "Maximum weight", "Stall speed"} & labels
+
+    window.act_language["fr"].trigger()  # Settings › Language › Français, as a person clicks it
+    assert menu_titles(window) == ["&Fichier", "É&dition", "&Carte", "&Réglages", "&Aide"]
+    assert window.act_open.text() == "&Ouvrir un profil…" and window.fleet.reload.text() == "Recharger"
+    assert window.caution.toolTip() == translator("fr")(CAUTION)  # in full
+    assert window.act_language["fr"].isChecked() and not window.act_language[""].isChecked()
+    assert window.controller.settings.value(words.SETTING) == "fr"  # kept for the next start
+    assert window.fleet.tree.model().headerData(1, Qt.Orientation.Horizontal) == "Immatriculation"  # column heads
+    assert "Aéronef" in [box.title() for box in window.editor.findChildren(QGroupBox)]  # the editor, built again
+
+
+def test_the_chosen_language_wins_over_the_system_at_the_next_start(qtbot, german_system, settings, tmp_path):
+    from kneeboard.app.window import MainWindow
+
+    settings.setValue(words.SETTING, "pl")
+    w = MainWindow(settings, recovery_dir=tmp_path / "recovery")
+    qtbot.addWidget(w)
+    assert menu_titles(w)[0] == "&Plik" and w.act_language["pl"].isChecked()
+    w.act_language[""].trigger()  # back to the system's: German
+    assert menu_titles(w)[0] == "&Datei" and settings.value(words.SETTING) == ""
+
+
+def test_an_english_app_keeps_the_cards_language(qtbot, window, tmp_path):
+    """The card's words come from the style or the profile, never from the app."""
+    assert menu_titles(window) == ENGLISH_MENUS
+    window.act_language["de"].trigger()
+    assert menu_titles(window)[0] == "&Datei"
+    assert window.doc.loaded.table.language == "en"  # the card still prints in English
+    readout = window.readout.label.text()
+    assert "Masse der Karte" in readout and "card weight" not in readout.lower()  # the app's key figures: German
+
+
+def test_the_previews_controls_and_pages_follow_the_language(qtbot, window):
+    from conftest import settle
+
+    settle(qtbot, window.controller)
+    window.act_language["cs"].trigger()
+    preview = window.preview
+    assert preview.findChild(QAction, "fitWidth").text() == "Přizpůsobit šířce"
+    modes = preview.findChild(QComboBox, "modeSelector")
+    assert [modes.itemText(i) for i in range(modes.count())] == ["Karta", "Arch (Letter)", "Arch (A4)"]
+    pages = preview.findChild(QComboBox, "pageSelector")
+    assert [pages.itemText(i) for i in range(pages.count())][:2] == ["Přední strana", "Zadní strana"]
