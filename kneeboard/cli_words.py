@@ -10,7 +10,7 @@ translator for the run. No Qt.
 
 import argparse
 
-from kneeboard.i18n import ENGLISH, N_, Translator, locale_language, translator
+from kneeboard.i18n import ENGLISH, N_, Speaking, Translator, locale_language
 
 #: argparse's own messages that kneeboard's commands can show, as argparse writes them (Python 3.11 to 3.13),
 #: marked so the catalogues carry them
@@ -24,34 +24,25 @@ ARGPARSE = (
     N_("not allowed with argument %s"), N_("one of the arguments %s is required"),
 )
 
-_current = [translator(ENGLISH)]
-
-
-def tr(message: str, /, **params) -> str:
-    """`message` (marked for the catalogue) in the command line's language, its `{values}` filled in."""
-    return _current[0](message, **params)
-
-
-def plural(singular: str, plural_: str, n: int, /, **params) -> str:
-    return _current[0].plural(singular, plural_, n, **params)
+_speaking = Speaking()
+tr, plural = _speaking.tr, _speaking.plural  # `message` (marked for the catalogue) in the command line's language
 
 
 def translated() -> Translator:
     """The command line's translator itself."""
-    return _current[0]
+    return _speaking.translator
 
 
 def start(environ=None) -> Translator:
     """Speak the user's locale's language for this run (English when kneeboard has none of it); returns its
     translator. argparse's own words follow."""
     language = locale_language(environ)
-    _current[0] = translator(language)
+    words = _speaking.use(language)
     if language != ENGLISH:
-        words = _current[0]
         argparse._ = words  # argparse looks its `_` and `ngettext` up each time it speaks
         argparse.ngettext = words.plural
     else:
         import gettext
 
         argparse._, argparse.ngettext = gettext.gettext, gettext.ngettext
-    return _current[0]
+    return words

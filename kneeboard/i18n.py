@@ -179,6 +179,27 @@ def translator(language: str = ENGLISH, soft_hyphens: bool = False) -> Translato
         return Translator(language, gettext.GNUTranslations(f))
 
 
+class Speaking:
+    """The language a program speaks to its user now (the app, the command line), which may change while it runs:
+    `tr`, `plural` and `translator` follow the last `use`. The card's language is its own (`translator`)."""
+
+    def __init__(self):
+        self.translator = translator(ENGLISH)
+
+    def use(self, language: str) -> Translator:
+        """Speak `language` (a key of LANGUAGES) from now on; ValueError for one kneeboard has no catalogue of."""
+        self.translator = translator(language)
+        return self.translator
+
+    def tr(self, message: str, /, **params) -> str:
+        """`message` (marked for the catalogue) in the language spoken now, its `{values}` filled in."""
+        return self.translator(message, **params)
+
+    def plural(self, singular: str, plural_: str, n: int, /, **params) -> str:
+        """The form of a message for `n`, in the language spoken now."""
+        return self.translator.plural(singular, plural_, n, **params)
+
+
 def language_of(name: str) -> str | None:
     """The code of LANGUAGES a locale name speaks ("de_DE.UTF-8", "de-AT", "fr", "pl_PL@euro" -> "de", "de", "fr",
     "pl"); None for a language kneeboard has no catalogue of, and for the "C" and "POSIX" locales."""

@@ -9,7 +9,7 @@ Widgets show `tr("Open profile…")`; a text that is shown again when the langua
 which keeps the English with the widget's setter and sets every one again in the new language.
 """
 
-from kneeboard.i18n import ENGLISH, LANGUAGES, N_, language_of, translator
+from kneeboard.i18n import ENGLISH, LANGUAGES, N_, Speaking, language_of
 
 SETTING = "language"  #: QSettings key: a code of i18n.LANGUAGES, or "" (or nothing) to follow the system
 SYSTEM = N_("The system's language")  #: the language menu's first entry
@@ -20,31 +20,22 @@ CATEGORY_NAMES = {"normal": N_("Normal"), "utility": N_("Utility"), "acrobatic":
 CATEGORY_WORDS = {"normal": N_("normal"), "utility": N_("utility"), "acrobatic": N_("acrobatic"),
                   "glider": N_("glider")}
 
-_current = [translator(ENGLISH)]
-
-
-def tr(message: str, /, **params) -> str:
-    """`message` (marked for the catalogue) in the app's language, its `{values}` filled in."""
-    return _current[0](message, **params)
-
-
-def plural(singular: str, plural_: str, n: int, /, **params) -> str:
-    """The form of a message for `n`, in the app's language."""
-    return _current[0].plural(singular, plural_, n, **params)
+_speaking = Speaking()
+tr, plural = _speaking.tr, _speaking.plural  # `message` (marked for the catalogue) in the app's language
 
 
 def translated() -> object:
     """The app's translator itself (`i18n.Translator`), for what takes one (a comparison's summary line)."""
-    return _current[0]
+    return _speaking.translator
 
 
 def language() -> str:
-    return _current[0].language
+    return _speaking.translator.language
 
 
 def use(code: str) -> None:
     """Speak `code` (a key of i18n.LANGUAGES) from now on."""
-    _current[0] = translator(code)
+    _speaking.use(code)
 
 
 def system_language() -> str:
