@@ -136,18 +136,20 @@ def test_display_reachable_answers_from_the_socket(tmp_path):
 # --- the card package: no import circle ---------------------------------------------------------------------------
 
 
-def card_imports() -> dict[str, set[str]]:
-    """Each module of kneeboard/card/ -> the modules of kneeboard/card/ it imports, at module level or inside a
-    function (a lazy import is still an arrow)."""
+def card_imports(package=None) -> dict[str, set[str]]:
+    """Each module of kneeboard/card/ (or of `package`) -> the modules of it that it imports, at module level or
+    inside a function (a lazy import is still an arrow)."""
     import ast
     from pathlib import Path
 
     import kneeboard.card
 
-    root = Path(kneeboard.card.__file__).parent
+    package = package or kneeboard.card
+    root = Path(package.__file__).parent
+    top = Path(kneeboard.__file__).parent.parent
     modules = {}
     for path in sorted(root.rglob("*.py")):
-        parts = path.relative_to(root.parent.parent).with_suffix("").parts
+        parts = path.relative_to(top).with_suffix("").parts
         modules[".".join(parts[:-1] if parts[-1] == "__init__" else parts)] = path
     graph = {}
     for name, path in modules.items():
@@ -176,6 +178,22 @@ def test_the_card_package_has_no_import_circle():
     assert "kneeboard.card.style" in graph and "kneeboard.card.header" not in graph
     assert "kneeboard.card.draw" in graph["kneeboard.card.blocks.header"]  # the graph sees imports
     assert "kneeboard.card.render" in graph["kneeboard.card"]  # and imports inside functions
+    assert circles_of(graph) == []
+
+
+def test_the_package_has_no_import_circle():
+    """Across every module of kneeboard, imports inside functions counted: the command line's shared parts, the
+    app's places and the inputs each sit below what imports them."""
+    import kneeboard
+
+    graph = card_imports(kneeboard)
+    assert "kneeboard.cli_common" in graph["kneeboard.cli_compare"]  # the graph sees the whole package
+    assert "kneeboard.inputs.toml" in graph["kneeboard.shipped"]  # and imports inside functions
+    assert circles_of(graph) == []
+
+
+def circles_of(graph: dict[str, set[str]]) -> list[list[str]]:
+    """Every import circle a depth-first walk of `graph` meets, each as its modules in order."""
     state: dict[str, int] = {}
     circles = []
 
@@ -191,7 +209,7 @@ def test_the_card_package_has_no_import_circle():
     for module in sorted(graph):
         if module not in state:
             visit(module, [module])
-    assert circles == []
+    return circles
 
 
 def test_card_style_is_a_plain_value():
@@ -199,3 +217,18 @@ def test_card_style_is_a_plain_value():
     heavy = ("kneeboard.card.blocks", "kneeboard.card.draw", "kneeboard.card.layout", "kneeboard.card.logo",
              "kneeboard.card.fonts")
     assert not [d for d in deps if d.startswith(heavy)], deps
+
+
+def test_the_wheel_lists_every_package_of_kneeboard():
+    """setuptools takes the packages as pyproject.toml lists them: a new folder left out of the list is missing
+    from the wheel (tests/test_installed.py finds that too, minutes later)."""
+    import tomllib
+    from pathlib import Path
+
+    import kneeboard
+
+    top = Path(kneeboard.__file__).parent.parent
+    folders = {".".join(p.parent.relative_to(top).parts) for p in (top / "kneeboard").rglob("__init__.py")}
+    listed = set(tomllib.loads((top / "pyproject.toml").read_text(encoding="utf-8"))["tool"]["setuptools"]["packages"])
+    assert "kneeboard.inputs" in folders
+    assert folders <= listed, sorted(folders - listed)
