@@ -12,15 +12,22 @@ import textwrap
 from pathlib import Path
 
 from kneeboard import __version__, starter
+from kneeboard.cli_common import (
+    EXIT_BUG,
+    EXIT_OK,
+    EXIT_OUTPUT,
+    EXIT_PIPE,
+    EXIT_PROBLEMS,
+    print_problems,
+    safely,
+    styles_of,
+)
 from kneeboard.cli_words import plural, start, tr
 from kneeboard.fileio import DEVICE_FAILURES, FileProblem, terminate_cleanly
-from kneeboard.problems import Problem, printable
+from kneeboard.problems import printable
 from kneeboard.texts import CAUTION
 
-EXIT_OK, EXIT_PROBLEMS, EXIT_BUG, EXIT_OUTPUT = 0, 2, 70, 74  #: 74: the output device failed (EX_IOERR)
-EXIT_PIPE = 141  #: the reader of the output went away (128 + SIGPIPE), as a shell tool's exit
 COMMANDS = ("check", "table", "card", "compare", "new", "samples")
-EXIT_CHANGED = 1  #: compare: the printed card is out of date
 PROGRESS_ABOVE = 5  #: more aircraft than this get a progress line on stderr
 
 
@@ -115,20 +122,6 @@ def _parse_banks(text: str | None):
     return tuple(banks)
 
 
-def _print_problems(problems: list[Problem], stream) -> None:
-    for p in problems:
-        print(p, file=stream)  # Problem's text escapes what a file holds (newlines, escape sequences)
-
-
-def _styles(args, styles=None, cards=True, **overrides):
-    """The style of each profile by the one rule; `cards=False`: a command that makes no card loads no card code."""
-    from kneeboard.pipeline import Overrides, Styles
-
-    if styles is not None:  # another run's overrides over the same style files
-        return Styles(styles.explicit, Overrides(**overrides), cards)
-    return Styles(Path(args.style) if getattr(args, "style", None) else None, Overrides(**overrides), cards)
-
-
 def _print_style_problems(styles, paths) -> None:
     """Each style file's problems once, before the profiles that use it."""
     seen = set()
@@ -136,7 +129,7 @@ def _print_style_problems(styles, paths) -> None:
         key = styles.path_for(path)
         if key not in seen:
             seen.add(key)
-            _print_problems(list(styles.for_profile(path)[1]), sys.stderr)
+            print_problems(list(styles.for_profile(path)[1]), sys.stderr)
 
 
 def cmd_check(args) -> int:
@@ -148,14 +141,14 @@ def cmd_check(args) -> int:
         return EXIT_PROBLEMS
     from kneeboard import registrations
 
-    styles = _styles(args, cards=False)
+    styles = styles_of(args, cards=False)
     _print_style_problems(styles, files)
     failed = 0
     registered = []  # (registration as written, file): each file read once, for its check and for this
     for path in files:
-        prepared = _safely(source := read_source(path), styles)
+        prepared = safely(source := read_source(path), styles)
         registered.append((source.registration, path))
-        _print_problems(list(prepared.problems), sys.stdout)
+        print_problems(list(prepared.problems), sys.stdout)
         if prepared.table is None:
             failed += 1
             print(tr("{file}: {n} error(s); no card can be made", file=printable(path), n=len(prepared.errors)))
@@ -168,7 +161,7 @@ def cmd_check(args) -> int:
                            model=a.model, n=len(prepared.profile.configurations), names=names,
                            fingerprint=prepared.fingerprint)))
     duplicates = registrations.duplicates(registered)
-    _print_problems(registrations.problems(duplicates), sys.stdout)  # every file of each duplicate, named
+    print_problems(registrations.problems(duplicates), sys.stdout)  # every file of each duplicate, named
     print(tr(CAUTION))
     return EXIT_PROBLEMS if failed or duplicates else EXIT_OK
 
@@ -176,13 +169,13 @@ def cmd_check(args) -> int:
 def cmd_table(args) -> int:
     from kneeboard.pipeline import prepare_file, report_text
 
-    styles = _styles(args, cards=False, weight=args.weight, bank_angles=_parse_banks(args.bank),
+    styles = styles_of(args, cards=False, weight=args.weight, bank_angles=_parse_banks(args.bank),
                      speed_unit=args.speed_unit, distance_unit=args.distance_unit, language=args.language)
     path = Path(args.profile)
     _print_style_problems(styles, [path])
     prepared = prepare_file(path, styles)
     machine = args.format != "text"
-    _print_problems(list(prepared.problems), sys.stderr)
+    print_problems(list(prepared.problems), sys.stderr)
     if prepared.table is None:
         print(tr("{file}: {n} error(s); no table can be made", file=printable(args.profile), n=len(prepared.errors)),
               file=sys.stderr)
@@ -204,7 +197,7 @@ def cmd_card(args) -> int:
         raise UsageProblem(tr("say where to write: -o OUT.pdf, --each DIR, or both"))
     if args.png is not None and not 36 <= args.png <= 1200:
         raise UsageProblem(tr("--png {dpi}: expected a resolution from 36 to 1200 dpi", dpi=args.png))
-    styles = _styles(args, weight=args.weight, size=args.size, landscape=True if args.landscape else None,
+    styles = styles_of(args, weight=args.weight, size=args.size, landscape=True if args.landscape else None,
                      language=args.language)
     paths = expand_paths(args.profiles)
     if not paths:
@@ -227,8 +220,8 @@ def cmd_card(args) -> int:
         print(f"kneeboard card: {printable(exc)}", file=sys.stderr)
         print(_translated(CAUTION, args.language))
         return EXIT_OUTPUT if exc.device_failed else EXIT_PROBLEMS  # a full disk is no bad input
-    _print_problems(made.warnings, sys.stderr)
-    _print_problems(made.clashes, sys.stderr)  # each file of a duplicate named, instead of a numbered file name
+    print_problems(made.warnings, sys.stderr)
+    print_problems(made.clashes, sys.stderr)  # each file of a duplicate named, instead of a numbered file name
     for failure in made.failures:
         for line in failure.lines:
             print(printable(line), file=sys.stderr)
@@ -267,20 +260,6 @@ def _translated(text: str, language: str | None) -> str:
 def _quoted(name: str) -> str:
     """A name in double quotes (a quote inside it escaped), so a list of names reads apart from its commas."""
     return '"' + name.replace("\\", "\\\\").replace('"', '\\"') + '"'
-
-
-def _safely(source, styles):
-    """Prepare one profile file as read; a bug in the handling of one file is that file's error, not the run's."""
-    from kneeboard.pipeline import Prepared, prepare_source
-
-    try:
-        return prepare_source(source, styles)
-    except Exception as exc:
-        if os.environ.get("KNEEBOARD_DEBUG"):
-            raise
-        problem = Problem("(file)", tr("internal error on this profile, please report it: {error}",
-                                       error=f"{type(exc).__name__}: {exc}"), file=str(source.path))
-        return Prepared(source.path, "", None, None, None, None, (problem,))
 
 
 def cmd_compare(args) -> int:

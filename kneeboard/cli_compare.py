@@ -9,7 +9,7 @@ given (the language the card is made in now for the comparison), else in the use
 import sys
 from pathlib import Path
 
-from kneeboard.cli import EXIT_CHANGED, EXIT_OK, EXIT_PROBLEMS, _print_problems, _safely, _styles
+from kneeboard.cli_common import EXIT_CHANGED, EXIT_OK, EXIT_PROBLEMS, print_problems, safely, styles_of
 from kneeboard.cli_words import translated
 from kneeboard.fileio import FileProblem
 from kneeboard.problems import printable
@@ -52,15 +52,15 @@ def compare(args) -> int:
         cards += [(pdf, data) for data in found]
     if not folder and unread:
         return EXIT_PROBLEMS
-    styles = _styles(args, language=args.language)
+    styles = styles_of(args, language=args.language)
     profiles: dict[str, list] = {}
     for path in expand_paths([profile_path]):
         source = read_source(path)  # read once: a card made for another weight is prepared from it again
-        prepared = _safely(source, styles)
+        prepared = safely(source, styles)
         if prepared.table is not None:
             profiles.setdefault(registrations.key(prepared.table.registration), []).append((prepared, source))
         elif not profile_path.is_dir():
-            _print_problems(list(prepared.errors), sys.stderr)
+            print_problems(list(prepared.errors), sys.stderr)
             print(tr("{file}: {n} error(s); nothing to compare with", file=printable(path), n=len(prepared.errors)),
                   file=sys.stderr)
             return EXIT_PROBLEMS
@@ -84,7 +84,7 @@ def compare(args) -> int:
             continue
         prepared, weight = _at_weight(*found[0], data, args, styles, tr)
         if prepared.table is None:
-            _print_problems(list(prepared.errors), sys.stderr)
+            print_problems(list(prepared.errors), sys.stderr)
             problems += 1
             continue
         changes = compare_figures(figures_of(data), make_card(prepared).figures())
@@ -124,5 +124,5 @@ def _at_weight(prepared, source, data: dict, args, styles, tr):
         return prepared, ""
     said = (tr(" at {weight} (--weight)", weight=weight) if args.weight else
             tr(" at {weight}, the weight the card was made for", weight=weight))
-    return (_safely(source, _styles(args, weight=weight, language=args.language, styles=styles)),
+    return (safely(source, styles_of(args, weight=weight, language=args.language, styles=styles)),
             printable(said))

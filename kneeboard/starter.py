@@ -87,7 +87,7 @@ def copy_samples(folder: Path) -> list[Path]:
 
 
 def cmd_new(args) -> int:
-    from kneeboard.cli import EXIT_OK, EXIT_PROBLEMS
+    from kneeboard.cli_common import EXIT_OK, EXIT_PROBLEMS
     from kneeboard.texts import CAUTION
 
     try:
@@ -104,7 +104,7 @@ def cmd_new(args) -> int:
 
 
 def cmd_samples(args) -> int:
-    from kneeboard.cli import EXIT_OK, EXIT_PROBLEMS
+    from kneeboard.cli_common import EXIT_OK, EXIT_PROBLEMS
     from kneeboard.texts import CAUTION
 
     folder = Path(args.folder)

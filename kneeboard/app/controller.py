@@ -73,7 +73,7 @@ class Controller(QObject):
         self.settings = settings or QSettings("kneeboard", "kneeboard")
         words.start(self.settings)  # the app's own language: the setting's, else the system's
         if recovery_dir is None:
-            from kneeboard.app.main import data_folder
+            from kneeboard.app.places import data_folder
 
             recovery_dir = data_folder() / "recovery"
         self.session = Session()  #: the folder, the style, what was printed

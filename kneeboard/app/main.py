@@ -13,6 +13,7 @@ def run(target: str | None = None) -> int:
     from PySide6.QtWidgets import QApplication
 
     from kneeboard.app.dialogs import show_caution_once
+    from kneeboard.app.places import sample_fleet
     from kneeboard.app.window import MainWindow
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
@@ -45,24 +46,6 @@ def run(target: str | None = None) -> int:
 
     QTimer.singleShot(0, fleet_shown)
     return app.exec()
-
-
-def data_folder() -> Path:
-    """The app's own folder for its data (the sample fleet's copy, crash recovery): `kneeboard` in the system's
-    place for application data (`~/.local/share/kneeboard` on Linux, or under `$XDG_DATA_HOME`). Named here once:
-    Qt's per-application location adds the organization's name to the application's, `kneeboard/kneeboard`."""
-    from PySide6.QtCore import QStandardPaths
-
-    data = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.GenericDataLocation)
-    return Path(data) / "kneeboard" if data else Path.home() / ".kneeboard"
-
-
-def sample_fleet() -> Path:
-    """A copy of the invented sample fleet in the app's data folder, to try the app on and edit freely (the
-    installed samples stay as shipped); files already copied, and a person's edits to them, are kept."""
-    from kneeboard.shipped import copy_samples
-
-    return copy_samples(data_folder() / "sample fleet")
 
 
 def _probe_and_quit(app) -> None:

@@ -102,7 +102,7 @@ def test_an_export_is_confirmed_in_the_status_bar_naming_the_file(qtbot, window,
 
 def test_the_sample_fleet_lives_in_one_kneeboard_folder_and_the_fleet_says_where(qtbot, window, tmp_path,
                                                                                     monkeypatch):
-    from kneeboard.app.main import data_folder, sample_fleet
+    from kneeboard.app.places import data_folder, sample_fleet
 
     monkeypatch.setenv("HOME", str(tmp_path))
     monkeypatch.delenv("XDG_DATA_HOME", raising=False)
