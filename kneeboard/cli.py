@@ -24,14 +24,14 @@ from kneeboard.cli_common import (
 )
 from kneeboard.cli_words import plural, start, tr
 from kneeboard.fileio import DEVICE_FAILURES, FileProblem, terminate_cleanly
-from kneeboard.problems import printable
+from kneeboard.problems import Told, printable
 from kneeboard.texts import CAUTION
 
 COMMANDS = ("check", "table", "card", "compare", "new", "samples")
 PROGRESS_ABOVE = 5  #: more aircraft than this get a progress line on stderr
 
 
-class UsageProblem(Exception):
+class UsageProblem(Told):
     """A bad option value; the message names the option."""
 
 

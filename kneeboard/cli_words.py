@@ -10,7 +10,7 @@ translator for the run. No Qt.
 
 import argparse
 
-from kneeboard.i18n import ENGLISH, N_, Speaking, Translator, locale_language
+from kneeboard.i18n import ENGLISH, N_, USER, Translator, locale_language
 
 #: argparse's own messages that kneeboard's commands can show, as argparse writes them (Python 3.11 to 3.13),
 #: marked so the catalogues carry them
@@ -24,7 +24,7 @@ ARGPARSE = (
     N_("not allowed with argument %s"), N_("one of the arguments %s is required"),
 )
 
-_speaking = Speaking()
+_speaking = USER  # the app and the command line are never one process: each speaks as its user reads
 tr, plural = _speaking.tr, _speaking.plural  # `message` (marked for the catalogue) in the command line's language
 
 

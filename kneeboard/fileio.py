@@ -8,6 +8,8 @@ import tempfile
 import time
 from pathlib import Path
 
+from kneeboard.problems import Told
+
 MAX_FILE_BYTES = 1024 * 1024  #: profiles and styles larger than this are refused unread
 
 
@@ -26,7 +28,7 @@ def terminate_cleanly() -> None:
 DEVICE_FAILURES = frozenset({errno.ENOSPC, errno.EDQUOT, errno.EIO, errno.EROFS})
 
 
-class FileProblem(Exception):
+class FileProblem(Told):
     """A file that cannot be read or written; the message names the file and the reason.
 
     `errno` is the system's error number when one caused it (None otherwise); `device_failed` says the output's

@@ -200,6 +200,12 @@ class Speaking:
         return self.translator.plural(singular, plural_, n, **params)
 
 
+#: The language the person using kneeboard reads its messages in: the command line sets it from the locale
+#: (`cli_words.start`), the app from its setting or the system's (`app.words`); a problem and a refusal are told in it
+#: (`problems.Problem.told`, `problems.Told`). English until one of them speaks.
+USER = Speaking()
+
+
 def language_of(name: str) -> str | None:
     """The code of LANGUAGES a locale name speaks ("de_DE.UTF-8", "de-AT", "fr", "pl_PL@euro" -> "de", "de", "fr",
     "pl"); None for a language kneeboard has no catalogue of, and for the "C" and "POSIX" locales."""

@@ -5,8 +5,11 @@ import unicodedata
 from dataclasses import dataclass, replace
 from typing import Literal
 
+from kneeboard.i18n import N_, USER, Msg
+
 ERROR: Literal["error"] = "error"
 WARNING: Literal["warning"] = "warning"
+SEVERITY_WORDS = {ERROR: N_("error"), WARNING: N_("warning")}  #: as a problem's line says them
 
 
 @dataclass(frozen=True)
@@ -34,10 +37,27 @@ class Problem:
         return replace(self, file=file)
 
     def __str__(self) -> str:
+        return self.told()
+
+    def told(self, tr=None) -> str:
+        """The problem's line in the language of `tr` (an `i18n.Translator`; the user's, `i18n.USER`, when None):
+        its message and what would do translated where they were made as `Msg`; the file, the field's path and
+        the value as written stay as they are."""
+        tr = tr or USER.translator
         where = f"{printable(self.file)}: " if self.file else ""
-        found = f" (found {_show(self.value)})" if self.value is not None else ""
-        wanted = f"; expected {self.expected}" if self.expected else ""
-        return printable(f"{where}{self.severity}: {self.path}: {self.message}{found}{wanted}")
+        found = tr(" (found {value})", value=_show(self.value)) if self.value is not None else ""
+        wanted = tr("; expected {expected}", expected=self.expected) if self.expected else ""
+        message = tr(self.message) if isinstance(self.message, Msg) else self.message
+        return printable(f"{where}{tr(SEVERITY_WORDS[self.severity])}: {self.path}: {message}{found}{wanted}")
+
+
+class Told(Exception):
+    """An exception whose message, made as a `Msg`, is told in the user's language (`i18n.USER`) wherever it is
+    shown; as any exception, its first argument is the message. Mixed into every refusal kneeboard raises."""
+
+    def __str__(self) -> str:
+        message = self.args[0] if self.args else ""
+        return USER.translator(message) if isinstance(message, Msg) else super().__str__()
 
 
 _REPR = reprlib.Repr()  # keyword arguments need Python 3.12

@@ -12,10 +12,10 @@ from pathlib import Path
 
 from kneeboard import shipped
 from kneeboard.cli_words import tr
-from kneeboard.problems import printable
+from kneeboard.problems import Told, printable
 
 
-class Refused(Exception):
+class Refused(Told):
     """Nothing was written; the message names the file and why."""
 
 

@@ -14,6 +14,8 @@ from functools import lru_cache
 
 import pint
 
+from kneeboard.problems import Told
+
 #: Display units a card may use, as written in profiles and styles (named in `unit_names`, which loads no pint).
 from kneeboard.unit_names import DISTANCE_UNITS, SPEED_UNITS, WEIGHT_UNITS  # noqa: F401
 
@@ -65,7 +67,7 @@ _UNIT_TOKEN = re.compile(r"\s*(?:(?P<name>[A-Za-z_°µ][A-Za-z_°µ0-9]*)|(?P<po
                          r"|(?P<op>[*/()]))")
 
 
-class QuantityError(ValueError):
+class QuantityError(Told, ValueError):
     """A value that is not a quantity of the expected kind; `expected` says what would be."""
 
     def __init__(self, message: str, expected: str):

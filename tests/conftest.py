@@ -28,6 +28,17 @@ stall_speed = "50 kt"
 """
 
 
+@pytest.fixture(autouse=True)
+def _the_user_reads_english():
+    """Each test starts with the user's language English (a test of the app in German or of a German locale's
+    command line leaves it so), since problems and refusals are told in it."""
+    from kneeboard.i18n import ENGLISH, USER
+
+    USER.use(ENGLISH)
+    yield
+    USER.use(ENGLISH)
+
+
 def checked(text: str, path=None):
     """A profile text through the whole pipeline (the checks `kneeboard check` makes), with the default style."""
     from kneeboard.inputs.styles import load_style

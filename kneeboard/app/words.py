@@ -9,7 +9,7 @@ Widgets show `tr("Open profile…")`; a text that is shown again when the langua
 which keeps the English with the widget's setter and sets every one again in the new language.
 """
 
-from kneeboard.i18n import ENGLISH, LANGUAGES, N_, Speaking, language_of
+from kneeboard.i18n import ENGLISH, LANGUAGES, N_, USER, language_of
 
 SETTING = "language"  #: QSettings key: a code of i18n.LANGUAGES, or "" (or nothing) to follow the system
 SYSTEM = N_("The system's language")  #: the language menu's first entry
@@ -20,7 +20,7 @@ CATEGORY_NAMES = {"normal": N_("Normal"), "utility": N_("Utility"), "acrobatic":
 CATEGORY_WORDS = {"normal": N_("normal"), "utility": N_("utility"), "acrobatic": N_("acrobatic"),
                   "glider": N_("glider")}
 
-_speaking = Speaking()
+_speaking = USER  # the app and the command line are never one process: each speaks as its user reads
 tr, plural = _speaking.tr, _speaking.plural  # `message` (marked for the catalogue) in the app's language
 
 

@@ -15,6 +15,7 @@ import re
 import zlib
 
 from kneeboard.card.ops import Figure
+from kneeboard.problems import Told
 
 DATA_VERSION = 1
 MARKER = b'{"kneeboard_card": '  #: how every card's data begins (cards made before it was compressed: in clear)
@@ -55,7 +56,7 @@ def card_json(card) -> bytes:
         '{"kneeboard_card":', '{"kneeboard_card": ', 1).encode("ascii")
 
 
-class CardDataProblem(ValueError):
+class CardDataProblem(Told, ValueError):
     """A PDF whose card data cannot be read within the reader's bounds; the message says why (not which file)."""
 
 

@@ -28,6 +28,8 @@ from functools import cache, lru_cache
 from importlib import metadata, resources
 from pathlib import Path
 
+from kneeboard.problems import Told
+
 REGULAR, BOLD = "KbSans", "KbSans-Bold"
 FONT_PACKAGE = "fontpkg-fira-sans"  #: the distribution that ships the font files and their licence
 _MODULE = "fontpkg_fira_sans"
@@ -40,7 +42,7 @@ _SUBSTITUTES = ("\u25a1", "\u25af", "\ufffd", "?")
 _lock = threading.Lock()
 
 
-class FontProblem(RuntimeError):
+class FontProblem(Told, RuntimeError):
     """The card fonts cannot be found or read; the message says what to reinstall."""
 
 

@@ -28,6 +28,7 @@ from kneeboard.card.geometry import BINDING_MARGIN, LARGE_CARDS, MM, SAFE_MARGIN
 from kneeboard.card.ops import Circle, Page, Part
 from kneeboard.card.style import CardStyle
 from kneeboard.i18n import Msg
+from kneeboard.problems import Told
 from kneeboard.tables import CardTable
 
 #: Type scale each card size starts from, before the style's font scale.
@@ -41,7 +42,7 @@ MIN_ROWS = 2  #: a table broken at the foot of a column leaves at least this man
 BACK = "back-header"  #: the top of every face after the first
 
 
-class LayoutError(Exception):
+class LayoutError(Told):
     """Content that cannot be printed legibly on the chosen card; says which blocks and why."""
 
     def __init__(self, block: str, message: str, left_out: tuple[str, ...] = ()):

@@ -14,6 +14,7 @@ from pathlib import Path
 
 from kneeboard.card.svgcheck import MAX_ASPECT, SvgProblem, check_svg
 from kneeboard.fileio import FileProblem, read_bytes
+from kneeboard.problems import Told
 
 MAX_LOGO_BYTES = 2 * 1024 * 1024  #: a logo file larger than this is refused unread
 MAX_PIXELS = 4000 * 4000  #: pixels of a raster logo (or an image inside an SVG), read from its header
@@ -22,7 +23,7 @@ _CHANNELS = {0: 1, 2: 3, 3: 1, 4: 2, 6: 4}  #: samples per pixel of each PNG col
 _ADAM7 = ((0, 0, 8, 8), (4, 0, 8, 8), (0, 4, 4, 8), (2, 0, 4, 4), (0, 2, 2, 4), (1, 0, 2, 2), (0, 1, 1, 2))
 
 
-class LogoProblem(ValueError):
+class LogoProblem(Told, ValueError):
     """A logo that cannot be used; the message says why, without the file's name."""
 
 

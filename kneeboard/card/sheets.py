@@ -14,6 +14,7 @@ from kneeboard.card import fonts
 from kneeboard.card.geometry import MM, SHEET_SIZES
 from kneeboard.card.ops import SMALL, Line, Page, Part, SideText, Text
 from kneeboard.i18n import ENGLISH, translator
+from kneeboard.problems import Told
 
 SHEET_MARGIN = 5 * MM  #: most printers print this close to the edge
 GUTTER = 7 * MM  #: between cards: room for crop marks and the cut
@@ -49,7 +50,7 @@ class Grid:
         return x0 + col * (self.card_w + GUTTER), y_top - (row + 1) * self.card_h - row * GUTTER
 
 
-class SheetError(ValueError):
+class SheetError(Told, ValueError):
     """Cards that cannot be imposed on the chosen sheet; the message says why."""
 
 

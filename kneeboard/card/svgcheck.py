@@ -14,6 +14,8 @@ import re
 import xml.etree.ElementTree as ET
 from dataclasses import dataclass
 
+from kneeboard.problems import Told
+
 MAX_ELEMENTS = 5_000  #: elements in the file
 MAX_DRAWN = 20_000  #: elements drawn once every `<use>` copy is counted
 MAX_DEPTH = 50  #: element nesting
@@ -34,7 +36,7 @@ _PROCESSING = re.compile(r"<\?\s*([A-Za-z_:][-\w.:]*)")
 _FILTER_STYLE = re.compile(r"(?:^|;)\s*filter\s*:", re.IGNORECASE)
 
 
-class SvgProblem(ValueError):
+class SvgProblem(Told, ValueError):
     """An SVG logo refused; the message says what is wrong, without the file's name."""
 
 
