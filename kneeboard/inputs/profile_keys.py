@@ -11,7 +11,7 @@ and (for a quantity the physics uses) carrying it through `compute`.
 from dataclasses import dataclass
 
 from kneeboard import units
-from kneeboard.i18n import LANGUAGES
+from kneeboard.i18n import LANGUAGES, N_
 from kneeboard.profile import (
     AVGAS_DENSITY,
     CATEGORIES,
@@ -30,15 +30,15 @@ FT = 0.3048  # [m]
 
 # Plausible ranges [SI]: beyond them a value is a typo, not an aircraft. The lower ends also keep the ratios the
 # physics takes (card weight / reference weight, ...) far from overflow.
-SPEED_RANGE = (1 * KT, 600 * KT, "above 1 kt and at most 600 kt")
-SINK_RANGE = (0.1, 20.0, "above 0.1 m/s and at most 20 m/s")
-MASS_RANGE = (1.0, 600_000.0, "above 1 kg and at most 600,000 kg")
-ITEM_MASS_RANGE = (-1e-12, MASS_RANGE[1], "from 0 to 600,000 kg")
-VOLUME_RANGE = (-1e-12, 1000.0, "from 0 to 1,000,000 L")
-DENSITY_RANGE = (1.0, 20_000.0, "between 0.001 and 20 kg/L")
-BUFFER_RANGE = (-1e-12, 100 * KT, "from 0 to 100 kt")
-ALTITUDE_RANGE = (-2_000 * FT, 11_000.0, "from -2,000 ft up to the tropopause at 36,089 ft (11,000 m)")
-OAT_RANGE = (173.15, 373.15, "an outside air temperature from -100 to +100 degC")  # [K]
+SPEED_RANGE = (1 * KT, 600 * KT, N_("above 1 kt and at most 600 kt"))
+SINK_RANGE = (0.1, 20.0, N_("above 0.1 m/s and at most 20 m/s"))
+MASS_RANGE = (1.0, 600_000.0, N_("above 1 kg and at most 600,000 kg"))
+ITEM_MASS_RANGE = (-1e-12, MASS_RANGE[1], N_("from 0 to 600,000 kg"))
+VOLUME_RANGE = (-1e-12, 1000.0, N_("from 0 to 1,000,000 L"))
+DENSITY_RANGE = (1.0, 20_000.0, N_("between 0.001 and 20 kg/L"))
+BUFFER_RANGE = (-1e-12, 100 * KT, N_("from 0 to 100 kt"))
+ALTITUDE_RANGE = (-2_000 * FT, 11_000.0, N_("from -2,000 ft up to the tropopause at 36,089 ft (11,000 m)"))
+OAT_RANGE = (173.15, 373.15, N_("an outside air temperature from -100 to +100 degC"))  # [K]
 MAX_BANK_DEG = 85.0  #: steeper than this a level turn's load factor (11.5 g) is no figure for a card
 
 # The kinds of field, each read its own way.
@@ -58,7 +58,8 @@ class Field:
     help: str = ""  #: a sentence on what it is and where it comes from
     required: bool = False
     quantity: units.Kind | None = None  #: QUANTITY: its kind
-    bounds: tuple | None = None  #: QUANTITY: (low, high, wording) in SI, low exclusive; NUMBER: the same, plain
+    bounds: tuple | None = None  #: QUANTITY: (low, high, wording) in SI, low exclusive; NUMBER: the same, plain;
+    #: the wording (what would do, as a problem says it) marked with N_ so a problem tells it in the user's language
     limit: int = 0  #: TEXT / NOTES: most characters
     options: tuple = ()  #: CHOICE: the accepted values
     columns: tuple = ()  #: PAIRS: the two columns' names
@@ -110,7 +111,7 @@ FIELDS: tuple[Field, ...] = (
           default_source="flight manuals publish stall speeds at the maximum weight (common practice)",
           help="The weight the flight manual's stall speeds apply to."),
     Field("aircraft", "limit_load_factor", NUMBER, "Limit load factor",
-          bounds=(1.0, 20.0, "a number above 1 and at most 20, e.g. 3.8"), default_rule="by the category",
+          bounds=(1.0, 20.0, N_("a number above 1 and at most 20, e.g. 3.8")), default_rule="by the category",
           default_source="14 CFR 23.337; CS 22.337 for gliders"),
     Field("aircraft", "maneuvering_speed", QUANTITY, "Maneuvering speed VA", "optional",
           quantity=units.SPEED, bounds=SPEED_RANGE,
@@ -128,7 +129,7 @@ FIELDS: tuple[Field, ...] = (
           help="The flight manual's best-glide speed, engine off, clean; with the glide ratio it gives the "
                "turn-back figures."),
     Field("aircraft", "glide_ratio", NUMBER, "Glide ratio", "e.g. 9 (or give the best-glide sink rate)",
-          bounds=(2.0, 80.0, "a number above 2 and at most 80 (distance gained per height lost), e.g. 9")),
+          bounds=(2.0, 80.0, N_("a number above 2 and at most 80 (distance gained per height lost), e.g. 9"))),
     Field("aircraft", "best_glide_sink", QUANTITY, "Best-glide sink rate", 'instead of the ratio, e.g. "750 fpm"',
           quantity=units.SPEED, bounds=SINK_RANGE,
           help="The sink rate at the best-glide speed; converted to a glide ratio at that speed."),
@@ -151,7 +152,7 @@ FIELDS: tuple[Field, ...] = (
     Field("configuration", "stall_speed", QUANTITY, "Stall speed", "power off, wings level", required=True,
           quantity=units.SPEED, bounds=SPEED_RANGE),
     Field("configuration", "pattern_factor", NUMBER, "Factor",
-          bounds=(1.0, 3.0, "a number above 1 and at most 3 (pattern speed / stall speed), e.g. 1.4"),
+          bounds=(1.0, 3.0, N_("a number above 1 and at most 3 (pattern speed / stall speed), e.g. 1.4")),
           default=DEFAULT_PATTERN_FACTOR,
           default_source="common practice; FAA-H-8083-3 gives about 1.3 VSO on final",
           help="The pattern speed as a factor of the stall speed at the card weight."),
@@ -167,7 +168,7 @@ FIELDS: tuple[Field, ...] = (
           help="Flaps (the default when a flap limit is given) or air brakes lower the limit load factor "
                "(14 CFR 23.345: +2.0 for aeroplanes; CS 22.345: +4.0 with landing flaps, +3.5 with air brakes)."),
     Field("configuration", "limit_load_factor", NUMBER, "Limit load factor",
-          bounds=(1.0, 20.0, "a number above 1 and at most 20, e.g. 2.0"), default_rule="by the regulation",
+          bounds=(1.0, 20.0, N_("a number above 1 and at most 20, e.g. 2.0")), default_rule="by the regulation",
           default_source="14 CFR 23.345; CS 22.345",
           help="The flight manual's own limit load factor in this configuration, if it gives one."),
     # --- a glider's polar ---
@@ -196,7 +197,7 @@ FIELDS: tuple[Field, ...] = (
           default_source="FAA-H-8083-3 (engine failure after take-off: more than 180); 270 common practice",
           help="Heading changes of a turn back to the runway after an engine failure: more than 180 are needed."),
     Field("card", "reaction_time", QUANTITY, "Reaction time", quantity=units.TIME,
-          bounds=(-1e-12, 60.0, "from 0 to 60 s"), default=DEFAULT_REACTION_TIME, default_unit="s",
+          bounds=(-1e-12, 60.0, N_("from 0 to 60 s")), default=DEFAULT_REACTION_TIME, default_unit="s",
           default_source="common practice",
           help="Seconds of straight glide before the turn back begins."),
     Field("card", "language", CHOICE, "Language", options=tuple(LANGUAGES), default="en",

@@ -12,7 +12,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from kneeboard.fileio import FileProblem, read_text
-from kneeboard.inputs.toml import parse_text
+from kneeboard.inputs.toml import parse_text, unreadable
 from kneeboard.problems import Problem
 
 PROFILE_SUFFIX = ".toml"
@@ -109,7 +109,7 @@ def read_text_once(path: Path) -> Unparsed:
     try:
         return Unparsed(path, read_text(path))
     except FileProblem as exc:
-        return Unparsed(path, None, Problem("(file)", str(exc).removeprefix(f"{path}: "), file=str(path)))
+        return Unparsed(path, None, unreadable(exc, path))
 
 
 def profile_files(folder: Path) -> list[Path]:

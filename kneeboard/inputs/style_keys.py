@@ -10,7 +10,7 @@ Nothing here loads the units library, the fonts, reportlab or Qt: the command li
 from dataclasses import dataclass
 
 from kneeboard.card.geometry import CARD_SIZES
-from kneeboard.i18n import LANGUAGES
+from kneeboard.i18n import LANGUAGES, Msg, Num
 from kneeboard.unit_names import DISTANCE_UNITS, SPEED_UNITS
 
 # kinds of value
@@ -49,7 +49,7 @@ class StyleKey:
     step: float = 0.0  #: NUMBER: the dialog's step
     unit: str = ""  #: the unit of a number or of a list's numbers
     limit: int = 0  #: TEXT, FILE: characters
-    refusal: str = "is not accepted"  #: CHOICE: what a value outside the options is told
+    refusal: str = Msg("is not accepted")  #: CHOICE: what a value outside the options is told (a Msg)
 
     def shown(self, option: str) -> str:
         """An option as the dialog shows it."""
@@ -57,19 +57,21 @@ class StyleKey:
 
     @property
     def expected(self) -> str:
-        """What would do, as a problem says it."""
+        """What would do, as a problem says it (a `Msg`, told in the user's language; a choice's options and the
+        format's key as the file writes them)."""
         if self.kind == CHOICE:
             return " | ".join(self.options)
+        least, most = (f"{b:g}" for b in self.bounds) if self.bounds else ("", "")
         if self.kind == NUMBER:
-            return f"a number from {self.bounds[0]:g} to {self.bounds[1]:g}"
+            return Msg("a number from {least} to {most}", least=Num(least), most=Num(most))
         if self.kind == COUNT:
-            return f"a whole number of faces from {self.bounds[0]:g} to {self.bounds[1]:g} (two to a card)"
+            return Msg("a whole number of faces from {least} to {most} (two to a card)", least=least, most=most)
         if self.kind == TEXT:
-            return f"text on one line of up to {self.limit} characters"
+            return Msg("text on one line of up to {limit} characters", limit=str(self.limit))
         if self.kind == COLOUR:
-            return 'a colour as "#RRGGBB", e.g. "#1B5E8C"'
+            return Msg('a colour as "#RRGGBB", e.g. "#1B5E8C"')
         if self.kind == FILE:
-            return "a PNG or SVG file in the style's folder or below it"
+            return Msg("a PNG or SVG file in the style's folder or below it")
         if self.kind == VERSION:
             return f"style = {STYLE_VERSION}"
         return ""
@@ -110,6 +112,6 @@ KEYS = (
              options=DISTANCE_UNITS),
     StyleKey("language", CHOICE, None, "each profile's own (English when it names none)",
              help="the language of every card's words", options=tuple(LANGUAGES),
-             refusal="is not a language kneeboard prints"),
+             refusal=Msg("is not a language kneeboard prints")),
 )
 BY_KEY = {k.key: k for k in KEYS}

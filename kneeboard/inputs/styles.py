@@ -16,16 +16,27 @@ from kneeboard.card.block_names import known as known_blocks
 from kneeboard.card.logocheck import LogoProblem, read_logo
 from kneeboard.card.style import CardStyle
 from kneeboard.fileio import FileProblem, read_text
+from kneeboard.i18n import Msg
 from kneeboard.inputs import style_keys as sk
 from kneeboard.inputs.banks import read_banks
-from kneeboard.inputs.toml import parse_text
+from kneeboard.inputs.toml import TOO_DEEP, parse_text, unreadable
 
 # the profile's own text rules, so a style's text is held to the same (controls, bidi and zero-width marks)
-from kneeboard.inputs.values import first_non_text, key_text
+from kneeboard.inputs.values import (
+    MUST_BE_TEXT,
+    ONE_LINE,
+    OUT_OF_RANGE,
+    control_character,
+    first_non_text,
+    key_text,
+    told,
+    too_long,
+)
 from kneeboard.problems import ERROR, WARNING, Problem
 from kneeboard.shipped import FLEET_STYLE, default_style_path  # noqa: F401  (FLEET_STYLE: the style of a fleet)
 
 _COLOUR = re.compile(r"#[0-9A-Fa-f]{6}\Z")
+EACH_BLOCK_ONCE = Msg("each block once")
 
 
 def fleet_style_path(folder: Path) -> Path | None:
@@ -44,12 +55,12 @@ def load_style(path: Path | None = None) -> tuple[CardStyle | None, list[Problem
     try:
         text = read_text(path)
     except FileProblem as exc:
-        return None, [Problem("(file)", str(exc).removeprefix(f"{path}: "), file=str(path))]
+        return None, [unreadable(exc, path)]
     data, problems = parse_text(text)
     if data is None:
-        wanted = "a card style file as described in the README"
-        return None, [Problem(p.path, p.message.replace("to be a profile", "to be a style"), wanted, file=str(path))
-                      for p in problems]
+        wanted = Msg("a card style file as described in the README")
+        return None, [Problem(p.path, Msg("nests too deeply to be a style") if p.message == TOO_DEEP else p.message,
+                              wanted, file=str(path)) for p in problems]
     style, problems = style_from_data(data, path.parent)
     problems = [p.in_file(str(path)) for p in problems]
     return (None if any(p.is_error for p in problems) else replace(style, source=path)), problems
@@ -72,7 +83,7 @@ def style_from_data(data: dict, folder: Path) -> tuple[CardStyle, list[Problem]]
     data = _spelling(data, bad)
     for key in data:
         if key not in sk.BY_KEY:
-            bad(key_text(key), "unknown key, not used", "", data[key], WARNING)
+            bad(key_text(key), Msg("unknown key, not used"), "", data[key], WARNING)
     values = {}
     for decl in sk.KEYS:
         values[decl.key] = _READERS[decl.kind](decl, data, bad, folder) if decl.key in data else decl.default
@@ -104,9 +115,10 @@ def _spelling(data: dict, bad) -> dict:
     if old not in data:
         return data
     if "organization" in data:
-        bad(old, "is given as well as organization; organization is used", "one of them", data[old], WARNING)
+        bad(old, Msg("is given as well as organization; organization is used"), Msg("one of them"), data[old],
+            WARNING)
     else:
-        bad(old, "is the older spelling of this key; it is read, but write organization", "organization",
+        bad(old, Msg("is the older spelling of this key; it is read, but write organization"), "organization",
             data[old], WARNING)
         data = {**data, "organization": data[old]}
     return {k: v for k, v in data.items() if k != old}
@@ -116,11 +128,11 @@ def _cross_checks(values: dict, data: dict, bad) -> None:
     """The checks of more than one key, all here."""
     front, back = values["front"], values["back"]
     for name in set(front or ()) & set(back):
-        bad("back", f"{name!r} is listed on both the front and the back", "each block once", name)
+        bad("back", Msg("{name} is listed on both the front and the back", name=repr(name)), EACH_BLOCK_ONCE, name)
     if front is not None and not front and not back:
         # the card would print its caution and footer alone: no registration heading, no figure
-        bad("front", "shows no block: the card would print no figure", "at least one block, e.g. \"header\", "
-            "\"margin-table\"", data.get("front"))
+        bad("front", Msg("shows no block: the card would print no figure"),
+            Msg('at least one block, e.g. "header", "margin-table"'), data.get("front"))
 
 
 # --- one reader per kind of key; each is called only for a key the file holds -------------------------------------
@@ -129,7 +141,7 @@ def _cross_checks(values: dict, data: dict, bad) -> None:
 def _version(decl, data, bad, _folder):
     value = data[decl.key]
     if not isinstance(value, int) or isinstance(value, bool) or not 1 <= value <= sk.STYLE_VERSION:
-        bad(decl.key, "is not a style format this kneeboard reads", decl.expected, value)
+        bad(decl.key, Msg("is not a style format this kneeboard reads"), decl.expected, value)
     return value
 
 
@@ -137,14 +149,14 @@ def _text(decl, data, bad, _folder) -> str:
     """One line of text held to the profile's text rules (its width on the card is checked where cards are made)."""
     value = data[decl.key]
     if not isinstance(value, str):
-        bad(decl.key, "must be text in quotes", decl.expected, value)
+        bad(decl.key, MUST_BE_TEXT, decl.expected, value)
         return decl.default
     if len(value) > decl.limit:
-        bad(decl.key, f"is {len(value)} characters long", decl.expected, value)
+        bad(decl.key, too_long(value), decl.expected, value)
         return decl.default
     odd = first_non_text(value)
     if odd is not None:
-        bad(decl.key, f"contains the control character U+{ord(odd):04X}", "printable text on one line", value)
+        bad(decl.key, control_character(odd), ONE_LINE, value)
         return decl.default
     return value
 
@@ -160,7 +172,7 @@ def _choice(decl, data, bad, _folder):
 def _colour(decl, data, bad, _folder) -> str:
     value = data[decl.key]
     if not isinstance(value, str) or not _COLOUR.match(value):
-        bad(decl.key, "is not a colour", decl.expected, value)
+        bad(decl.key, Msg("is not a colour"), decl.expected, value)
         return decl.default
     return value
 
@@ -169,7 +181,7 @@ def _number(decl, data, bad, _folder) -> float:
     value = data[decl.key]
     low, high = decl.bounds
     if isinstance(value, bool) or not isinstance(value, (int, float)) or not low <= value <= high:
-        bad(decl.key, "is out of range", decl.expected, value)
+        bad(decl.key, OUT_OF_RANGE, decl.expected, value)
         return decl.default
     return float(value)
 
@@ -178,7 +190,7 @@ def _count(decl, data, bad, _folder) -> int | None:
     value = data[decl.key]
     low, high = decl.bounds
     if isinstance(value, bool) or not isinstance(value, int) or not low <= value <= high:
-        bad(decl.key, "is not accepted", decl.expected, value)
+        bad(decl.key, Msg("is not accepted"), decl.expected, value)
         return decl.default
     return value
 
@@ -188,13 +200,14 @@ def _blocks(decl, data, bad, _folder):
     known = known_blocks()
     value = data[decl.key]
     if not isinstance(value, list) or not all(isinstance(v, str) for v in value):
-        bad(decl.key, "must be a list of block names", ", ".join(known), value)
+        bad(decl.key, Msg("must be a list of block names"), ", ".join(known), value)
         return decl.default
     unknown = [v for v in value if v not in known]
     if unknown:
-        bad(decl.key, f"names unknown blocks: {', '.join(map(str, unknown))}", ", ".join(known), value)
+        bad(decl.key, Msg("names unknown blocks: {blocks}", blocks=", ".join(map(str, unknown))), ", ".join(known),
+            value)
     if len(set(value)) != len(value):
-        bad(decl.key, "lists a block twice", "each block once", value)
+        bad(decl.key, Msg("lists a block twice"), EACH_BLOCK_ONCE, value)
     return tuple(dict.fromkeys(v for v in value if v in known))
 
 
@@ -209,28 +222,28 @@ def _logo(decl, data, bad, folder: Path) -> tuple[Path, bytes] | None:
         return None
     expected = decl.expected
     if not isinstance(value, str) or len(value) > decl.limit:
-        bad(decl.key, "is not a file name", expected, value)
+        bad(decl.key, Msg("is not a file name"), expected, value)
         return None
     if first_non_text(value) is not None:  # a NUL too: no file is named so
-        bad(decl.key, "holds a control character; no file is named so", expected, value)
+        bad(decl.key, Msg("holds a control character; no file is named so"), expected, value)
         return None
     try:
         base = Path(folder).resolve()
         path = (base / value).resolve()
     except (OSError, RuntimeError, ValueError):  # a symbolic link loop (RuntimeError until Python 3.13)
-        bad(decl.key, "its symbolic links form a loop; refused", expected, value)
+        bad(decl.key, Msg("its symbolic links form a loop; refused"), expected, value)
         return None
     if Path(value).is_absolute() or not path.is_relative_to(base):
-        bad(decl.key, "points outside the style's folder; refused", expected, value)
+        bad(decl.key, Msg("points outside the style's folder; refused"), expected, value)
         return None
     if path.suffix.lower() not in (".png", ".svg"):
-        bad(decl.key, "is not a PNG or SVG file", expected, value)
+        bad(decl.key, Msg("is not a PNG or SVG file"), expected, value)
         return None
     try:
         return path, read_logo(path).data
     except LogoProblem as exc:
-        bad(decl.key, str(exc), "a PNG or SVG logo (see the README)" if "no such file" not in str(exc) else expected,
-            value)
+        missing = "no such file" in str(exc.args[0] if exc.args else exc)  # in English, whatever the user reads
+        bad(decl.key, told(exc), expected if missing else Msg("a PNG or SVG logo (see the README)"), value)
         return None
 
 

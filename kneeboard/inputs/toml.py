@@ -17,13 +17,16 @@ from pathlib import Path
 import tomlkit
 
 from kneeboard.fileio import MAX_FILE_BYTES, FileProblem, read_text, write_atomic
+from kneeboard.i18n import Msg
 from kneeboard.problems import Problem
 
 Document = tomlkit.TOMLDocument  #: an editable TOML file: a dict that keeps comments and layout
 
 MAX_DEPTH = 16  #: a profile nests 5 levels deep; far deeper is an attack or an accident, refused unread
 MAX_CHARACTERS = MAX_FILE_BYTES  #: a text no file read from disk could hold (a character is at least a byte)
-WANTED = "a TOML file as described in the README"
+WANTED = Msg("a TOML file as described in the README")
+#: what a text nested too deeply for the parser is told (a style's reader says "a style")
+TOO_DEEP = Msg("nests too deeply to be a profile")
 
 
 def parse_text(text: str) -> tuple[dict | None, list[Problem]]:
@@ -34,13 +37,14 @@ def parse_text(text: str) -> tuple[dict | None, list[Problem]]:
     try:
         data = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
-        return None, [Problem("(file)", f"is not valid TOML: {exc}", WANTED)]
+        return None, [Problem("(file)", Msg("is not valid TOML: {detail}", detail=str(exc)), WANTED)]
     except ValueError as exc:  # e.g. an integer longer than Python converts (4300 digits)
-        return None, [Problem("(file)", f"holds a value that cannot be read: {str(exc)[:80]}", WANTED)]
+        return None, [Problem("(file)", Msg("holds a value that cannot be read: {detail}", detail=str(exc)[:80]),
+                              WANTED)]
     except RecursionError:
-        return None, [Problem("(file)", "nests too deeply to be a profile", WANTED)]
+        return None, [Problem("(file)", TOO_DEEP, WANTED)]
     if _depth(data) > MAX_DEPTH:
-        return None, [Problem("(file)", f"nests more than {MAX_DEPTH} levels deep", WANTED)]
+        return None, [Problem("(file)", _nests_deeper(), WANTED)]
     return data, []
 
 
@@ -48,13 +52,13 @@ def document_from_text(text: str, file: str = "") -> Document:
     """The editable document of a TOML text; raises FileProblem (naming `file`) when it cannot be one."""
     refused = _refused(text)
     if refused:
-        raise FileProblem(f"{file}: {refused}")
+        raise FileProblem(Msg("{file}: {problem}", file=file, problem=refused))
     try:
         document = tomlkit.parse(text)
     except Exception as exc:  # tomlkit raises its own ParseError family and occasionally others
-        raise FileProblem(f"{file}: is not valid TOML: {exc}") from None
+        raise FileProblem(Msg("{file}: is not valid TOML: {detail}", file=file, detail=str(exc))) from None
     if _depth(document) > MAX_DEPTH:
-        raise FileProblem(f"{file}: nests more than {MAX_DEPTH} levels deep")
+        raise FileProblem(Msg("{file}: {problem}", file=file, problem=_nests_deeper()))
     return document
 
 
@@ -83,13 +87,30 @@ def new_array_of_tables():
     return tomlkit.aot()
 
 
+def unreadable(exc: FileProblem, path) -> Problem:
+    """The problem of a file that cannot be read (field "(file)", naming the file): what `exc` says after the file's
+    name, as a `Msg` where it was made as one "{file}: {problem}", so the problem tells it in any language; else its
+    text in the user's language."""
+    message, prefix = (exc.args[0] if exc.args else ""), f"{path}: "
+    said = re.fullmatch(r"\{(\w+)\}: \{(\w+)\}", getattr(message, "template", ""))
+    if isinstance(message, Msg) and said and str(message).startswith(prefix) \
+            and str(message.params.get(said[1])) == str(path):
+        return Problem("(file)", message.params[said[2]], file=str(path))
+    return Problem("(file)", str(exc).removeprefix(prefix), file=str(path))
+
+
 def _refused(text: str) -> str:
     """Why a text is refused before any parsing, or ""."""
     if len(text) > MAX_CHARACTERS:
-        return f"is larger than {MAX_CHARACTERS // 1024} KiB: far larger than a profile or a style could be"
+        return Msg("is larger than {size} KiB: far larger than a profile or a style could be",
+                   size=str(MAX_CHARACTERS // 1024))
     if _deepest_key(text) > MAX_DEPTH:
-        return f"has keys nested more than {MAX_DEPTH} levels deep"
+        return Msg("has keys nested more than {depth} levels deep", depth=str(MAX_DEPTH))
     return ""
+
+
+def _nests_deeper() -> Msg:
+    return Msg("nests more than {depth} levels deep", depth=str(MAX_DEPTH))
 
 
 # strings and comments, whose dots are no key's: skipped whole in one linear pass. Possessive loops and optional

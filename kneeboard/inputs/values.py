@@ -22,6 +22,30 @@ READ_BY_DECLARATION = (profile_keys.QUANTITY, profile_keys.NUMBER, profile_keys.
 #: How the card tells of an entry of the profile that nothing reads (gathered into one line with their count)
 UNKNOWN_ENTRY = Msg("An entry of the profile is not read; the card is made without it: check no figure is missing")
 
+# the messages several fields share
+REQUIRED = Msg("is required")
+OUT_OF_RANGE = Msg("is out of range")
+MUST_BE_TEXT = Msg("must be text in quotes")
+ONE_LINE = Msg("printable text on one line")
+
+
+def too_long(text: str) -> Msg:
+    """What a text longer than its field allows is told."""
+    return Msg("is {length} characters long", length=str(len(text)))
+
+
+def control_character(ch: str) -> Msg:
+    """What a text holding a control (or bidi, zero-width) character is told: the character by its code point."""
+    code = f"{ord(ch):04X}"
+    return Msg("contains the control character U+{code}", code=code)
+
+
+def told(exc: Exception) -> str:
+    """The message of a refusal (a quantity's, a logo's) as a problem carries it: the `Msg` it was made as, so the
+    problem tells it in whatever language it is shown in; else its text."""
+    message = exc.args[0] if exc.args else ""
+    return message if isinstance(message, Msg) else str(exc)
+
 
 class Reader:
     """Reads fields one by one and keeps every problem it finds."""
@@ -36,10 +60,10 @@ class Reader:
         value = data.get(key)
         if value is None:
             if required:
-                self.problem(path, "the section is missing", f"a [{path}] section")
+                self.problem(path, Msg("the section is missing"), Msg("a [{section}] section", section=path))
             return None
         if not isinstance(value, dict):
-            self.problem(path, "must be a section (a [table])", f"a [{path}] section", value)
+            self.problem(path, Msg("must be a section (a [table])"), Msg("a [{section}] section", section=path), value)
             return None
         return value
 
@@ -57,18 +81,18 @@ class Reader:
             if close and not prefix and close[0] in profile_keys.SECTIONS and isinstance(data[key], (dict, list)):
                 # named at the section it looks like: that is the field the person will look for
                 # one sentence: the suggestion is what would do, so it is not said a second time as "expected"
-                self.problem(close[0], f"[{key_text(key)}] is not a section of a profile; did you mean "
-                             f"[{close[0]}]?")
+                self.problem(close[0], Msg("[{key}] is not a section of a profile; did you mean [{section}]?",
+                                           key=key_text(key), section=close[0]))
             elif close:
                 near = profile_keys.BY_PATH.get(re.sub(r"\[\d+\]", "", f"{prefix}.{close[0]}"))
-                self.problem(path, f"unknown key, kept in the file but not used; did you mean {close[0]}?",
+                self.problem(path, Msg("unknown key, kept in the file but not used; did you mean {key}?", key=close[0]),
                              value=data[key], severity=WARNING,
                              plain=UNKNOWN_ENTRY if near is None else
                              Msg("An entry of the profile looks like a misspelt '{field}' and is not read: check "
                                  "that figure", field=near.label))
             else:
-                self.problem(path, "unknown key, kept in the file but not used", value=data[key], severity=WARNING,
-                             plain=UNKNOWN_ENTRY)
+                self.problem(path, Msg("unknown key, kept in the file but not used"), value=data[key],
+                             severity=WARNING, plain=UNKNOWN_ENTRY)
 
     def read(self, name: str, data: dict, path: str | None = None, default=None):
         """The value of the declared field `name` ("aircraft.max_weight") from its table `data`, checked by its
@@ -101,7 +125,7 @@ class Reader:
     def quantity(self, data, key, path, kind, bounds=None, required=False):
         if key not in data:
             if required:
-                self.problem(path, "is required", f"a {kind.name} such as {kind.examples}")
+                self.problem(path, REQUIRED, Msg("a {kind} such as {examples}", kind=kind.name, examples=kind.examples))
             return None
         return self.quantity_value(data[key], path, kind, bounds)
 
@@ -109,54 +133,54 @@ class Reader:
         try:
             value = units.parse(raw, kind)
         except units.QuantityError as exc:
-            self.problem(path, str(exc), exc.expected, raw)
+            self.problem(path, told(exc), exc.expected, raw)
             return None
         if bounds is not None:
             low, high, wording = bounds
             if not low < value <= high:
-                self.problem(path, "is out of range", f"a {kind.name} {wording}", raw)
+                self.problem(path, OUT_OF_RANGE, Msg("a {kind} {wording}", kind=kind.name, wording=wording), raw)
                 return None
         return value
 
     def number(self, data, key, path, low, high, wording, required=False):
         if key not in data:
             if required:
-                self.problem(path, "is required", wording)
+                self.problem(path, REQUIRED, wording)
             return None
         raw = data[key]
         if isinstance(raw, bool) or not isinstance(raw, (int, float)):
-            self.problem(path, "must be a plain number", wording, raw)
+            self.problem(path, Msg("must be a plain number"), wording, raw)
             return None
         if not (finite(raw) and low < raw <= high):
-            self.problem(path, "is out of range", wording, raw)
+            self.problem(path, OUT_OF_RANGE, wording, raw)
             return None
         return float(raw)
 
     def text(self, data, key, path, limit, required=False, default="", multiline=False):
         if key not in data:
             if required:
-                self.problem(path, "is required", f"text of 1 to {limit} characters")
+                self.problem(path, REQUIRED, Msg("text of 1 to {limit} characters", limit=str(limit)))
             return default
         raw = data[key]
         if not isinstance(raw, str):
-            self.problem(path, "must be text in quotes", f"text of up to {limit} characters", raw)
+            self.problem(path, MUST_BE_TEXT, Msg("text of up to {limit} characters", limit=str(limit)), raw)
             return default
         if len(raw) > limit:
-            self.problem(path, f"is {len(raw)} characters long", f"text of up to {limit} characters", raw)
+            self.problem(path, too_long(raw), Msg("text of up to {limit} characters", limit=str(limit)), raw)
             return raw[:limit]
         bad = first_non_text(raw, "\n" if multiline else "")
         if bad is not None:
-            self.problem(path, f"contains the control character U+{ord(bad):04X}",
-                         "printable text" + (" (line breaks are fine)" if multiline else " on one line"), raw)
+            self.problem(path, control_character(bad),
+                         Msg("printable text (line breaks are fine)") if multiline else ONE_LINE, raw)
             return default
         if required and not raw.strip():
-            self.problem(path, "must not be empty", f"text of 1 to {limit} characters", raw)
+            self.problem(path, Msg("must not be empty"), Msg("text of 1 to {limit} characters", limit=str(limit)), raw)
         return raw.strip() if required else raw
 
     def choice(self, data, key, path, options, default):
         raw = data.get(key, default)
         if raw not in options:
-            self.problem(path, "is not one of the accepted values", " | ".join(options), raw)
+            self.problem(path, Msg("is not one of the accepted values"), " | ".join(options), raw)
             return default
         return raw
 
@@ -164,16 +188,16 @@ class Reader:
         raw = data.get("calibration")
         if raw is None:
             return None
-        wanted = 'at least two [IAS, CAS] pairs, ascending, e.g. [["40 kt", "44 kt"], ["60 kt", "61 kt"]]'
+        wanted = Msg('at least two [IAS, CAS] pairs, ascending, e.g. [["40 kt", "44 kt"], ["60 kt", "61 kt"]]')
         if not isinstance(raw, list) or len(raw) < 2 or len(raw) > MAX_POLAR_POINTS:
-            self.problem(path, "must be a list of [IAS, CAS] pairs", wanted, raw)
+            self.problem(path, Msg("must be a list of [IAS, CAS] pairs"), wanted, raw)
             return None
         pairs = self.pairs(raw, path, (units.SPEED, SPEED_RANGE), (units.SPEED, SPEED_RANGE), wanted)
         if pairs is None:
             return None
         ias, cas = zip(*pairs)
         if any(b <= a for a, b in zip(ias, ias[1:])) or any(b <= a for a, b in zip(cas, cas[1:])):
-            self.problem(path, "the pairs are not in strictly ascending order", wanted, raw)
+            self.problem(path, Msg("the pairs are not in strictly ascending order"), wanted, raw)
             return None
         return Calibration(tuple(ias), tuple(cas))
 
@@ -183,7 +207,7 @@ class Reader:
         for i, pair in enumerate(raw, start=1):
             here = f"{path}[{i}]"
             if not isinstance(pair, list) or len(pair) != 2:
-                self.problem(here, "must be a pair of two quantities", wanted, pair)
+                self.problem(here, Msg("must be a pair of two quantities"), wanted, pair)
                 return None
             a = self.quantity_value(pair[0], f"{here}[1]", *first)
             b = self.quantity_value(pair[1], f"{here}[2]", *second)
