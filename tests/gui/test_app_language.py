@@ -124,3 +124,29 @@ def test_the_previews_controls_and_pages_follow_the_language(qtbot, window):
     assert [modes.itemText(i) for i in range(modes.count())] == ["Karta", "Arch (Letter)", "Arch (A4)"]
     pages = preview.findChild(QComboBox, "pageSelector")
     assert [pages.itemText(i) for i in range(pages.count())][:2] == ["Přední strana", "Zadní strana"]
+
+
+def test_a_problem_is_told_in_the_apps_language_in_the_editor_and_the_problems_dialog(qtbot, german_system, window):
+    """The frame words are the app's language (the command line's); the path and the value as written are not."""
+    from conftest import settle
+
+    from kneeboard.app.dialogs import ProblemsDialog
+    from kneeboard.i18n import Msg, Num
+    from kneeboard.problems import ERROR, Problem
+
+    field = window.editor.fields["weight.total"]
+    field.input.setFocus()
+    field.input.selectAll()
+    qtbot.keyClicks(field.input, "1450 kt")  # a speed where a weight belongs
+    settle(qtbot, window.controller)
+    listed = [window.editor.problem_list.item(i).text() for i in range(window.editor.problem_list.count())]
+    assert [line for line in listed if line.startswith("Fehler: weight.total: ")], listed
+    assert not [line for line in listed if line.startswith("error")]
+    assert field.problem_label.text().startswith("Fehler: ") and "; erwartet " in field.problem_label.text()
+
+    problem = Problem("card.buffer", Msg("{buffer} kt is below the least", buffer=Num("2.5")),
+                      Msg("at least {least} kt", least=Num("3.5")), "2.5 kt", ERROR)
+    dialog = ProblemsDialog("trainer.toml", [problem])
+    qtbot.addWidget(dialog)
+    assert dialog.rows() == [("FEHLER", "card.buffer", "2,5 kt is below the least", "'2.5 kt'", "at least 3,5 kt")]
+    assert dialog.table.item(0, 0).toolTip().startswith("Fehler: card.buffer: 2,5 kt")  # the whole line on hover
