@@ -29,7 +29,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard.app.words import tr, translated
+from kneeboard.app.words import told, tr, translated
 from kneeboard.fileio import FileProblem
 from kneeboard.i18n import N_
 from kneeboard.problems import Problem
@@ -197,8 +197,9 @@ class ProblemsDialog(QDialog):
         super().__init__(parent)
         self.setWindowTitle(title)
         ordered = sorted(problems, key=lambda p: not p.is_error)  # stable: file order within each severity
-        rows = [(tr(SEVERITIES.get(p.severity, p.severity.upper())), p.path, p.message, _found(p.value), p.expected)
-                for p in ordered]
+        # what is wrong and what would do in the app's language (made as Msg); the path and the value as written
+        rows = [(tr(SEVERITIES.get(p.severity, p.severity.upper())), p.path, told(p.message), _found(p.value),
+                 told(p.expected)) for p in ordered]
         errors = sum(p.is_error for p in ordered)
         layout = QVBoxLayout(self)
         summary = tr("{errors} error(s), {warnings} warning(s).", errors=errors, warnings=len(ordered) - errors)

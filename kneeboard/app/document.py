@@ -30,6 +30,7 @@ from kneeboard.fileio import (
     same_file,
     write_atomic,
 )
+from kneeboard.i18n import Msg
 from kneeboard.inputs import toml
 from kneeboard.inputs.migration import backup_path, file_format, migrate_text
 from kneeboard.inputs.toml import document_from_text
@@ -57,7 +58,8 @@ def disk_state(path: Path) -> tuple[bytes, DiskState]:
     try:
         info = os.stat(path)
     except OSError as exc:
-        raise FileProblem(f"{path}: cannot be read ({exc.strerror or exc})") from None
+        raise FileProblem(Msg("{path}: cannot be read ({reason})", path=str(path), reason=exc.strerror or str(exc))) \
+            from None
     return data, DiskState(hashlib.sha256(data).hexdigest(), info.st_mtime_ns, info.st_size)
 
 
@@ -283,15 +285,15 @@ class ProfileDocument(QObject):
         """
         target = Path(path) if path is not None else self.path
         if target is None:
-            raise FileProblem("the profile has no file yet; choose where to save it")
+            raise FileProblem(Msg("the profile has no file yet; choose where to save it"))
         # its own file by identity (device and inode), not by the path's text: Save as through a linked folder
         # onto the open file is a save over it, and checked as one
         own = self.path is not None and (target == self.path or same_file(target, self.path))
         # the check and the write under one lock: a save a few milliseconds later checks after this one has written
         with folder_lock(target):
             if not force and own and self.changed_on_disk():
-                raise SaveConflict(f"{target}: was changed on disk since it was opened; saving would overwrite "
-                                   "that change")
+                raise SaveConflict(Msg("{path}: was changed on disk since it was opened; saving would overwrite "
+                                       "that change", path=str(target)))
             if self.migrated_from is not None and own and target.is_file():
                 backup = backup_path(target, self.migrated_from)
                 if not backup.exists():  # the first save over an older file keeps that file

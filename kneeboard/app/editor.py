@@ -2,6 +2,10 @@
 
 Widgets here only display and edit: values go into the document exactly as typed, the document
 reads them into a profile, and the problems it finds come back to the fields that caused them.
+
+Every word is shown in the app's language as the editor is built (`tr`; a declared field's label, placeholder and
+help are English in `kneeboard.inputs.profile_keys` and translated here); when the language changes, the window
+builds the editor again. The undo steps' names stay English: the undo stack is never shown.
 """
 
 from PySide6.QtCore import Qt, Signal
@@ -25,12 +29,20 @@ from kneeboard.app import hints
 from kneeboard.app.document import ProfileDocument, key_text
 from kneeboard.app.fields import BanksField, ChoiceField, Field, NotesField, NumberField, PairsField, TextField
 from kneeboard.app.items import ItemsField
+from kneeboard.app.words import told, tr
+from kneeboard.i18n import N_
 from kneeboard.inputs import profile_keys as declared
-from kneeboard.problems import Problem
+from kneeboard.problems import SEVERITY_WORDS, Problem
 
 CONFIG = "configuration"
 PROBLEMS_HEIGHT = 96  #: [px] the problems list: four lines, then it scrolls
-DEFAULT = "(default)"
+DEFAULT = N_("(default)")  #: an optional choice left to its default
+#: How the card's weight is given, and how a configuration's pattern speed is (the file's way -> shown as)
+WEIGHT_MODES = {"reference": N_("The weight the speeds were published at"), "total": N_("A total weight"),
+                "build-up": N_("Empty weight plus items")}
+PATTERN_MODES = {"factor": N_("A factor of the stall speed"), "fixed": N_("A fixed speed")}
+#: The configurations' buttons: kept under their English names, shown in the app's language
+CONFIG_BUTTONS = (N_("Add"), N_("Duplicate"), N_("Remove"), N_("Move left"), N_("Move right"))
 
 
 class ProfileEditor(QScrollArea):
@@ -50,11 +62,11 @@ class ProfileEditor(QScrollArea):
         self.keys: dict[str, tuple] = {}
         self.sink_fields: set[str] = set()
         self.problem_list = QListWidget()
-        self.all_clear = QLabel("No input problems found.")
+        self.all_clear = QLabel(tr("No input problems found."))
         self.all_clear.setStyleSheet("color: #1B5E20; font-weight: bold;")
         self.problem_list.itemActivated.connect(lambda item: self.focus_problem(item.data(256)))
         self.all_clear.setAlignment(Qt.AlignmentFlag.AlignTop | Qt.AlignmentFlag.AlignLeft)
-        problems = QGroupBox("Problems")
+        problems = QGroupBox(tr("Problems"))
         problems_box = QVBoxLayout(problems)
         # one height whatever it shows, so the form below never jumps when a problem appears or goes
         self.problem_pages = QStackedWidget()
@@ -75,6 +87,7 @@ class ProfileEditor(QScrollArea):
 
     # --- building ------------------------------------------------------------------------------
     def _bind(self, form: QFormLayout | None, label: str, key: tuple, field: Field, kind=None) -> Field:
+        """`label` is the field's English label (its undo step's name), shown in the app's language."""
         path = key_text(key)
         self.fields[path] = field
         self.keys[path] = key
@@ -82,11 +95,11 @@ class ProfileEditor(QScrollArea):
             self.kinds[path] = kind
         field.edited.connect(lambda value, key=key, label=label: self.doc.set(key, value, f"Change {label}"))
         if form is not None:
-            form.addRow(label, field)
+            form.addRow(tr(label), field)
         return field
 
     def _group(self, title: str) -> QFormLayout:
-        group = QGroupBox(title)
+        group = QGroupBox(tr(title))
         form = QFormLayout(group)
         self.box.addWidget(group)
         return form
@@ -109,7 +122,7 @@ class ProfileEditor(QScrollArea):
         else:  # TEXT and QUANTITY are typed as text: a quantity with its unit
             widget = TextField(decl.placeholder)
         if decl.help:
-            widget.setToolTip(decl.help)
+            widget.setToolTip(tr(decl.help))
         if decl.bounds is declared.SINK_RANGE:  # a sink rate: shown in the card's sink unit, not its speed unit
             self.sink_fields.add(key_text(key))
         return self._bind(form, decl.label, key, widget, decl.quantity)
@@ -120,28 +133,26 @@ class ProfileEditor(QScrollArea):
                 self._declared(form, prefix + (decl.key,), decl)
 
     def _aircraft(self):
-        self._section(self._group("Aircraft"), "aircraft", ("aircraft",))
+        self._section(self._group(N_("Aircraft")), "aircraft", ("aircraft",))
 
     def _weight(self):
-        f = self._group("Weight for this card")
-        self.weight_mode = ChoiceField(("reference", "total", "build-up"), {
-            "reference": "The weight the speeds were published at", "total": "A total weight",
-            "build-up": "Empty weight plus items"})
+        f = self._group(N_("Weight for this card"))
+        self.weight_mode = ChoiceField(tuple(WEIGHT_MODES), WEIGHT_MODES)
         self.weight_mode.edited.connect(self._set_weight_mode)
-        f.addRow("Weight", self.weight_mode)
+        f.addRow(tr("Weight"), self.weight_mode)
         self.fields["weight"] = self.weight_mode  # problems of the weight as a whole show here
         self._section(f, "weight", ("weight",))
         self.weight_form = f
 
     def _configurations(self):
-        group = QGroupBox("Configurations")
+        group = QGroupBox(tr("Configurations"))
         v = QVBoxLayout(group)
         buttons = QHBoxLayout()
         self.config_buttons = {}
-        for name, slot in (("Add", self._add_config), ("Duplicate", self._duplicate_config),
-                           ("Remove", self._remove_config), ("Move left", lambda: self._move_config(-1)),
-                           ("Move right", lambda: self._move_config(1))):
-            b = QPushButton(name)
+        slots = (self._add_config, self._duplicate_config, self._remove_config, lambda: self._move_config(-1),
+                 lambda: self._move_config(1))
+        for name, slot in zip(CONFIG_BUTTONS, slots, strict=True):
+            b = QPushButton(tr(name))
             b.clicked.connect(slot)
             buttons.addWidget(b)
             self.config_buttons[name] = b
@@ -159,23 +170,23 @@ class ProfileEditor(QScrollArea):
             if decl.section != CONFIG:
                 continue
             if decl.key == "pattern_factor":  # how the pattern speed is given comes first
-                mode = ChoiceField(("factor", "fixed"), {"factor": "A factor of the stall speed",
-                                                         "fixed": "A fixed speed"})
+                mode = ChoiceField(tuple(PATTERN_MODES), PATTERN_MODES)
                 mode.edited.connect(lambda value, i=i: self._set_pattern_mode(i, value))
-                f.addRow(terms.PATTERN.capitalize(), mode)
+                pattern = tr(terms.PATTERN)
+                f.addRow(pattern[:1].upper() + pattern[1:], mode)  # a label begins with a capital
                 self.fields[f"{CONFIG}[{i + 1}].pattern_mode"] = mode
             self._declared(f, c + (decl.key,), decl)
         return page
 
     def _glider(self):
-        f = self._group("Glider polar")
-        self.is_glider = QCheckBox("This aircraft has a speed polar (gliders)")
+        f = self._group(N_("Glider polar"))
+        self.is_glider = QCheckBox(tr("This aircraft has a speed polar (gliders)"))
         self.is_glider.clicked.connect(self._set_glider)
         f.addRow(self.is_glider)
         self._section(f, "glider", ("glider",))
 
     def _card(self):
-        self._section(self._group("Card"), "card", ("card",))
+        self._section(self._group(N_("Card")), "card", ("card",))
 
     # --- structural edits ------------------------------------------------------------------------
     def _current_config(self) -> int:
@@ -184,14 +195,14 @@ class ProfileEditor(QScrollArea):
     def _add_config(self):
         n = self.doc.count((CONFIG,))
         unit = self.card_units()[0]
-        self.doc.add_table((CONFIG,), {"name": f"Configuration {n + 1}", "stall_speed": f"50 {unit}"},
+        self.doc.add_table((CONFIG,), {"name": tr("Configuration {n}", n=n + 1), "stall_speed": f"50 {unit}"},
                            "Add configuration")
         self.config_tabs.setCurrentIndex(n)
 
     def _duplicate_config(self):
         i = self._current_config()
-        name = self.doc.get((CONFIG, i, "name"), "Configuration")
-        self.doc.duplicate_table((CONFIG,), i, f"{name} (copy)", "Duplicate configuration")
+        name = self.doc.get((CONFIG, i, "name"), tr("Configuration"))
+        self.doc.duplicate_table((CONFIG,), i, tr("{name} (copy)", name=str(name)), "Duplicate configuration")
         self.config_tabs.setCurrentIndex(i + 1)
 
     def _remove_config(self):
@@ -355,7 +366,8 @@ class ProfileEditor(QScrollArea):
             field.set_problem(marks[id(field)][1] if id(field) in marks else None)
         self.problem_list.clear()
         for p in errors + warnings:
-            self.problem_list.addItem(f"{p.severity}: {p.path}: {p.message}")
+            # the problem's line as the command line frames it, in the app's language; the path as the file has it
+            self.problem_list.addItem(f"{tr(SEVERITY_WORDS[p.severity])}: {p.path}: {told(p.message)}")
             self.problem_list.item(self.problem_list.count() - 1).setData(256, p.path)
         self.problem_pages.setCurrentWidget(self.problem_list if problems else self.all_clear)
         self.problemsShown.emit(len(errors), len(warnings))

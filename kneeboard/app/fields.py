@@ -7,7 +7,6 @@ from PySide6.QtCore import Signal
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QComboBox,
-    QFormLayout,
     QHBoxLayout,
     QHeaderView,
     QLabel,
@@ -20,7 +19,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from kneeboard.app.words import tr
+from kneeboard.app.words import told, tr
 from kneeboard.i18n import N_
 from kneeboard.problems import Problem
 
@@ -65,9 +64,9 @@ class Field(QWidget):
             self.input.setStyleSheet("")
             self.input.setToolTip("")
             return
-        # the problem's own words are the reader's (English); what the app says around them is in its language
-        text = tr(problem.message) + (tr("; expected {expected}", expected=problem.expected) if problem.expected
-                                      else "")
+        # the problem's words (a Msg) and what would do, in the app's language as the command line frames them
+        text = told(problem.message) + (tr("; expected {expected}", expected=problem.expected) if problem.expected
+                                        else "")
         prefix = tr("Error: ") if problem.is_error else tr("Warning: ")
         # a new profile has a placeholder under most fields: one short line each, the whole sentence on hover
         self.problem_label.setText(tr(PLACEHOLDER_NOTE) if is_placeholder(problem) else prefix + text)
@@ -76,20 +75,6 @@ class Field(QWidget):
         colour = "#C62828" if problem.is_error else "#C77700"
         self.input.setStyleSheet(f"border: 2px solid {colour};")
         self.input.setToolTip(prefix + text)
-
-    def setToolTip(self, text: str) -> None:  # noqa: N802 - Qt's name
-        """A field's help, declared in English (`kneeboard.fields`), shown in the app's language."""
-        super().setToolTip(tr(text) if text else text)
-
-    def showEvent(self, event) -> None:  # noqa: N802 - Qt's name
-        """The field's label in its form, declared in English, shown in the app's language (translated here, where
-        it is shown: the editor lays the form out with the declared label)."""
-        super().showEvent(event)
-        form = self.parentWidget().layout() if self.parentWidget() is not None else None
-        label = form.labelForField(self) if isinstance(form, QFormLayout) else None
-        if isinstance(label, QLabel) and label.property("english") is None:
-            label.setProperty("english", label.text())
-            label.setText(tr(label.text()))
 
     def set_beside(self, text: str) -> None:
         if self.beside.text() != text:

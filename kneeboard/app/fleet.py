@@ -10,8 +10,8 @@ from pathlib import Path
 
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
 
-from kneeboard.app.words import tr
-from kneeboard.i18n import N_, Word
+from kneeboard.app.words import told, tr
+from kneeboard.i18n import N_, Msg, Word
 from kneeboard.inputs.profiles import Source, profile_files, read_source
 from kneeboard.registrations import duplicates, others
 
@@ -19,7 +19,8 @@ from kneeboard.registrations import duplicates, others
 REGISTRATION_ROLE = Qt.ItemDataRole.UserRole + 1  #: the registration as written (the file's name when it has none)
 MODEL_ROLE = Qt.ItemDataRole.UserRole + 2  #: the aircraft's model as written
 PATH_ROLE = Qt.ItemDataRole.UserRole + 3  #: the profile file (a Path)
-PROBLEMS_ROLE = Qt.ItemDataRole.UserRole + 4  #: what is wrong with it, one line each (a list of str)
+PROBLEMS_ROLE = Qt.ItemDataRole.UserRole + 4  #: what is wrong with it, one line each (a list of str: English, each
+#: a Msg the tooltip tells in the app's language)
 MARK_ROLE = Qt.ItemDataRole.UserRole + 5  #: ERROR, DUPLICATE, WARNING, or "" (none, or not checked yet)
 FINGERPRINT_ROLE = Qt.ItemDataRole.UserRole + 6  #: what its card prints beside the date ("" until checked)
 CHECKED_ROLE = Qt.ItemDataRole.UserRole + 7  #: whether its mark is made (False from listing until its check)
@@ -91,11 +92,10 @@ class FleetModel(QAbstractTableModel):
         duplicate = [row.duplicate] if row.duplicate else []
         if prepared.errors:
             row.mark = ERROR
-            row.problems = tuple(duplicate + [f"{p.path}: {p.message}" for p in prepared.errors[:MOST_SHOWN]])
+            row.problems = tuple(duplicate + [_line(p) for p in prepared.errors[:MOST_SHOWN]])
         else:  # a warning in the words the card prints it in (`Problem.plain`), as a pilot reads it
             row.mark = DUPLICATE if duplicate else (WARNING if prepared.warnings else "")
-            row.problems = tuple(duplicate + [p.plain or f"{p.path}: {p.message}"
-                                              for p in prepared.warnings[:MOST_SHOWN]])
+            row.problems = tuple(duplicate + [p.plain or _line(p) for p in prepared.warnings[:MOST_SHOWN]])
         row.fingerprint, row.checked = prepared.fingerprint, True
         self._changed(i, i)
 
@@ -140,7 +140,7 @@ class FleetModel(QAbstractTableModel):
             return {REGISTRATION_COLUMN: row.registration, MODEL_COLUMN: model}.get(column, "")
         if role == Qt.ItemDataRole.ToolTipRole:
             if column == MARK_COLUMN:
-                return "\n".join(row.problems or ([row.duplicate] if row.duplicate else []))
+                return "\n".join(told(line) for line in row.problems or ([row.duplicate] if row.duplicate else []))
             if column == REGISTRATION_COLUMN:  # the fingerprint: what a printed card of this aircraft carries
                 return (f"{row.path}\n{tr(N_('fingerprint'))} {row.fingerprint}" if row.fingerprint
                         else str(row.path))
@@ -152,6 +152,12 @@ class FleetModel(QAbstractTableModel):
     def _changed(self, first: int, last: int) -> None:
         if last >= first:
             self.dataChanged.emit(self.index(first, 0), self.index(last, len(COLUMNS) - 1))
+
+
+def _line(problem) -> Msg:
+    """A problem's line in the fleet's tooltip: its field and what is wrong, told in the app's language when shown
+    (the field's path as the file has it)."""
+    return Msg("{path}: {message}", path=problem.path, message=problem.message)
 
 
 def shown_folder(folder: Path) -> str:

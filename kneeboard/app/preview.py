@@ -23,9 +23,10 @@ from PySide6.QtWidgets import QComboBox, QGridLayout, QLabel, QSizePolicy, QTool
 
 from kneeboard.app.pages import page_labels
 from kneeboard.app.words import Texts, tr
-from kneeboard.i18n import N_
+from kneeboard.i18n import N_, Msg
+from kneeboard.problems import Told
 
-__all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "open_pdf"]
+__all__ = ["MODES", "ZOOM_STEPS", "CardPreview", "PdfProblem", "open_pdf"]
 
 #: Custom zoom factors the zoom buttons step through (1.0 = the page at its true size on screen).
 ZOOM_STEPS = (0.25, 0.33, 0.5, 0.67, 0.75, 0.9, 1.0, 1.1, 1.25, 1.5, 1.75, 2.0, 2.5, 3.0, 4.0)
@@ -34,13 +35,17 @@ MODES = (("card", N_("Card")), ("letter", N_("Sheet (Letter)")), ("a4", N_("Shee
 BUSY_DELAY_MS = 300  #: renders quicker than this never flash the "Updating" note
 
 
+class PdfProblem(Told, ValueError):
+    """Bytes that are no PDF QtPdf can show; its message is told in the app's language."""
+
+
 def open_pdf(pdf: bytes, parent: QObject | None = None) -> QPdfDocument:
     """A QPdfDocument reading `pdf`, from a QBuffer child of the document: the bytes live as long as it.
 
     Raises
     ------
-    ValueError
-        When the bytes are not a PDF QtPdf can read, or have no page.
+    PdfProblem
+        (a ValueError) When the bytes are not a PDF QtPdf can read, or have no page.
     """
     doc = QPdfDocument(parent)
     source = QBuffer(doc)
@@ -48,10 +53,10 @@ def open_pdf(pdf: bytes, parent: QObject | None = None) -> QPdfDocument:
     source.open(QIODevice.OpenModeFlag.ReadOnly)
     doc.load(source)
     if doc.status() != QPdfDocument.Status.Ready or doc.pageCount() < 1:
-        reason = doc.error().name if doc.status() == QPdfDocument.Status.Error else "no page"
+        reason = doc.error().name if doc.status() == QPdfDocument.Status.Error else N_("no page")  # Qt's name as is
         doc.close()
         doc.deleteLater()
-        raise ValueError(f"the PDF could not be read ({reason})")
+        raise PdfProblem(Msg("the PDF could not be read ({reason})", reason=reason))
     return doc
 
 

@@ -11,8 +11,10 @@ from PySide6.QtGui import QColor, QImage, QPageLayout, QPageSize, QPainter
 from PySide6.QtPrintSupport import QAbstractPrintDialog, QPrintDialog, QPrinter
 from PySide6.QtWidgets import QDialog, QWidget
 
-from kneeboard.app.preview import open_pdf
+from kneeboard.app.preview import PdfProblem, open_pdf
 from kneeboard.app.words import tr
+from kneeboard.i18n import Msg
+from kneeboard.problems import Told
 
 __all__ = ["page_layout", "print_pdf", "print_with_dialog"]
 
@@ -44,6 +46,10 @@ def _pages_to_print(printer: QPrinter, count: int) -> list[int]:
     return [page for page in pages for _ in range(copies)]
 
 
+class PrinterProblem(Told, OSError):
+    """A printer that cannot start or take another page; its message is told in the app's language."""
+
+
 def print_pdf(pdf: bytes, printer: QPrinter) -> int:
     """Print every page of `pdf` on `printer` at its true size; returns the number of pages printed.
 
@@ -53,15 +59,15 @@ def print_pdf(pdf: bytes, printer: QPrinter) -> int:
 
     Raises
     ------
-    ValueError
-        When `pdf` is not a PDF that can be read.
-    OSError
-        When the printer cannot start or cannot take another page.
+    PdfProblem
+        (a ValueError) When `pdf` is not a PDF that can be read.
+    PrinterProblem
+        (an OSError) When the printer cannot start or cannot take another page.
     """
     try:
         doc = open_pdf(pdf)
-    except ValueError as exc:
-        raise ValueError(f"nothing was printed: {exc}") from None
+    except PdfProblem as exc:
+        raise PdfProblem(Msg("nothing was printed: {reason}", reason=exc.args[0])) from None
     try:
         pages = _pages_to_print(printer, doc.pageCount())
         printer.setFullPage(True)  # the painter's origin is the paper's corner, not a margin's
@@ -71,10 +77,10 @@ def print_pdf(pdf: bytes, printer: QPrinter) -> int:
                 # a layout set before begin() applies to the first page, before newPage() to the next one
                 printer.setPageLayout(page_layout(doc.pagePointSize(page)))
                 if n == 0 and not painter.begin(printer):
-                    raise OSError(f"the printer {printer.printerName() or printer.outputFileName()!r} "
-                                  "could not start printing")
+                    raise PrinterProblem(Msg("the printer {printer} could not start printing",
+                                             printer=repr(printer.printerName() or printer.outputFileName())))
                 if n > 0 and not printer.newPage():
-                    raise OSError("the printer could not start a new page")
+                    raise PrinterProblem(Msg("the printer could not start a new page"))
                 _draw_page(painter, printer, doc, page)
         finally:
             if painter.isActive():

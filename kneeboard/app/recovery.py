@@ -19,6 +19,7 @@ from pathlib import Path
 
 from kneeboard.app.words import tr
 from kneeboard.fileio import MAX_FILE_BYTES, FileProblem, read_text, write_atomic
+from kneeboard.i18n import Msg
 
 #: The largest record: the largest profile's text, every character escaped in the worst case, and the rest.
 MAX_RECORD_BYTES = 6 * MAX_FILE_BYTES + 4096
@@ -79,7 +80,8 @@ class Recovery:
         try:
             self.folder.mkdir(parents=True, exist_ok=True)
         except OSError as exc:  # a read-only home, a file where the folder belongs
-            raise FileProblem(f"{self.folder}: cannot be made ({exc.strerror or exc})", exc.errno) from None
+            raise FileProblem(Msg("{folder}: cannot be made ({reason})", folder=str(self.folder),
+                                  reason=exc.strerror or str(exc)), exc.errno) from None
         record = {"path": str(path) if path else None, "text": text, "base": base,
                   "when": time.strftime("%Y-%m-%d %H:%M:%S"), "owner": self.owner}
         target = self._file(key)
@@ -119,10 +121,12 @@ class Recovery:
                 text, path, when, owner = record["text"], record.get("path"), record.get("when", ""), record.get(
                     "owner")
                 if not isinstance(text, str):
-                    raise TypeError("its text is not text")
+                    raise TypeError(Msg("its text is not text"))
             except (FileProblem, ValueError, KeyError, TypeError, AttributeError) as exc:
+                # ours told in the app's language (a Msg); Python's own reasons (JSON's, a missing key) as they are
+                reason = exc.args[0] if exc.args and isinstance(exc.args[0], Msg) else str(exc)
                 self.unreadable.append(tr("{file}: unsaved edits that cannot be read back ({reason}); the file is "
-                                          "kept for you to open", file=str(file), reason=str(exc)))
+                                          "kept for you to open", file=str(file), reason=reason))
                 continue
             base = record.get("base")
             base = base if isinstance(base, str) else None

@@ -1,7 +1,9 @@
 """Editing a fleet's card style: the fields of a style file, saved beside the fleet's profiles.
 
 Each input is made from its key's declaration (`kneeboard.inputs.style_keys`): its label, its help as a tooltip,
-its options and bounds, so the dialog offers exactly what the reader accepts.
+its options and bounds, so the dialog offers exactly what the reader accepts. Every word is shown in the app's
+language as the dialog is made (`tr`: the declarations' words are English, and the catalogues hold them); the
+language cannot change while the dialog is open.
 """
 
 from pathlib import Path
@@ -24,13 +26,19 @@ from PySide6.QtWidgets import (
     QVBoxLayout,
 )
 
+from kneeboard.app.words import tr
 from kneeboard.card.blocks import registry
 from kneeboard.card.organization import load_card_style
 from kneeboard.card.style import CardStyle
 from kneeboard.fileio import FileProblem
+from kneeboard.i18n import N_, Msg
 from kneeboard.inputs.style_keys import BY_KEY, LEGACY_ORGANIZATION
 from kneeboard.inputs.toml import load_document, save_document
 from kneeboard.shipped import default_style_path
+
+#: The options shown as the file writes them (no `option_labels` in their declaration), as a person reads them
+OPTION_WORDS = {"portrait": N_("portrait"), "landscape": N_("landscape"), "none": N_("none"), "left": N_("left"),
+                "top": N_("top")}
 
 
 class StyleDialog(QDialog):
@@ -40,13 +48,13 @@ class StyleDialog(QDialog):
         """`faces(values)`, when given, says how many cards and faces the open profile's card takes with the
         dialog's values (a line the dialog shows and keeps up to date)."""
         super().__init__(parent)
-        self.setWindowTitle("Card style")
+        self.setWindowTitle(tr("Card style"))
         self.style_in = style
         form = QFormLayout()
         self.organization = QLineEdit(style.organization)
         self.organization.setMaxLength(BY_KEY["organization"].limit)
         self.logo = QLineEdit(style.logo.name if style.logo else "")
-        self.logo.setPlaceholderText(BY_KEY["logo"].help.split(",")[0] + ", e.g. logo.png")
+        self.logo.setPlaceholderText(tr("a PNG or SVG file in the fleet folder, e.g. logo.png"))
         self.accent = QPushButton(style.accent)
         self.accent.clicked.connect(self._pick_colour)
         self._show_colour(style.accent)
@@ -64,7 +72,7 @@ class StyleDialog(QDialog):
         front = list(style.front) if style.front is not None else list(labels)
         shown = front + [b for b in labels if b not in front]
         for name in shown:
-            item = QListWidgetItem(labels.get(name, name))
+            item = QListWidgetItem(tr(labels[name]) if name in labels else name)
             item.setData(Qt.ItemDataRole.UserRole, name)
             item.setFlags(item.flags() | Qt.ItemFlag.ItemIsUserCheckable | Qt.ItemFlag.ItemIsDragEnabled)
             item.setCheckState(Qt.CheckState.Checked if name in front or name in style.back
@@ -74,23 +82,24 @@ class StyleDialog(QDialog):
                   "font_scale": self.scale, "size": self.size, "orientation": self.orientation,
                   "binding": self.binding}
         for key, widget in inputs.items():
-            widget.setToolTip(BY_KEY[key].help)
-            form.addRow(BY_KEY[key].label, widget)
-        front_key = BY_KEY["front"]
-        form.addRow(QLabel(f"{front_key.label} (drag to reorder; the caution is always printed):"))
-        self.blocks.setToolTip(front_key.help)
+            widget.setToolTip(tr(BY_KEY[key].help))
+            form.addRow(tr(BY_KEY[key].label), widget)
+        form.addRow(QLabel(tr("Blocks, in order (drag to reorder; the caution is always printed):")))
+        self.blocks.setToolTip(tr(BY_KEY["front"].help))
         form.addRow(self.blocks)
         self.faces = QLabel()
         self.faces.setObjectName("faces")
         self._faces_of = faces
         if faces is not None:
-            form.addRow("This profile's card", self.faces)
+            form.addRow(tr("This profile's card"), self.faces)
             for signal in (self.scale.valueChanged, self.size.currentIndexChanged,
                            self.orientation.currentIndexChanged, self.binding.currentIndexChanged,
                            self.organization.textChanged, self.blocks.itemChanged, self.blocks.model().rowsMoved):
                 signal.connect(self.show_faces)
             self.show_faces()
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Save | QDialogButtonBox.StandardButton.Cancel)
+        buttons.button(QDialogButtonBox.StandardButton.Save).setText(tr("Save"))  # Qt's own words are English
+        buttons.button(QDialogButtonBox.StandardButton.Cancel).setText(tr("Cancel"))
         buttons.accepted.connect(self.accept)
         buttons.rejected.connect(self.reject)
         box = QVBoxLayout(self)
@@ -106,7 +115,7 @@ class StyleDialog(QDialog):
         self.accent.setStyleSheet(f"background: {colour}; color: white;")
 
     def _pick_colour(self):
-        colour = QColorDialog.getColor(QColor(self.accent.text()), self, "Accent colour")
+        colour = QColorDialog.getColor(QColor(self.accent.text()), self, tr("Accent colour"))
         if colour.isValid():
             self._show_colour(colour.name().upper())
 
@@ -132,7 +141,8 @@ class StyleDialog(QDialog):
             doc = load_document(source)
         except FileProblem as exc:
             # its comments and other keys would be lost: a style file the person must mend is never replaced
-            raise FileProblem(f"{exc}; it was left as it is") from None
+            reason = exc.args[0] if exc.args and isinstance(exc.args[0], Msg) else str(exc)
+            raise FileProblem(Msg("{problem}; it was left as it is", problem=reason), exc.errno) from None
         for key, value in self.values().items():
             doc[key] = value
         doc.pop(LEGACY_ORGANIZATION, None)  # its value is in organization now: the file speaks one spelling
@@ -146,6 +156,6 @@ def _combo(key: str, current) -> QComboBox:
     combo = QComboBox()
     declared = BY_KEY[key]
     for option in declared.options:
-        combo.addItem(declared.shown(option), option)
+        combo.addItem(tr(OPTION_WORDS.get(option, declared.shown(option))), option)
     combo.setCurrentIndex(max(0, combo.findData(current)))
     return combo

@@ -28,7 +28,7 @@ from kneeboard.app.fleet import home_relative
 from kneeboard.app.fleet_panel import FleetPanel
 from kneeboard.app.preview import CardPreview
 from kneeboard.app.readout import Readout
-from kneeboard.app.words import CATEGORY_NAMES, SYSTEM, Texts, tr, translate_tree
+from kneeboard.app.words import CATEGORY_NAMES, SYSTEM, Texts, tr
 from kneeboard.i18n import LANGUAGES, N_
 from kneeboard.problems import printable
 from kneeboard.texts import CAUTION, CAUTION_SHORT
@@ -198,8 +198,7 @@ class MainWindow(QMainWindow):
         if doc is not None:
             from kneeboard.app.editor import ProfileEditor
 
-            self.editor = ProfileEditor(doc)
-            translate_tree(self.editor)  # the editor lays itself out in English: shown in the app's language
+            self.editor = ProfileEditor(doc)  # its words in the app's language: built again when that changes
             self.editor_holder.layout().addWidget(self.editor)
         if old is not None:
             old.setParent(None)
@@ -256,7 +255,6 @@ class MainWindow(QMainWindow):
         from kneeboard.app.style_dialog import StyleDialog
 
         dialog = StyleDialog(edit.style, self, faces=edit.faces)
-        translate_tree(dialog)
         while True:
             if not self.ask_style(dialog):
                 return None

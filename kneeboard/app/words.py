@@ -24,6 +24,13 @@ _speaking = USER  # the app and the command line are never one process: each spe
 tr, plural = _speaking.tr, _speaking.plural  # `message` (marked for the catalogue) in the app's language
 
 
+def told(value) -> str:
+    """A problem's words in the app's language: a `Msg` (a message kept with its values) or a `Word` translated, a
+    figure (`Num`) with the language's decimal separator, the profile's own text (a field path, a name, a value as
+    written) as it is."""
+    return _speaking.translator.shown(value)
+
+
 def translated() -> object:
     """The app's translator itself (`i18n.Translator`), for what takes one (a comparison's summary line)."""
     return _speaking.translator
@@ -75,42 +82,3 @@ class Texts:
     def again(self) -> None:
         for setter, (message, params) in self._kept.items():
             setter(tr(message, **params))
-
-
-def translate_tree(widget) -> None:
-    """Show in the app's language the English texts a widget and its children were laid out with (labels, group
-    titles, buttons, check boxes, choices, list items, table heads, placeholders, tips) where the catalogue has
-    them; other text (a file name, a figure, what a person typed) stays as it is. For the widgets of modules that do
-    not mark their own words (`app.shown_words`): they are built again when the language changes."""
-    from PySide6.QtWidgets import (
-        QAbstractButton,
-        QComboBox,
-        QGroupBox,
-        QLabel,
-        QLineEdit,
-        QListWidget,
-        QTableWidget,
-        QWidget,
-    )
-
-    for w in [widget, *widget.findChildren(QWidget)]:
-        if isinstance(w, QLabel) and w.text() or isinstance(w, QAbstractButton) and w.text():
-            w.setText(tr(w.text()))
-        elif isinstance(w, QGroupBox):
-            w.setTitle(tr(w.title()))
-        elif isinstance(w, QComboBox):
-            for i in range(w.count()):
-                w.setItemText(i, tr(w.itemText(i)))
-        elif isinstance(w, QLineEdit) and w.placeholderText():
-            w.setPlaceholderText(tr(w.placeholderText()))
-        elif isinstance(w, QListWidget):
-            for i in range(w.count()):
-                w.item(i).setText(tr(w.item(i).text()))
-        elif isinstance(w, QTableWidget):
-            for i in range(w.columnCount()):
-                if w.horizontalHeaderItem(i) is not None:
-                    w.horizontalHeaderItem(i).setText(tr(w.horizontalHeaderItem(i).text()))
-        if w.toolTip():
-            w.setToolTip(tr(w.toolTip()))
-    if widget.windowTitle():
-        widget.setWindowTitle(tr(widget.windowTitle()))
