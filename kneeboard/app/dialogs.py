@@ -38,7 +38,7 @@ if TYPE_CHECKING:  # the card machinery loads with the first card, not with the 
     from kneeboard.compare import Change
     from kneeboard.export import Export
     from kneeboard.pipeline import Styles
-from kneeboard.texts import CAUTION, FORMULAS_HTML
+from kneeboard.texts import CAUTION, formulas_html
 
 NOT_PRINTED = N_("not printed")  #: shown where a figure was not printed before, or no longer is
 WORSE_MARK = N_("! less room: ")  #: leads a figure that got worse; the row is bold too, so colour is never needed
@@ -155,8 +155,8 @@ class FormulaHelpDialog(QDialog):
         layout = QVBoxLayout(self)
         self.browser = QTextBrowser()
         self.browser.setOpenExternalLinks(False)  # the app never goes online
-        # the formulas page itself is English (the formulas and their sources' titles); the caution above it is not
-        self.browser.setHtml(f"<p><b>{escape(tr(CAUTION))}</b></p>{FORMULAS_HTML}")
+        # the page in the app's language: the formulas, the regulations' numbers and the sources' titles as written
+        self.browser.setHtml(f"<p><b>{escape(tr(CAUTION))}</b></p>{formulas_html(translated())}")
         layout.addWidget(self.browser)
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
         buttons.rejected.connect(self.reject)
