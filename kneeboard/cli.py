@@ -329,8 +329,9 @@ def _open_app(target: str | None) -> int:
 def _internal_error(exc: Exception) -> int:
     if os.environ.get("KNEEBOARD_DEBUG"):
         raise exc
+    error = f"{type(exc).__name__}: {exc}"
     print(printable("kneeboard: " + tr("internal error, please report it: {error} (set KNEEBOARD_DEBUG=1 for "
-                                       "details)", error=f"{type(exc).__name__}: {exc}")), file=sys.stderr)
+                                       "details)", error=error)), file=sys.stderr)
     return EXIT_BUG
 
 

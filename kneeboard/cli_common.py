@@ -43,6 +43,7 @@ def safely(source, styles):
     except Exception as exc:
         if os.environ.get("KNEEBOARD_DEBUG"):
             raise
-        problem = Problem("(file)", Msg("internal error on this profile, please report it: {error}",
-                                        error=f"{type(exc).__name__}: {exc}"), file=str(source.path))
+        error = f"{type(exc).__name__}: {exc}"  # the program's own words, for its developers: as they are
+        problem = Problem("(file)", Msg("internal error on this profile, please report it: {error}", error=error),
+                          file=str(source.path))
         return Prepared(source.path, "", None, None, None, None, (problem,))

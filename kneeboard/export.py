@@ -43,9 +43,9 @@ def _card(listed: Unparsed, styles: Styles, made_on: str | None, batch: "Export"
             batch.failures.append(Failure(path, [f"{printable(path)}: {exc}"]))
             return None
     except Exception as exc:  # a bug in the handling of one file must not cost the rest of the fleet its cards
+        error = f"{type(exc).__name__}: {printable(str(exc))}"  # the program's own words, for its developers
         batch.failures.append(Failure(path, [f"{printable(path)}: " + USER.tr(
-            "internal error on this profile, please report it: {error}",
-            error=f"{type(exc).__name__}: {printable(str(exc))}")]))
+            "internal error on this profile, please report it: {error}", error=error)]))
         return None
 
 

@@ -61,9 +61,9 @@ def new_profile(path: Path, category: str) -> Path:
     """The template of `category` written to `path` (a new .toml file)."""
     path = Path(path)
     if path.suffix.lower() != ".toml":
+        example = printable(path.stem or "mine") + ".toml"
         raise Refused(Msg("{file}: a profile's name ends in .toml (e.g. {example}), so that kneeboard finds it in "
-                          "its folder; nothing was written", file=printable(path),
-                          example=f"{printable(path.stem or 'mine')}.toml"))
+                          "its folder; nothing was written", file=printable(path), example=example))
     write_new(path, shipped.template_path(category).read_bytes())
     return path
 
@@ -122,7 +122,8 @@ def cmd_samples(args) -> int:
     print(printable(tr("copied {n} invented sample profiles and the card style {style} to {folder}. No figure in "
                        "them is from a real flight manual.", n=profiles, style=shipped.FLEET_STYLE,
                        folder=str(folder))))
-    print(printable(tr("Try: {command}", command=f"kneeboard card {folder} -o cards.pdf")))
+    command = f"kneeboard card {folder} -o cards.pdf"
+    print(printable(tr("Try: {command}", command=command)))
     print(tr(CAUTION))
     return EXIT_OK
 
