@@ -24,6 +24,7 @@ from kneeboard.cli_common import (
 )
 from kneeboard.cli_words import plural, start, tr
 from kneeboard.fileio import DEVICE_FAILURES, FileProblem, terminate_cleanly
+from kneeboard.i18n import N_
 from kneeboard.problems import Told, printable
 from kneeboard.texts import CAUTION
 
@@ -297,7 +298,7 @@ def main(argv: list[str] | None = None) -> int:
     except OSError as exc:
         if exc.errno in DEVICE_FAILURES or exc.errno == errno.EBADF:  # stdout on a full, failed or closed device
             _quiet_stdout()
-            print("kneeboard: " + tr("the output could not be written ({reason})", reason=str(exc.strerror or exc)),
+            print("kneeboard: " + tr("the output could not be written ({reason})", reason=_reason(exc)),
                   file=sys.stderr)
             return EXIT_OUTPUT
         return _internal_error(exc)
@@ -318,7 +319,7 @@ def _open_app(target: str | None) -> int:
 
     problem = window_problem()
     if problem is not None:
-        print(problem, file=sys.stderr)
+        print(tr(problem), file=sys.stderr)
         return EXIT_PROBLEMS
     from kneeboard.app.main import run  # the desktop app, on a folder or profile if one is named
 
@@ -328,8 +329,9 @@ def _open_app(target: str | None) -> int:
 def _internal_error(exc: Exception) -> int:
     if os.environ.get("KNEEBOARD_DEBUG"):
         raise exc
+    error = f"{type(exc).__name__}: {exc}"
     print(printable("kneeboard: " + tr("internal error, please report it: {error} (set KNEEBOARD_DEBUG=1 for "
-                                       "details)", error=f"{type(exc).__name__}: {exc}")), file=sys.stderr)
+                                       "details)", error=error)), file=sys.stderr)
     return EXIT_BUG
 
 
@@ -344,7 +346,7 @@ class _ClosedStream(io.TextIOBase):
         return True
 
     def write(self, text: str) -> int:
-        raise OSError(errno.EBADF, "the standard output is closed")
+        raise OSError(errno.EBADF, N_("the standard output is closed"))
 
 
 def _guard_streams() -> None:
@@ -374,6 +376,12 @@ def _guard_streams() -> None:
                 stream.reconfigure(errors="replace")
 
 
+def _reason(exc: OSError) -> str:
+    """Why an output failed: the system's own words as they are; kneeboard's own (a closed standard output, a Word)
+    told in the user's language."""
+    return exc.strerror or str(exc)
+
+
 def _quiet_stdout() -> None:
     """Point stdout at /dev/null, so the interpreter's own flush at exit cannot fail a second time."""
     with contextlib.suppress(OSError, ValueError):  # no stdout to point anywhere: nothing to quiet
@@ -400,7 +408,7 @@ def main_exit() -> None:
         code = _closed_pipe()
     except OSError as exc:
         _quiet_stdout()
-        print("kneeboard: " + tr("the output could not be written ({reason})", reason=str(exc.strerror or exc)),
+        print("kneeboard: " + tr("the output could not be written ({reason})", reason=_reason(exc)),
               file=sys.stderr)
         code = EXIT_OUTPUT
     sys.exit(code)

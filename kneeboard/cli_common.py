@@ -5,7 +5,7 @@ file is that file's error), the styles by the one rule, and how problems are pri
 import os
 from pathlib import Path
 
-from kneeboard.cli_words import tr
+from kneeboard.i18n import Msg
 from kneeboard.problems import Problem
 
 EXIT_OK, EXIT_PROBLEMS, EXIT_BUG, EXIT_OUTPUT = 0, 2, 70, 74  #: 74: the output device failed (EX_IOERR)
@@ -13,9 +13,16 @@ EXIT_PIPE = 141  #: the reader of the output went away (128 + SIGPIPE), as a she
 EXIT_CHANGED = 1  #: compare: the printed card is out of date
 
 
-def print_problems(problems: list[Problem], stream) -> None:
+def print_problems(problems: list[Problem], stream, tr=None) -> None:
+    """Each problem's line, in the language of `tr` (an `i18n.Translator`; the user's when None)."""
     for p in problems:
-        print(p, file=stream)  # Problem's text escapes what a file holds (newlines, escape sequences)
+        print(p.told(tr), file=stream)  # Problem's text escapes what a file holds (newlines, escape sequences)
+
+
+def told(exc: Exception, tr) -> str:
+    """A refusal's message in the language of `tr` where it was made as a `Msg`; as the exception says it otherwise."""
+    message = exc.args[0] if exc.args else ""
+    return tr(message) if isinstance(message, Msg) else str(exc)
 
 
 def styles_of(args, styles=None, cards=True, **overrides):
@@ -36,6 +43,7 @@ def safely(source, styles):
     except Exception as exc:
         if os.environ.get("KNEEBOARD_DEBUG"):
             raise
-        problem = Problem("(file)", tr("internal error on this profile, please report it: {error}",
-                                       error=f"{type(exc).__name__}: {exc}"), file=str(source.path))
+        error = f"{type(exc).__name__}: {exc}"  # the program's own words, for its developers: as they are
+        problem = Problem("(file)", Msg("internal error on this profile, please report it: {error}", error=error),
+                          file=str(source.path))
         return Prepared(source.path, "", None, None, None, None, (problem,))

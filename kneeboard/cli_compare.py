@@ -9,7 +9,7 @@ given (the language the card is made in now for the comparison), else in the use
 import sys
 from pathlib import Path
 
-from kneeboard.cli_common import EXIT_CHANGED, EXIT_OK, EXIT_PROBLEMS, print_problems, safely, styles_of
+from kneeboard.cli_common import EXIT_CHANGED, EXIT_OK, EXIT_PROBLEMS, print_problems, safely, styles_of, told
 from kneeboard.cli_words import translated
 from kneeboard.fileio import FileProblem
 from kneeboard.problems import printable
@@ -38,11 +38,11 @@ def compare(args) -> int:
         try:
             found = read_card_data(read_bytes(pdf, 200 * 1024 * 1024))
         except FileProblem as exc:
-            print(f"kneeboard compare: {printable(exc)}" + skipped, file=sys.stderr)
+            print("kneeboard compare: " + printable(told(exc, tr)) + skipped, file=sys.stderr)
             unread += 1
             continue
         except CardDataProblem as exc:
-            print(printable(f"kneeboard compare: {pdf}: {exc}") + skipped, file=sys.stderr)
+            print(printable(f"kneeboard compare: {pdf}: {told(exc, tr)}") + skipped, file=sys.stderr)
             unread += 1
             continue
         if not found and not folder:
@@ -60,7 +60,7 @@ def compare(args) -> int:
         if prepared.table is not None:
             profiles.setdefault(registrations.key(prepared.table.registration), []).append((prepared, source))
         elif not profile_path.is_dir():
-            print_problems(list(prepared.errors), sys.stderr)
+            print_problems(list(prepared.errors), sys.stderr, tr)
             print(tr("{file}: {n} error(s); nothing to compare with", file=printable(path), n=len(prepared.errors)),
                   file=sys.stderr)
             return EXIT_PROBLEMS
@@ -84,7 +84,7 @@ def compare(args) -> int:
             continue
         prepared, weight = _at_weight(*found[0], data, args, styles, tr)
         if prepared.table is None:
-            print_problems(list(prepared.errors), sys.stderr)
+            print_problems(list(prepared.errors), sys.stderr, tr)
             problems += 1
             continue
         changes = compare_figures(figures_of(data), make_card(prepared).figures())

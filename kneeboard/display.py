@@ -11,6 +11,8 @@ import socket
 import sys
 from pathlib import Path
 
+from kneeboard.i18n import N_, Msg
+
 #: The system libraries Qt 6's xcb platform plugin and the Qt libraries under it load (their ELF NEEDED entries,
 #: less what the PySide6 wheel carries itself), and the Debian/Ubuntu package of each.
 XCB_LIBRARIES = {
@@ -41,7 +43,7 @@ XCB_LIBRARIES = {
 }
 LIBRARY_FOLDERS = ("/usr/lib/x86_64-linux-gnu", "/usr/lib/aarch64-linux-gnu", "/lib/x86_64-linux-gnu",
                    "/lib/aarch64-linux-gnu", "/usr/lib64", "/usr/lib", "/lib64", "/lib", "/usr/local/lib")
-HEADLESS = "the commands check, table, card and compare work without one (kneeboard --help)"
+HEADLESS = N_("the commands check, table, card and compare work without one (kneeboard --help)")
 
 
 def library_folders() -> tuple[str, ...]:
@@ -58,8 +60,9 @@ def missing_packages(folders=None) -> list[str]:
                               if not any((folder / library).exists() for folder in existing)))
 
 
-def window_problem(environ=None, platform: str | None = None, folders=None) -> str | None:
-    """Why the window cannot open here, as one line for the terminal; None when it can."""
+def window_problem(environ=None, platform: str | None = None, folders=None) -> Msg | None:
+    """Why the window cannot open here, as one line for the terminal (a `Msg`: told in the user's language where it
+    is printed); None when it can."""
     environ = os.environ if environ is None else environ
     platform = sys.platform if platform is None else platform
     qpa = environ.get("QT_QPA_PLATFORM", "")
@@ -67,15 +70,15 @@ def window_problem(environ=None, platform: str | None = None, folders=None) -> s
         return None
     wayland, x11 = environ.get("WAYLAND_DISPLAY"), environ.get("DISPLAY")
     if not wayland and not x11:
-        return f"kneeboard: no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the app cannot open; " \
-               f"{HEADLESS}."
+        return Msg("kneeboard: no display found (neither DISPLAY nor WAYLAND_DISPLAY is set), so the app cannot open; "
+                   "{headless}.", headless=HEADLESS)
     if wayland and not qpa.startswith("xcb"):
         return None
     missing = missing_packages(folders)
     if missing:
-        return ("kneeboard: the window needs system libraries that are not installed; install them with:\n"
-                f"  sudo apt install {' '.join(missing)}\n"
-                f"Meanwhile {HEADLESS}.")
+        return Msg("kneeboard: the window needs system libraries that are not installed; install them with:\n"
+                   "  sudo apt install {packages}\nMeanwhile {headless}.", packages=" ".join(missing),
+                   headless=HEADLESS)
     return None
 
 

@@ -15,6 +15,7 @@ from kneeboard import registrations
 from kneeboard.card import Card, LayoutError, attachment
 from kneeboard.card.sheets import SheetError
 from kneeboard.fileio import FileProblem, refuse_overwrite_of_inputs, write_atomic
+from kneeboard.i18n import USER, Msg
 from kneeboard.inputs.profiles import Unparsed, read_text_once
 from kneeboard.pipeline import Styles, card_pdf, make_card, prepare_source
 from kneeboard.problems import Problem, printable
@@ -42,8 +43,9 @@ def _card(listed: Unparsed, styles: Styles, made_on: str | None, batch: "Export"
             batch.failures.append(Failure(path, [f"{printable(path)}: {exc}"]))
             return None
     except Exception as exc:  # a bug in the handling of one file must not cost the rest of the fleet its cards
-        batch.failures.append(Failure(path, [f"{printable(path)}: internal error on this profile, please report "
-                                             f"it: {type(exc).__name__}: {printable(str(exc))}"]))
+        error = f"{type(exc).__name__}: {printable(str(exc))}"  # the program's own words, for its developers
+        batch.failures.append(Failure(path, [f"{printable(path)}: " + USER.tr(
+            "internal error on this profile, please report it: {error}", error=error)]))
         return None
 
 
@@ -88,8 +90,8 @@ def _make_folder(folder: Path) -> None:
         try:
             folder.mkdir(parents=True)
         except OSError as exc:
-            raise FileProblem(f"{printable(folder)}: cannot create the folder ({exc.strerror or exc})",
-                              exc.errno) from None
+            raise FileProblem(Msg("{folder}: cannot create the folder ({reason})", folder=printable(folder),
+                                  reason=str(exc.strerror or exc)), exc.errno) from None
 
 
 # --- a fleet, one card at a time ------------------------------------------------------------------------------
@@ -132,12 +134,16 @@ def file_clashes(registered: list[tuple[str | None, Path]], folder: Path) -> dic
         for registration, path in group:
             others = ", ".join(f"{r} ({p})" for r, p in group if p != path)
             same = all(registrations.key(r) == registrations.key(registration) for r, _ in group)
-            what = "is also the registration of" if same else "would have its card written to the same file as"
+            values = {"registration": registration, "others": others, "file": f"{safe_name(registration)}.pdf",
+                      "folder": str(folder)}
             clashes[path] = Problem(
-                "aircraft.registration", f"{registration} {what} {others}: no card of either is written as "
-                f"{safe_name(registration)}.pdf in {folder}", "a registration no other profile of the fleet has "
-                "(a copy of a profile beside it is a duplicate: remove it or give it its own registration)",
-                file=str(path))
+                "aircraft.registration",
+                Msg("{registration} is also the registration of {others}: no card of either is written as {file} in "
+                    "{folder}", **values) if same else
+                Msg("{registration} would have its card written to the same file as {others}: no card of either is "
+                    "written as {file} in {folder}", **values),
+                Msg("a registration no other profile of the fleet has (a copy of a profile beside it is a duplicate: "
+                    "remove it or give it its own registration)"), file=str(path))
     return clashes
 
 
@@ -203,10 +209,12 @@ def export_cards(paths: list[Path], styles: Styles, out: Path | None = None, she
                 try:
                     grid = grid or grid_for(first.width, first.height, sheet)
                 except SheetError as exc:
-                    raise FileProblem(f"{printable(out)}: {exc}") from None
+                    raise FileProblem(Msg("{file}: {problem}", file=printable(out),
+                                          problem=exc.args[0] if exc.args else str(exc))) from None
                 if (first.width, first.height) != (grid.card_w, grid.card_h):
-                    result.failures.append(Failure(path, [f"{printable(path)}: its card is not the size of the "
-                                                          "others on the sheet; print it on its own"]))
+                    result.failures.append(Failure(path, [USER.tr(Msg(
+                        "{file}: its card is not the size of the others on the sheet; print it on its own",
+                        file=printable(path)))]))
                     continue
                 slots = physical_cards([card.pages])
                 group.extend(slots)  # a card set fills a slot per physical card

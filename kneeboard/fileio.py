@@ -8,6 +8,7 @@ import tempfile
 import time
 from pathlib import Path
 
+from kneeboard.i18n import N_, Msg
 from kneeboard.problems import Told
 
 MAX_FILE_BYTES = 1024 * 1024  #: profiles and styles larger than this are refused unread
@@ -51,7 +52,7 @@ def read_text(path: Path, limit: int = MAX_FILE_BYTES) -> str:
     loop or an impossible name each give a message; nothing ever waits on a FIFO.
     """
     path = Path(path)
-    return decode_text(read_bytes(path, limit, "a profile is a few KiB"), path)
+    return decode_text(read_bytes(path, limit, N_("a profile is a few KiB")), path)
 
 
 def decode_text(data: bytes, path: Path) -> str:
@@ -59,7 +60,8 @@ def decode_text(data: bytes, path: Path) -> str:
     try:
         return data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
-        raise FileProblem(f"{path}: not UTF-8 text (byte {exc.start}); save it as UTF-8") from None
+        raise FileProblem(Msg("{file}: not UTF-8 text (byte {byte}); save it as UTF-8", file=str(path),
+                              byte=str(exc.start))) from None
 
 
 def read_bytes(path: Path, limit: int = MAX_FILE_BYTES, why: str = "") -> bytes:
@@ -74,15 +76,16 @@ def read_bytes(path: Path, limit: int = MAX_FILE_BYTES, why: str = "") -> bytes:
     try:
         fd = os.open(path, flags)
     except ValueError:  # a NUL in the name: no file system has such a file
-        raise FileProblem(f"{_shown(path)}: is not a possible file name (it holds a NUL character)") from None
+        raise FileProblem(_no_name(path)) from None
     except OSError as exc:
-        raise FileProblem(f"{path}: {_open_failure(exc, 'read')}") from None
+        raise FileProblem(_at(path, _open_failure(exc, "read"))) from None
     try:
         info = os.fstat(fd)
         if not stat.S_ISREG(info.st_mode):
-            raise FileProblem(f"{path}: {_kind(info.st_mode)}, not a regular file; refused")
+            raise FileProblem(Msg("{file}: {kind}, not a regular file; refused", file=str(path),
+                                  kind=_kind(info.st_mode)))
         if info.st_size > limit:
-            raise FileProblem(f"{path}: {_too_large(limit, why)}")
+            raise FileProblem(_at(path, _too_large(limit, why)))
         chunks, size = [], 0
         while size <= limit:  # the size can change under us: read to the limit, never further
             chunk = os.read(fd, limit + 1 - size)
@@ -91,19 +94,36 @@ def read_bytes(path: Path, limit: int = MAX_FILE_BYTES, why: str = "") -> bytes:
             chunks.append(chunk)
             size += len(chunk)
     except BlockingIOError:
-        raise FileProblem(f"{path}: cannot be read without waiting; refused") from None
+        raise FileProblem(Msg("{file}: cannot be read without waiting; refused", file=str(path))) from None
     except OSError as exc:
-        raise FileProblem(f"{path}: cannot be read ({exc.strerror or exc})") from None
+        raise FileProblem(Msg("{file}: cannot be read ({reason})", file=str(path), reason=_reason(exc))) from None
     finally:
         os.close(fd)
     if size > limit:
-        raise FileProblem(f"{path}: {_too_large(limit, why)}")
+        raise FileProblem(_at(path, _too_large(limit, why)))
     return b"".join(chunks)
 
 
-def _too_large(limit: int, why: str) -> str:
-    amount = f"{limit // 1024} KiB" if limit >= 1024 else f"{limit} bytes"
-    return f"larger than {amount}{'; ' + why if why else ''}, refused unread"
+def _too_large(limit: int, why: str) -> Msg:
+    amount = Msg("{amount} KiB", amount=str(limit // 1024)) if limit >= 1024 else \
+        Msg("{amount} bytes", amount=str(limit))
+    if why:  # `why` a Word or Msg is told in the user's language too
+        return Msg("larger than {amount}; {why}, refused unread", amount=amount, why=why)
+    return Msg("larger than {amount}, refused unread", amount=amount)
+
+
+def _at(path, problem: Msg) -> Msg:
+    """A file's problem: its name (as it is), then what is wrong with it (told in the user's language)."""
+    return Msg("{file}: {problem}", file=str(path), problem=problem)
+
+
+def _reason(exc: OSError) -> str:
+    """The system's own words for an error: a value of a message, as the system wrote it (never translated)."""
+    return str(exc.strerror or exc)
+
+
+def _no_name(path) -> Msg:
+    return Msg("{file}: is not a possible file name (it holds a NUL character)", file=_shown(path))
 
 
 def _shown(path) -> str:
@@ -114,29 +134,31 @@ def _shown(path) -> str:
 def _kind(mode: int) -> str:
     """What a file that is not a regular file is, in words."""
     if stat.S_ISDIR(mode):
-        return "is a folder"
+        return N_("is a folder")
     if stat.S_ISFIFO(mode):
-        return "is a FIFO (named pipe)"
+        return N_("is a FIFO (named pipe)")
     if stat.S_ISSOCK(mode):
-        return "is a socket"
+        return N_("is a socket")
     if stat.S_ISCHR(mode) or stat.S_ISBLK(mode):
-        return "is a device"
-    return "is a special file"
+        return N_("is a device")
+    return N_("is a special file")
 
 
-def _open_failure(exc: OSError, doing: str) -> str:
-    """Why a file could not be opened, in words."""
+def _open_failure(exc: OSError, doing: str) -> Msg:
+    """Why a file could not be opened, in words: `doing` is "read" or "written"."""
     if exc.errno == errno.ENOENT:
-        return "no such file"
+        return Msg("no such file")
     if exc.errno == errno.EISDIR:
-        return "is a folder, not a file"
+        return Msg("is a folder, not a file")
     if exc.errno == errno.ELOOP:
-        return "its symbolic links form a loop; refused"
+        return Msg("its symbolic links form a loop; refused")
     if exc.errno == errno.ENXIO:  # opening a socket, or a FIFO for writing with no reader
-        return "is a socket or pipe, not a regular file; refused"
+        return Msg("is a socket or pipe, not a regular file; refused")
     if exc.errno == errno.ENAMETOOLONG:
-        return "the name is too long for the file system"
-    return f"cannot be {doing} ({exc.strerror or exc})"
+        return Msg("the name is too long for the file system")
+    if doing == "read":
+        return Msg("cannot be read ({reason})", reason=_reason(exc))
+    return Msg("cannot be written ({reason})", reason=_reason(exc))
 
 
 TEMP_SUFFIX = ".part"
@@ -217,20 +239,21 @@ def write_target(path: Path) -> tuple[Path, os.stat_result | None]:
     try:
         os.stat(path)
     except ValueError:
-        raise FileProblem(f"{_shown(path)}: is not a possible file name (it holds a NUL character)") from None
+        raise FileProblem(_no_name(path)) from None
     except FileNotFoundError:
         pass  # a new file, or a link to one not yet there: written at the link's target
     except OSError as exc:
-        raise FileProblem(f"{path}: {_open_failure(exc, 'written')}") from None
+        raise FileProblem(_at(path, _open_failure(exc, "written"))) from None
     target = Path(os.path.realpath(path))
     try:
         info = os.stat(target)
     except FileNotFoundError:
         return target, None
     except OSError as exc:
-        raise FileProblem(f"{path}: {_open_failure(exc, 'written')}") from None
+        raise FileProblem(_at(path, _open_failure(exc, "written"))) from None
     if not stat.S_ISREG(info.st_mode):
-        raise FileProblem(f"{path}: {_kind(info.st_mode)}, not a regular file; nothing was written")
+        raise FileProblem(Msg("{file}: {kind}, not a regular file; nothing was written", file=str(path),
+                              kind=_kind(info.st_mode)))
     return target, info
 
 
@@ -254,7 +277,8 @@ def write_atomic(path: Path, data) -> None:
         fd, tmp = tempfile.mkstemp(prefix=_temp_prefix(target, os.getpid()), suffix=TEMP_SUFFIX,
                                    dir=target.parent or ".")
     except OSError as exc:
-        raise FileProblem(f"{path}: cannot write in {target.parent} ({exc.strerror or exc})", exc.errno) from None
+        raise FileProblem(Msg("{file}: cannot write in {folder} ({reason})", file=str(path), folder=str(target.parent),
+                              reason=_reason(exc)), exc.errno) from None
     try:
         with os.fdopen(fd, "wb") as f:
             if callable(data):
@@ -270,7 +294,8 @@ def write_atomic(path: Path, data) -> None:
         with contextlib.suppress(OSError):
             os.unlink(tmp)
         if isinstance(exc, OSError):
-            raise FileProblem(f"{path}: cannot be written ({exc.strerror or exc})", exc.errno) from None
+            raise FileProblem(Msg("{file}: cannot be written ({reason})", file=str(path), reason=_reason(exc)),
+                              exc.errno) from None
         raise
 
 
@@ -311,8 +336,8 @@ def folder_lock(path: Path, wait_s: float | None = None):
                 break
             except BlockingIOError:
                 if time.monotonic() > deadline:
-                    raise FileProblem(f"{path}: another save in {folder} has not finished; nothing was written, "
-                                      "try again") from None
+                    raise FileProblem(Msg("{file}: another save in {folder} has not finished; nothing was written, "
+                                          "try again", file=str(path), folder=str(folder))) from None
                 time.sleep(0.005)
             except OSError:  # a file system without locks: unlocked, as before
                 break
@@ -334,12 +359,14 @@ def refuse_overwrite_of_inputs(output: Path, inputs) -> None:
     """
     output = Path(output)
     if output.name.lower().endswith(".toml"):
-        raise FileProblem(f"{output}: ends in .toml like profiles and styles; choose another name for the output")
+        raise FileProblem(Msg("{file}: ends in .toml like profiles and styles; choose another name for the output",
+                              file=str(output)))
     real = _real(output)
     for given in inputs:
         given = Path(given)
         if _real(given) == real or _same_file(output, given):
-            raise FileProblem(f"{output}: is the input {given}; an output never replaces an input")
+            raise FileProblem(Msg("{file}: is the input {given}; an output never replaces an input", file=str(output),
+                                  given=str(given)))
 
 
 def _real(path: Path) -> str:

@@ -29,7 +29,7 @@ from kneeboard import report
 from kneeboard.card.style import CardStyle
 from kneeboard.checks import physics_checks
 from kneeboard.compute import Results, compute
-from kneeboard.i18n import Msg
+from kneeboard.i18n import N_, Msg
 from kneeboard.inputs import profile_keys
 from kneeboard.inputs.profiles import Source, figure_data, fingerprint, read_source, source_from_text
 from kneeboard.inputs.schema import profile_from_data
@@ -230,7 +230,8 @@ def card_logo(style: CardStyle) -> bytes | None:
     try:
         return drawn_logo(style)
     except LogoProblem as exc:
-        raise LayoutError("logo", f"The card style's logo {exc}; the card is not made without it.") from None
+        raise LayoutError("logo", Msg("The card style's logo {problem}; the card is not made without it.",
+                                      problem=exc.args[0] if exc.args else str(exc))) from None
 
 
 def _refuse_empty_card(prepared: Prepared) -> None:
@@ -241,9 +242,10 @@ def _refuse_empty_card(prepared: Prepared) -> None:
 
     front, back = block_order(prepared.style)
     if not any(blocks.get(name).applies(prepared.table) for name in front + back):
-        listed = ", ".join(front + back) or "none"
-        raise LayoutError("front", f"The card style's front and back show no block this aircraft's card can print "
-                                   f"(listed: {listed}); list at least one more, e.g. header, margin_table.")
+        listed = ", ".join(front + back) or N_("none")
+        raise LayoutError("front", Msg("The card style's front and back show no block this aircraft's card can "
+                                       "print (listed: {listed}); list at least one more, e.g. header, margin_table.",
+                                       listed=listed))
 
 
 def today() -> str:
@@ -277,7 +279,7 @@ def report_text(prepared: Prepared, form: str, made_on: str | None = None) -> st
 
 # --- checks of the data that are neither the reader's nor the physics' ----------------------------------------
 
-PLACEHOLDER = "is the template's placeholder, not a figure from this aircraft's flight manual"
+PLACEHOLDER = Msg("is the template's placeholder, not a figure from this aircraft's flight manual")
 
 
 def placeholder_problems(data: dict) -> list[Problem]:
@@ -302,7 +304,7 @@ def placeholder_problems(data: dict) -> list[Problem]:
                         if isinstance(a, dict):
                             walk(a, b, f"{here}[{i}]", section or key)
             elif ours[key] == value and f"{section or key}.{key}" not in profile_keys.NOT_PLACEHOLDERS:
-                found.append(Problem(here, PLACEHOLDER, "this aircraft's own figure", value, WARNING))
+                found.append(Problem(here, PLACEHOLDER, Msg("this aircraft's own figure"), value, WARNING))
 
     for section in profile_keys.PLACEHOLDER_SECTIONS:
         if isinstance(data.get(section), (dict, list)) and section in template:
@@ -328,8 +330,9 @@ def glyph_problems(profile: Profile) -> list[Problem]:
         missing = fonts.missing(text)
         if missing:
             shown = ", ".join(missing[:8]) + (", ..." if len(missing) > 8 else "")
-            found.append(Problem(path, f"holds characters the card's fonts cannot draw ({shown}); they print as "
-                                 f"{fonts.substitute()}", "Latin, Greek or Cyrillic letters", severity=WARNING,
+            found.append(Problem(path, Msg("holds characters the card's fonts cannot draw ({shown}); they print as "
+                                           "{substitute}", shown=shown, substitute=fonts.substitute()),
+                                 Msg("Latin, Greek or Cyrillic letters"), severity=WARNING,
                                  plain=Msg("Characters the card's fonts cannot draw print as {substitute}",
                                            substitute=fonts.substitute())))
     return found

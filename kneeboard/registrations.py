@@ -34,9 +34,11 @@ def others(path: Path, files: list[Path]) -> str:
 
 def problems(dups: dict[str, list[Path]], severity: str = "error") -> list:
     """One problem per file of each duplicate, naming the other files (`kneeboard.problems.Problem`)."""
+    from kneeboard.i18n import Msg
     from kneeboard.problems import Problem
 
-    return [Problem("aircraft.registration", f"{registration} is also the registration of {others(path, files)}",
-                    "a registration no other profile of the fleet has (a copy of a profile beside it is a duplicate: "
-                    "remove it or give it its own registration)", severity=severity, file=str(path))
+    return [Problem("aircraft.registration", Msg("{registration} is also the registration of {others}",
+                                                 registration=registration, others=others(path, files)),
+                    Msg("a registration no other profile of the fleet has (a copy of a profile beside it is a "
+                        "duplicate: remove it or give it its own registration)"), severity=severity, file=str(path))
             for registration, files in dups.items() for path in files]

@@ -42,6 +42,7 @@ def template_data(category: str) -> dict | None:
     a placeholder too), or None when there is no such template. Raises FileProblem when the shipped template
     cannot be read (a broken installation): a profile made from it is never read as if it had no placeholders."""
     from kneeboard.fileio import FileProblem, read_text
+    from kneeboard.i18n import Msg
     from kneeboard.inputs.toml import parse_text
 
     if category not in CATEGORIES_WITH_TEMPLATES:
@@ -49,7 +50,8 @@ def template_data(category: str) -> dict | None:
     path = template_path(category)
     data, problems = parse_text(_EXAMPLE.sub(r"\1", read_text(path)))
     if data is None:
-        raise FileProblem(f"{path}: the shipped template {problems[0].message}; reinstall kneeboard")
+        raise FileProblem(Msg("{file}: the shipped template {problem}; reinstall kneeboard", file=str(path),
+                              problem=problems[0].message))
     return data
 
 

@@ -12,6 +12,7 @@ from pathlib import Path
 
 from kneeboard import shipped
 from kneeboard.cli_words import tr
+from kneeboard.i18n import Msg
 from kneeboard.problems import Told, printable
 
 
@@ -36,13 +37,14 @@ def write_new(path: Path, data: bytes) -> None:
     try:
         fd = os.open(path, os.O_WRONLY | os.O_CREAT | os.O_EXCL | getattr(os, "O_BINARY", 0), 0o666)
     except FileExistsError:
-        raise Refused(f"{printable(path)}: already exists; nothing was written (choose another name, or move it "
-                      "away first)") from None
+        raise Refused(Msg("{file}: already exists; nothing was written (choose another name, or move it away "
+                          "first)", file=printable(path))) from None
     except FileNotFoundError:
-        raise Refused(f"{printable(path)}: the folder {printable(path.parent)} does not exist; nothing was "
-                      "written") from None
+        raise Refused(Msg("{file}: the folder {folder} does not exist; nothing was written", file=printable(path),
+                          folder=printable(path.parent))) from None
     except (OSError, ValueError) as exc:
-        raise Refused(f"{printable(path)}: cannot be written ({getattr(exc, 'strerror', None) or exc})") from None
+        raise Refused(Msg("{file}: cannot be written ({reason})", file=printable(path),
+                          reason=str(getattr(exc, "strerror", None) or exc))) from None
     try:
         with os.fdopen(fd, "wb") as f:
             f.write(data)
@@ -51,15 +53,17 @@ def write_new(path: Path, data: bytes) -> None:
     except OSError as exc:
         with contextlib.suppress(OSError):  # ours, half written: gone rather than left looking like a profile
             os.unlink(path)
-        raise Refused(f"{printable(path)}: cannot be written ({exc.strerror or exc})") from None
+        raise Refused(Msg("{file}: cannot be written ({reason})", file=printable(path),
+                          reason=str(exc.strerror or exc))) from None
 
 
 def new_profile(path: Path, category: str) -> Path:
     """The template of `category` written to `path` (a new .toml file)."""
     path = Path(path)
     if path.suffix.lower() != ".toml":
-        raise Refused(f"{printable(path)}: a profile's name ends in .toml (e.g. {printable(path.stem or 'mine')}"
-                      ".toml), so that kneeboard finds it in its folder; nothing was written")
+        example = printable(path.stem or "mine") + ".toml"
+        raise Refused(Msg("{file}: a profile's name ends in .toml (e.g. {example}), so that kneeboard finds it in "
+                          "its folder; nothing was written", file=printable(path), example=example))
     write_new(path, shipped.template_path(category).read_bytes())
     return path
 
@@ -70,15 +74,16 @@ def copy_samples(folder: Path) -> list[Path]:
     folder = Path(folder)
     sources = [(source, folder / name) for source, name in shipped.sample_fleet_files()]
     if folder.exists() and not folder.is_dir():
-        raise Refused(f"{printable(folder)}: is not a folder; nothing was copied")
+        raise Refused(Msg("{folder}: is not a folder; nothing was copied", folder=printable(folder)))
     taken = [target.name for _, target in sources if os.path.lexists(target)]
     if taken:
-        raise Refused(f"{printable(folder)}: already holds {', '.join(printable(t) for t in taken)}; nothing was "
-                      "copied (choose an empty or new folder)")
+        raise Refused(Msg("{folder}: already holds {files}; nothing was copied (choose an empty or new folder)",
+                          folder=printable(folder), files=", ".join(printable(t) for t in taken)))
     try:
         folder.mkdir(parents=True, exist_ok=True)
     except OSError as exc:
-        raise Refused(f"{printable(folder)}: cannot be made ({exc.strerror or exc}); nothing was copied") from None
+        raise Refused(Msg("{folder}: cannot be made ({reason}); nothing was copied", folder=printable(folder),
+                          reason=str(exc.strerror or exc))) from None
     written = []
     for source, target in sources:
         write_new(target, source.read_bytes())
@@ -117,7 +122,8 @@ def cmd_samples(args) -> int:
     print(printable(tr("copied {n} invented sample profiles and the card style {style} to {folder}. No figure in "
                        "them is from a real flight manual.", n=profiles, style=shipped.FLEET_STYLE,
                        folder=str(folder))))
-    print(printable(tr("Try: {command}", command=f"kneeboard card {folder} -o cards.pdf")))
+    command = f"kneeboard card {folder} -o cards.pdf"
+    print(printable(tr("Try: {command}", command=command)))
     print(tr(CAUTION))
     return EXIT_OK
 

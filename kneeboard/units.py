@@ -14,6 +14,7 @@ from functools import lru_cache
 
 import pint
 
+from kneeboard.i18n import N_, Msg
 from kneeboard.problems import Told
 
 #: Display units a card may use, as written in profiles and styles (named in `unit_names`, which loads no pint).
@@ -42,19 +43,28 @@ ureg.define("fpm = foot / minute")
 class Kind:
     """A kind of physical quantity a profile field holds."""
 
-    name: str  #: what a person calls it: "speed"
+    name: str  #: what a person calls it: "speed" (a Word, translated where it is shown)
     dimensionality: str  #: pint dimensionality it must have
     si_unit: str  #: unit of the float the program works with
-    examples: str  #: what would be accepted, for messages
+    examples: str  #: what would be accepted, for messages (a Msg: its "or" is told in the user's language)
+    such_as: str = ""  #: what would be accepted as one sentence (a Msg), "a speed such as ..."
+
+    @property
+    def expected(self) -> str:
+        """What would be accepted, as a message's expected text: "a speed such as "52 kt", ..."."""
+        return self.such_as or Msg("a {kind} such as {examples}", kind=self.name, examples=self.examples)
 
 
-SPEED = Kind("speed", "[length] / [time]", "m/s", '"52 kt", "96 km/h" or "60 mph"')
-MASS = Kind("mass", "[mass]", "kg", '"750 kg" or "1650 lb"')
-LENGTH = Kind("length", "[length]", "m", '"1000 ft" or "300 m"')
-VOLUME = Kind("volume", "[length] ** 3", "m**3", '"100 L" or "26 gal"')
-DENSITY = Kind("density", "[mass] / [length] ** 3", "kg/m**3", '"0.72 kg/L"')
-TEMPERATURE = Kind("temperature", "[temperature]", "K", '"15 degC", "59 degF" or "288 K"')
-TIME = Kind("time", "[time]", "s", '"4 s"')
+SPEED = Kind(N_("speed"), "[length] / [time]", "m/s", Msg('"52 kt", "96 km/h" or "60 mph"'),
+             Msg('a speed such as "52 kt", "96 km/h" or "60 mph"'))
+MASS = Kind(N_("mass"), "[mass]", "kg", Msg('"750 kg" or "1650 lb"'), Msg('a mass such as "750 kg" or "1650 lb"'))
+LENGTH = Kind(N_("length"), "[length]", "m", Msg('"1000 ft" or "300 m"'), Msg('a length such as "1000 ft" or "300 m"'))
+VOLUME = Kind(N_("volume"), "[length] ** 3", "m**3", Msg('"100 L" or "26 gal"'),
+              Msg('a volume such as "100 L" or "26 gal"'))
+DENSITY = Kind(N_("density"), "[mass] / [length] ** 3", "kg/m**3", '"0.72 kg/L"', Msg('a density such as "0.72 kg/L"'))
+TEMPERATURE = Kind(N_("temperature"), "[temperature]", "K", Msg('"15 degC", "59 degF" or "288 K"'),
+                   Msg('a temperature such as "15 degC", "59 degF" or "288 K"'))
+TIME = Kind(N_("time"), "[time]", "s", '"4 s"', Msg('a time such as "4 s"'))
 
 
 MAX_TEXT = 64
@@ -68,11 +78,15 @@ _UNIT_TOKEN = re.compile(r"\s*(?:(?P<name>[A-Za-z_°µ][A-Za-z_°µ0-9]*)|(?P<po
 
 
 class QuantityError(Told, ValueError):
-    """A value that is not a quantity of the expected kind; `expected` says what would be."""
+    """A value that is not a quantity of the expected kind; `expected` says what would be.
+
+    `message` is the message as made (a `Msg`, told in any language: a problem made from it keeps it so); `str` of
+    the error is it told in the user's language.
+    """
 
     def __init__(self, message: str, expected: str):
         super().__init__(message)
-        self.expected = expected
+        self.message, self.expected = message, expected
 
 
 @lru_cache(maxsize=512)
@@ -84,7 +98,7 @@ def _unit(text: str):
     QuantityError.
     """
     if not _is_unit_expression(text):
-        raise QuantityError(f"{text!r} is not a unit", "")
+        raise QuantityError(Msg("{text} is not a unit", text=repr(text)), "")
     try:
         unit = ureg.parse_units(text)
         _check_plain(text, unit)
@@ -92,7 +106,7 @@ def _unit(text: str):
     except QuantityError:
         raise
     except Exception as exc:  # pint raises several unrelated types for junk
-        raise QuantityError(f"unknown unit {text!r}", "") from exc
+        raise QuantityError(Msg("unknown unit {text}", text=repr(text)), "") from exc
     return unit
 
 
@@ -110,22 +124,22 @@ def _check_plain(text: str, unit) -> None:
         plain_name = name.removeprefix("delta_")
         definition = ureg._units.get(name) or ureg._units.get(plain_name)
         if definition is None:
-            raise QuantityError(f"{text!r} is not a unit a value can have", "")
+            raise QuantityError(Msg("{text} is not a unit a value can have", text=repr(text)), "")
         if definition.is_logarithmic:
-            raise QuantityError(f"{text!r} holds {plain_name}, a logarithmic unit (a level, not an amount); "
-                                "only plain units are accepted", "")
+            raise QuantityError(Msg("{text} holds {unit}, a logarithmic unit (a level, not an amount); only plain "
+                                    "units are accepted", text=repr(text), unit=plain_name), "")
         if name not in ureg._units or not definition.is_multiplicative and (len(names) > 1 or container[name] != 1):
             # pint turns an offset scale inside a product into a made-up delta_ unit
-            raise QuantityError(f"{text!r} puts the temperature scale {plain_name} inside an expression; "
-                                'a temperature is written alone, e.g. "15 degC"', "")
+            raise QuantityError(Msg('{text} puts the temperature scale {unit} inside an expression; a temperature '
+                                    'is written alone, e.g. "15 degC"', text=repr(text), unit=plain_name), "")
         if not ureg.get_dimensionality(name):
-            raise QuantityError(f"{text!r} holds {name}, a pure number that would change the value as written; "
-                                "write the value in a plain unit", "")
+            raise QuantityError(Msg("{text} holds {unit}, a pure number that would change the value as written; "
+                                    "write the value in a plain unit", text=repr(text), unit=name), "")
         roots = ureg.get_root_units(name)[1]._units
         hidden = [root for root in roots if not ureg.get_dimensionality(root)]
         if hidden:
-            raise QuantityError(f"{text!r} holds {name}, which counts {hidden[0]}s (a pure number); "
-                                "write the value in a plain unit", "")
+            raise QuantityError(Msg("{text} holds {unit}, which counts {counted}s (a pure number); write the value "
+                                    "in a plain unit", text=repr(text), unit=name, counted=hidden[0]), "")
     _check_no_cancelling(text, container)
 
 
@@ -138,8 +152,8 @@ def _check_no_cancelling(text: str, container) -> None:
             used[dim] = used.get(dim, 0) + abs(exponent * power)
             total[dim] = total.get(dim, 0) + exponent * power
     if any(used[dim] != abs(total[dim]) for dim in used):
-        raise QuantityError(f"{text!r} has units that cancel each other (a pure-number factor); "
-                            "write the value in one plain unit", "")
+        raise QuantityError(Msg("{text} has units that cancel each other (a pure-number factor); write the value in "
+                                "one plain unit", text=repr(text)), "")
 
 
 def _is_unit_expression(text: str) -> bool:
@@ -171,7 +185,7 @@ def split(text: str) -> tuple[float, str]:
     """Split "52 kt" into (52.0, "kt"); raises QuantityError when it is not number-and-unit."""
     m = _NUMBER_UNIT.match(text) if len(text) <= MAX_TEXT else None
     if not m:
-        raise QuantityError("not a number followed by a unit", "")
+        raise QuantityError(Msg("not a number followed by a unit"), "")
     if m.group(2)[:1] in (",", "'", "_") or m.group(2)[:1].isdigit():
         _refuse_separators(text)
     return float(m.group(1)), m.group(2)
@@ -182,12 +196,12 @@ def _refuse_separators(text: str) -> None:
     grouped = _GROUPED.match(text)
     if grouped:
         digits = re.sub(r"[,' _]", "", grouped.group(1))
-        raise QuantityError("thousands separators are not accepted; "
-                            f"write {' '.join(filter(None, (digits, grouped.group(3))))}", "")
+        raise QuantityError(Msg("thousands separators are not accepted; write {written}",
+                                written=" ".join(filter(None, (digits, grouped.group(3))))), "")
     comma = _DECIMAL_COMMA.match(text)
     if comma:
         written = " ".join(filter(None, (f"{comma.group(1)}.{comma.group(2)}", comma.group(3))))
-        raise QuantityError(f"the decimal separator is a point, not a comma; write {written}", "")
+        raise QuantityError(Msg("the decimal separator is a point, not a comma; write {written}", written=written), "")
 
 
 def parse(value: object, kind: Kind) -> float:
@@ -199,7 +213,7 @@ def parse(value: object, kind: Kind) -> float:
     if isinstance(value, str):
         result = _parse_text(value, kind)
         if isinstance(result, QuantityError):
-            raise QuantityError(str(result), result.expected)
+            raise QuantityError(result.message, result.expected)
         return result
     return _parse(value, kind)
 
@@ -213,38 +227,43 @@ def _parse_text(value: str, kind: Kind):
 
 
 def _parse(value: object, kind: Kind) -> float:
-    expected = f"a {kind.name} such as {kind.examples}"
+    expected = kind.expected
     if isinstance(value, bool) or not isinstance(value, str):
         if isinstance(value, (int, float)):
-            raise QuantityError("a bare number has no unit; write it with its unit", expected)
-        raise QuantityError(f"expected text with a number and a unit, not {type(value).__name__}", expected)
+            raise QuantityError(Msg("a bare number has no unit; write it with its unit"), expected)
+        raise QuantityError(Msg("expected text with a number and a unit, not {type}", type=type(value).__name__),
+                            expected)
     if len(value) > MAX_TEXT:
-        raise QuantityError(f"text of {len(value)} characters is too long for a quantity", expected)
+        raise QuantityError(Msg("text of {length} characters is too long for a quantity", length=str(len(value))),
+                            expected)
     try:
         number, unit_text = split(value)
         if not unit_text:
-            raise QuantityError("the unit is missing", expected)
+            raise QuantityError(Msg("the unit is missing"), expected)
         unit = _unit(unit_text)
     except QuantityError as exc:
-        raise QuantityError(str(exc), expected) from None
+        raise QuantityError(exc.message, expected) from None
     if not math.isfinite(number):
-        raise QuantityError("the number is too large", expected)
+        raise QuantityError(Msg("the number is too large"), expected)
     if unit.dimensionality != ureg.get_dimensionality(kind.dimensionality):
-        raise QuantityError(f"{unit_text!r} is a unit of {_describe(unit)}, not of {kind.name}", expected)
+        raise QuantityError(Msg("{unit} is a unit of {described}, not of {kind}", unit=repr(unit_text),
+                                described=_describe(unit), kind=kind.name), expected)
     if kind is TEMPERATURE:
         if "delta" in str(unit):
-            raise QuantityError(f"{unit_text!r} is a temperature difference, not a temperature", expected)
+            raise QuantityError(Msg("{unit} is a temperature difference, not a temperature", unit=repr(unit_text)),
+                                expected)
     elif unit.dimensionality == ureg.get_dimensionality("[temperature]"):
-        raise QuantityError("a temperature unit here makes no sense", expected)
+        raise QuantityError(Msg("a temperature unit here makes no sense"), expected)
     try:
         if kind is TEMPERATURE:
             result = float(ureg.Quantity(number, unit).to("K").magnitude)
         else:
             result = number * _factor(unit_text, kind.si_unit)
     except Exception:  # pint's conversions raise overflow and offset-unit errors of several types
-        raise QuantityError(f"{unit_text!r} cannot be converted to {kind.si_unit}", expected) from None
+        raise QuantityError(Msg("{unit} cannot be converted to {si_unit}", unit=repr(unit_text), si_unit=kind.si_unit),
+                            expected) from None
     if not math.isfinite(result):
-        raise QuantityError("the number is too large", expected)
+        raise QuantityError(Msg("the number is too large"), expected)
     return result
 
 
@@ -253,7 +272,7 @@ def _describe(unit) -> str:
     for kind in (SPEED, MASS, LENGTH, VOLUME, DENSITY, TEMPERATURE, TIME):
         if dims == ureg.get_dimensionality(kind.dimensionality):
             return kind.name
-    return str(dims) if dims else "a pure number"
+    return str(dims) if dims else N_("a pure number")
 
 
 def display_unit(value: object, options: tuple[str, ...]) -> str | None:
