@@ -125,7 +125,7 @@ class Reader:
     def quantity(self, data, key, path, kind, bounds=None, required=False):
         if key not in data:
             if required:
-                self.problem(path, REQUIRED, Msg("a {kind} such as {examples}", kind=kind.name, examples=kind.examples))
+                self.problem(path, REQUIRED, kind.expected)
             return None
         return self.quantity_value(data[key], path, kind, bounds)
 
