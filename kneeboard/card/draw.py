@@ -212,5 +212,6 @@ def fit_lines(block: str, text: str, font: str, size: float, max_width: float, m
     word wider than the line is broken with a hyphen instead)."""
     lines = fonts.wrap(text, font, size, max_width, hyphenate=hyphenate)
     if len(lines) > max_lines or any(fonts.width(line, font, size) > max_width + 0.01 for line in lines):
-        raise DoesNotFit(block, Msg("{text} does not fit in {width} pt", text=repr(text), width=f"{max_width:.0f}"))
+        raise DoesNotFit(block, Msg("{text} does not fit in {width} pt", text=repr(text),
+                                    width=format(max_width, ".0f")))
     return lines

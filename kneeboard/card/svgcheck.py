@@ -60,7 +60,7 @@ def check_svg(data: bytes) -> SvgFacts:
     elements = list(root.iter())  # iterative in C: no recursion however deep the file
     if len(elements) > MAX_ELEMENTS:
         raise SvgProblem(Msg("has {count} elements; a logo has at most {most}", count=str(len(elements)),
-                             most=f"{MAX_ELEMENTS:,}"))
+                             most=format(MAX_ELEMENTS, ",")))
     _check_depth(root)
     embedded = []
     ids = {}
@@ -231,7 +231,7 @@ class _Expansion:
 
 
 def _too_many_drawn() -> Msg:
-    return Msg("draws more than {most} elements once its <use> copies are counted", most=f"{MAX_DRAWN:,}")
+    return Msg("draws more than {most} elements once its <use> copies are counted", most=format(MAX_DRAWN, ","))
 
 
 def _canvas(elements: list[ET.Element]) -> tuple[float | None, float | None]:
@@ -264,7 +264,7 @@ def _length(value: str | None, name: str) -> float | None:
     number = float(m.group(1)) * _UNIT_PX[m.group(2)]
     if not 0 < number <= MAX_CANVAS:
         raise SvgProblem(Msg("has a {name} of {value}; a logo's canvas is above 0 and at most {most} units", name=name,
-                              value=value[:30], most=f"{MAX_CANVAS:,.0f}"))
+                              value=value[:30], most=format(MAX_CANVAS, ",.0f")))
     return number
 
 
@@ -281,5 +281,5 @@ def _view_box(value: str | None) -> tuple[float, float] | None:
     x, y, w, h = numbers
     if not (0 < w <= MAX_CANVAS and 0 < h <= MAX_CANVAS and abs(x) <= MAX_CANVAS and abs(y) <= MAX_CANVAS):
         raise SvgProblem(Msg("has a viewBox of {value}; a logo's canvas is above 0 and at most {most} units",
-                             value=value[:40], most=f"{MAX_CANVAS:,.0f}"))
+                             value=value[:40], most=format(MAX_CANVAS, ",.0f")))
     return w, h

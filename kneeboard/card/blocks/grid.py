@@ -39,7 +39,7 @@ class Grid:
             widest = _widest(tuple(r[j].text for r in rows)) * size
             if widest > w - 2:
                 raise DoesNotFit(block, Msg("column {column} needs {needs} pt, has {has}", column=str(j + 1),
-                                             needs=f"{widest:.0f}", has=f"{w:.0f}"))
+                                             needs=format(widest, ".0f"), has=format(w, ".0f")))
             self.edges.append(x + (w + widest) / 2)
 
     def height(self, start: int = 0, stop: int | None = None) -> float:
