@@ -15,6 +15,7 @@ import re
 import zlib
 
 from kneeboard.card.ops import Figure
+from kneeboard.i18n import Msg
 from kneeboard.problems import Told
 
 DATA_VERSION = 1
@@ -103,12 +104,14 @@ class _Budget:
     def take_candidate(self) -> None:
         self.candidates -= 1
         if self.candidates < 0:
-            raise CardDataProblem(f"holds more than {MAX_CANDIDATES} streams that may be card data; refused")
+            raise CardDataProblem(Msg("holds more than {most} streams that may be card data; refused",
+                                      most=str(MAX_CANDIDATES)))
 
     def take(self, size: int) -> None:
         self.left -= size
         if self.left < 0:
-            raise CardDataProblem(f"holds more than {MAX_TOTAL // (1024 * 1024)} MiB of card data; refused")
+            raise CardDataProblem(Msg("holds more than {most} MiB of card data; refused",
+                                      most=str(MAX_TOTAL // (1024 * 1024))))
 
 
 def _compressed(pdf: bytes, budget: _Budget) -> list[str]:
@@ -163,7 +166,8 @@ def _nesting_within(text: str, limit: int) -> bool:
 
 def _parse(chunk: str) -> dict | None:
     if not _nesting_within(chunk, MAX_NESTING):
-        raise CardDataProblem(f"holds card data nested more than {MAX_NESTING} levels deep; refused")
+        raise CardDataProblem(Msg("holds card data nested more than {most} levels deep; refused",
+                                  most=str(MAX_NESTING)))
     try:
         data, _ = json.JSONDecoder().raw_decode(chunk.lstrip())
     except (ValueError, RecursionError):

@@ -9,7 +9,7 @@ from dataclasses import dataclass, field
 from kneeboard.card import fonts
 from kneeboard.card.ops import CAUTION, FIGURE, HEADING, LABEL, SMALL, TITLE, Circle, Figure, Line, Path, Rect, Text
 from kneeboard.card.style import CardStyle
-from kneeboard.i18n import Translator, translator
+from kneeboard.i18n import Msg, Translator, translator
 from kneeboard.printed import figure, weight_text  # noqa: F401  (the blocks take them from here too)
 from kneeboard.tables import CardTable
 
@@ -29,7 +29,8 @@ SECONDARY = 0.8  #: figures of the smaller tables, relative to the bank table's 
 
 
 class DoesNotFit(Exception):
-    """A block that cannot be laid out in the space offered; `block` names it."""
+    """A block that cannot be laid out in the space offered; `block` names it, `reason` (a `Msg`) says why: the
+    layout's refusal tells it in the user's language."""
 
     def __init__(self, block: str, reason: str):
         super().__init__(f"{block}: {reason}")
@@ -211,5 +212,6 @@ def fit_lines(block: str, text: str, font: str, size: float, max_width: float, m
     word wider than the line is broken with a hyphen instead)."""
     lines = fonts.wrap(text, font, size, max_width, hyphenate=hyphenate)
     if len(lines) > max_lines or any(fonts.width(line, font, size) > max_width + 0.01 for line in lines):
-        raise DoesNotFit(block, f"{text!r} does not fit in {max_width:.0f} pt")
+        raise DoesNotFit(block, Msg("{text} does not fit in {width} pt", text=repr(text),
+                                    width=format(max_width, ".0f")))
     return lines

@@ -28,6 +28,7 @@ from functools import cache, lru_cache
 from importlib import metadata, resources
 from pathlib import Path
 
+from kneeboard.i18n import Msg
 from kneeboard.problems import Told
 
 REGULAR, BOLD = "KbSans", "KbSans-Bold"
@@ -62,8 +63,9 @@ def font_version() -> str:
         raise FontProblem(_missing_package()) from None
 
 
-def _missing_package() -> str:
-    return f"the card fonts ({FONT_PACKAGE}) are not installed; reinstall kneeboard with pip to get them"
+def _missing_package() -> Msg:
+    return Msg("the card fonts ({package}) are not installed; reinstall kneeboard with pip to get them",
+               package=FONT_PACKAGE)
 
 
 def source_file(name: str) -> Path:
@@ -74,7 +76,7 @@ def source_file(name: str) -> Path:
         raise FontProblem(_missing_package()) from None
     path = Path(str(root / "files" / _SOURCES[name]))
     if not path.is_file():
-        raise FontProblem(f"{path}: font file missing; reinstall {FONT_PACKAGE}")
+        raise FontProblem(Msg("{path}: font file missing; reinstall {package}", path=str(path), package=FONT_PACKAGE))
     return path
 
 

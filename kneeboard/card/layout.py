@@ -150,8 +150,9 @@ def layout_card(table: CardTable, style: CardStyle, fingerprint: str, made_on: s
     block = unfit.block if unfit else "card"
     raise LayoutError(
         block,
-        f"The {block} block cannot be printed on a {_card_name(style)} card even at the smallest legible type "
-        f"({unfit.reason if unfit else 'no room'}). Choose a larger card size, or a shorter text.",
+        Msg("The {block} block cannot be printed on a {card} card even at the smallest legible type ({reason}). "
+            "Choose a larger card size, or a shorter text.", block=block, card=card_name(style),
+            reason=unfit.reason if unfit else Msg("no room")),
     )
 
 
@@ -180,19 +181,20 @@ class _Tries:
         return self.found[scale]
 
 
-def _card_name(style: CardStyle) -> str:
-    return f"{style.size}{' landscape' if style.landscape else ''}"
+def card_name(style: CardStyle) -> str:
+    """The card as a refusal names it: its size as the style writes it ("a5"), "a5 landscape" turned."""
+    return Msg("{size} landscape", size=style.size) if style.landscape else style.size
 
 
 def _too_many_faces(style: CardStyle, least: "Flowed", cap: int) -> LayoutError:
     """The style's cap on faces cannot hold the content: name the blocks left out and what would fit."""
     left_out = tuple(dict.fromkeys(name for face in least.faces_list[cap:] for name, _ in face.pieces()))
-    choices = [f"allow {least.faces} faces (max_faces)", "a larger card size", "fewer bank angles",
-               "fewer blocks in the style"]
     return LayoutError(
         left_out[0] if left_out else "card",
-        f"This card needs {least.faces} faces on a {_card_name(style)} card even at the smallest legible type; the "
-        f"style allows {cap}. Left out: {', '.join(left_out)}. Choose one: {'; '.join(choices)}.",
+        Msg("This card needs {faces} faces on a {card} card even at the smallest legible type; the style allows "
+            "{cap}. Left out: {left_out}. Choose one: allow {faces} faces (max_faces); a larger card size; fewer bank "
+            "angles; fewer blocks in the style.", faces=str(least.faces), card=card_name(style), cap=str(cap),
+            left_out=", ".join(left_out)),  # the blocks' names as the style writes them
         left_out,
     )
 
@@ -405,7 +407,7 @@ def _split(name, m: Measure, put, advance, empty_room, column, state, gap) -> No
                 if smaller:
                     advance()
                     continue
-                raise DoesNotFit(name, "taller than a whole face even at this type size")
+                raise DoesNotFit(name, Msg("taller than a whole face even at this type size"))
             fit = [j for j in range(i + 1, n) if piece(j).height(m) + spacing <= state["room"] + 1e-6]
             least = min(MIN_ROWS, n - i)
             if fit and (fit[-1] - i >= least or fresh and not smaller):
@@ -415,7 +417,7 @@ def _split(name, m: Measure, put, advance, empty_room, column, state, gap) -> No
                 advance()
                 continue
             if fresh and not smaller:
-                raise DoesNotFit(name, "its heads and one row are taller than a whole face at this type size")
+                raise DoesNotFit(name, Msg("its heads and one row are taller than a whole face at this type size"))
             advance()
 
 

@@ -10,6 +10,7 @@ from functools import lru_cache
 from pathlib import Path
 
 from kneeboard.card.logocheck import PNG_SIGNATURE, LogoProblem, bound, check_logo, png_size, read_logo, svg_facts
+from kneeboard.i18n import Msg
 
 LOGO_PIXELS = 600  #: long side of a logo drawn to PNG: over 600 dpi at the size a logo prints
 MAX_KEPT_SIDE = 1200  #: a raster logo larger than this is scaled down: the card prints it about 2 cm wide
@@ -69,10 +70,10 @@ def _decode_embedded(data: bytes) -> None:
     reader, _buffer = _reader(data, b"jpeg")
     size = reader.size()  # from the header: nothing decoded yet
     if not size.isValid():
-        raise LogoProblem(f"embeds an image that cannot be read ({reader.errorString()})")
+        raise LogoProblem(Msg("embeds an image that cannot be read ({detail})", detail=reader.errorString()))
     bound(size.width(), size.height(), "embeds")
     if reader.read().isNull():
-        raise LogoProblem(f"embeds an image that cannot be decoded ({reader.errorString()})")
+        raise LogoProblem(Msg("embeds an image that cannot be decoded ({detail})", detail=reader.errorString()))
 
 
 def _reader(data: bytes, fmt: bytes):
@@ -94,9 +95,9 @@ def _decode(data: bytes, fmt: bytes, width: int, height: int):
     reader, _buffer = _reader(data, fmt)
     image = reader.read()
     if image.isNull():
-        raise LogoProblem(f"cannot be decoded ({reader.errorString()})")
+        raise LogoProblem(Msg("cannot be decoded ({detail})", detail=reader.errorString()))
     if (image.width(), image.height()) != (width, height):
-        raise LogoProblem("cannot be decoded (its pixels do not match its header)")
+        raise LogoProblem(Msg("cannot be decoded (its pixels do not match its header)"))
     return image
 
 
@@ -115,7 +116,7 @@ def _png_bytes(image) -> bytes:
     buffer = QBuffer(data)
     buffer.open(QIODevice.OpenModeFlag.WriteOnly)
     if not image.save(buffer, "PNG"):
-        raise LogoProblem("cannot be turned into a PNG for the card")
+        raise LogoProblem(Msg("cannot be turned into a PNG for the card"))
     buffer.close()
     return bytes(data.data())
 
@@ -130,7 +131,7 @@ def _render_svg(data: bytes, width: float, height: float) -> bytes:
     ensure_gui_app()
     renderer = QSvgRenderer(QByteArray(data))  # the checked bytes, never the path: the file may change meanwhile
     if not renderer.isValid():
-        raise LogoProblem("is not an SVG image Qt can draw")
+        raise LogoProblem(Msg("is not an SVG image Qt can draw"))
     scale = LOGO_PIXELS / max(width, height)
     image = QImage(max(1, round(width * scale)), max(1, round(height * scale)), QImage.Format.Format_ARGB32)
     image.fill(0)

@@ -14,6 +14,7 @@ from pathlib import Path
 
 from kneeboard.card.svgcheck import MAX_ASPECT, SvgProblem, check_svg
 from kneeboard.fileio import FileProblem, read_bytes
+from kneeboard.i18n import Msg, Num
 from kneeboard.problems import Told
 
 MAX_LOGO_BYTES = 2 * 1024 * 1024  #: a logo file larger than this is refused unread
@@ -41,10 +42,10 @@ def read_logo(path: Path) -> CheckedLogo:
     try:
         data = read_bytes(path, MAX_LOGO_BYTES, "a logo is a small image")
     except FileProblem as exc:
-        raise LogoProblem(str(exc).removeprefix(f"{path}: ")) from None
+        raise LogoProblem(_without_path(exc, path)) from None
     kind = path.suffix.lower().lstrip(".")
     if kind not in ("png", "svg"):
-        raise LogoProblem("is not a PNG or SVG file")
+        raise LogoProblem(Msg("is not a PNG or SVG file"))
     return check_logo(data, kind)
 
 
@@ -52,7 +53,7 @@ def check_logo(data: bytes, kind: str) -> CheckedLogo:
     """Check the bytes of a logo named as a `kind` ("png" | "svg") file; raises LogoProblem."""
     if kind == "png":
         if not data.startswith(PNG_SIGNATURE):
-            raise LogoProblem("is not a PNG image" + _what_it_is(data))
+            raise LogoProblem(Msg("is not a PNG image ({why})", why=_what_it_is(data)))
         png_pixels(data)
     else:
         svg_facts(data)
@@ -62,11 +63,11 @@ def check_logo(data: bytes, kind: str) -> CheckedLogo:
 def svg_facts(data: bytes):
     """The `svgcheck.SvgFacts` of an SVG logo, every embedded image and the canvas checked; raises LogoProblem."""
     if data.startswith(PNG_SIGNATURE):
-        raise LogoProblem("is a PNG image named .svg; rename it to .png")
+        raise LogoProblem(Msg("is a PNG image named .svg; rename it to .png"))
     try:
         facts = check_svg(data)
     except SvgProblem as exc:
-        raise LogoProblem(str(exc)) from None
+        raise LogoProblem(exc.args[0]) from None  # its Msg, told later
     for embedded in facts.embedded:
         if embedded.startswith(PNG_SIGNATURE):
             png_pixels(embedded)
@@ -75,9 +76,10 @@ def svg_facts(data: bytes):
             bound(width, height, "embeds")
     width, height = facts.width, facts.height
     if not (width and height):  # a renderer would guess 100 x 100: a logo says its size
-        raise LogoProblem("has no size: give the <svg> a width and height or a viewBox")
+        raise LogoProblem(Msg("has no size: give the <svg> a width and height or a viewBox"))
     if max(width / height, height / width) > MAX_ASPECT:
-        raise LogoProblem(f"is {width:g} x {height:g} units: a logo's sides differ at most {MAX_ASPECT:g} times")
+        raise LogoProblem(Msg("is {width} x {height} units: a logo's sides differ at most {most} times",
+                               width=Num(f"{width:g}"), height=Num(f"{height:g}"), most=Num(f"{MAX_ASPECT:g}")))
     return facts
 
 
@@ -94,7 +96,8 @@ def png_pixels(data: bytes) -> tuple[int, int]:
     width, height, header, compressed = _chunks(data)
     depth, colour, interlace = header[8], header[9], header[12]
     if colour not in _CHANNELS or depth not in (1, 2, 4, 8, 16):
-        raise LogoProblem(f"cannot be decoded (colour type {colour}, bit depth {depth})")
+        raise LogoProblem(Msg("cannot be decoded (colour type {colour}, bit depth {depth})", colour=str(colour),
+                               depth=str(depth)))
     bits = _CHANNELS[colour] * depth
     passes = _ADAM7 if interlace else ((0, 0, 1, 1),)
     expected = 0
@@ -106,42 +109,43 @@ def png_pixels(data: bytes) -> tuple[int, int]:
         # never inflated past what the header declares: a small file cannot unpack into gigabytes here
         got = len(zlib.decompressobj().decompress(compressed, expected + 1))
     except zlib.error as exc:
-        raise LogoProblem(f"cannot be decoded (its pixel data is damaged: {exc})") from None
+        raise LogoProblem(Msg("cannot be decoded (its pixel data is damaged: {detail})", detail=str(exc))) from None
     if got != expected:
-        raise LogoProblem("cannot be decoded (its pixel data does not match its header)")
+        raise LogoProblem(Msg("cannot be decoded (its pixel data does not match its header)"))
     return width, height
 
 
 def _chunks(data: bytes) -> tuple[int, int, bytes, bytes]:
     """Width, height, the IHDR data and the joined IDAT data of a PNG whose every chunk is checked."""
     if len(data) < 33 or data[12:16] != b"IHDR" or struct.unpack(">I", data[8:12])[0] != 13:
-        raise LogoProblem("is not a complete PNG image (its header is missing)")
+        raise LogoProblem(Msg("is not a complete PNG image (its header is missing)"))
     width, height = struct.unpack(">II", data[16:24])
     bound(width, height, "is")
     pos, pixels = 8, []
     while True:
         if pos + 12 > len(data):
-            raise LogoProblem("is a truncated PNG image (it ends before its last chunk)")
+            raise LogoProblem(Msg("is a truncated PNG image (it ends before its last chunk)"))
         length, kind = struct.unpack(">I4s", data[pos:pos + 8])
         end = pos + 8 + length
         if end + 4 > len(data):
-            raise LogoProblem("is a truncated PNG image (a chunk runs past the end of the file)")
+            raise LogoProblem(Msg("is a truncated PNG image (a chunk runs past the end of the file)"))
         if zlib.crc32(data[pos + 4:end]) != struct.unpack(">I", data[end:end + 4])[0]:
-            raise LogoProblem(f"is a damaged PNG image (its {kind.decode('latin-1')!r} chunk fails its checksum)")
+            raise LogoProblem(Msg("is a damaged PNG image (its {chunk} chunk fails its checksum)",
+                                   chunk=repr(kind.decode("latin-1"))))
         if kind == b"IDAT":
             pixels.append(data[pos + 8:end])
         pos = end + 4
         if kind == b"IEND":
             break
     if not pixels:
-        raise LogoProblem("is a PNG image without pixel data")
+        raise LogoProblem(Msg("is a PNG image without pixel data"))
     return width, height, data[16:29], b"".join(pixels)
 
 
 def jpeg_size(data: bytes) -> tuple[int, int]:
     """Width and height of a JPEG from its frame header (ITU T.81, B.2.2), nothing decoded; raises LogoProblem."""
     if not data.startswith(b"\xff\xd8"):
-        raise LogoProblem("embeds an image that cannot be read (neither a PNG nor a JPEG)")
+        raise LogoProblem(Msg("embeds an image that cannot be read (neither a PNG nor a JPEG)"))
     pos = 2
     while pos + 4 <= len(data):
         if data[pos] != 0xFF:
@@ -162,27 +166,52 @@ def jpeg_size(data: bytes) -> tuple[int, int]:
         if marker in (0xD9, 0xDA) or length < 2:  # the image's end or its data, and no frame header yet
             break
         pos += 2 + length
-    raise LogoProblem("embeds an image that cannot be read (a JPEG without its frame header)")
+    raise LogoProblem(Msg("embeds an image that cannot be read (a JPEG without its frame header)"))
 
 
 def bound(width: int, height: int, subject: str) -> None:
-    """Refuse an image of no pixels, of too many, or too narrow for a logo."""
+    """Refuse an image of no pixels, of too many, or too narrow for a logo; `subject` is "is" (the logo itself) or
+    "embeds" (an image inside an SVG): each says its own sentence."""
+    embeds = subject == "embeds"
     if width < 1 or height < 1:
-        raise LogoProblem(f"{subject} an image of {width} x {height} pixels")
+        w, h = str(width), str(height)
+        raise LogoProblem(Msg("embeds an image of {width} x {height} pixels", width=w, height=h) if embeds else
+                          Msg("is an image of {width} x {height} pixels", width=w, height=h))
+    w, h, most = f"{width:,}", f"{height:,}", str(MAX_PIXELS // 1_000_000)
     if width * height > MAX_PIXELS:
-        raise LogoProblem(f"{subject} an image of {width:,} x {height:,} pixels; a logo has at most "
-                          f"{MAX_PIXELS // 1_000_000} million (e.g. 4000 x 4000)")
+        raise LogoProblem(
+            Msg("embeds an image of {width} x {height} pixels; a logo has at most {most} million (e.g. 4000 x 4000)",
+                width=w, height=h, most=most) if embeds else
+            Msg("is an image of {width} x {height} pixels; a logo has at most {most} million (e.g. 4000 x 4000)",
+                width=w, height=h, most=most))
     if max(width / height, height / width) > MAX_ASPECT:
-        raise LogoProblem(f"{subject} an image of {width:,} x {height:,} pixels: a logo's sides differ at most "
-                          f"{MAX_ASPECT:g} times")
+        most = Num(f"{MAX_ASPECT:g}")
+        raise LogoProblem(
+            Msg("embeds an image of {width} x {height} pixels: a logo's sides differ at most {most} times", width=w,
+                height=h, most=most) if embeds else
+            Msg("is an image of {width} x {height} pixels: a logo's sides differ at most {most} times", width=w,
+                height=h, most=most))
 
 
-def _what_it_is(data: bytes) -> str:
+def _what_it_is(data: bytes) -> Msg:
+    """What a file named .png that is no PNG seems to be, said in the refusal's brackets."""
     head = data[:256].lstrip(b"\xef\xbb\xbf \t\r\n")
     if not data:
-        return " (the file is empty)"
+        return Msg("the file is empty")
     if head.startswith(b"<"):
-        return " (it is text, perhaps an SVG named .png: rename it to .svg)"
+        return Msg("it is text, perhaps an SVG named .png: rename it to .svg")
     if head.startswith(b"\xff\xd8"):
-        return " (it is a JPEG image: save it as PNG)"
-    return " (its first bytes are not a PNG signature)"
+        return Msg("it is a JPEG image: save it as PNG")
+    return Msg("its first bytes are not a PNG signature")
+
+
+def _without_path(exc: FileProblem, path: Path) -> str:
+    """A file's refusal without the file's name (the style's problem names the file). Made as "{path}: {reason}",
+    its reason is kept as made (a `Msg` is told in the user's language wherever it is shown); otherwise its text,
+    the name cut off."""
+    message = exc.args[0] if exc.args else ""
+    if isinstance(message, Msg) and message.template.startswith("{path}: "):
+        rest = message.template.removeprefix("{path}: ")
+        if rest[:1] == "{" and rest[-1:] == "}" and rest[1:-1] in message.params:
+            return message.params[rest[1:-1]]
+    return str(exc).removeprefix(f"{path}: ")

@@ -10,8 +10,9 @@ from pathlib import Path
 from kneeboard.card import fonts
 from kneeboard.card.draw import BASE_SIZE, FIGURE, LABEL, MIN_TEXT, REGISTRATION, SECONDARY
 from kneeboard.card.geometry import page_box
-from kneeboard.card.layout import SHRINK, min_figure_size
+from kneeboard.card.layout import SHRINK, card_name, min_figure_size
 from kneeboard.card.style import CardStyle
+from kneeboard.i18n import Msg
 from kneeboard.problems import Problem
 
 #: The registration the organization's room is measured beside: ten characters, longer than most registrations.
@@ -41,11 +42,17 @@ def organization_problems(style: CardStyle) -> list[Problem]:
     lines = fonts.wrap(text, fonts.BOLD, MIN_TEXT, max(room, 1.0), hyphenate=False)
     if len(lines) <= 2 and all(fonts.width(line, fonts.BOLD, MIN_TEXT) <= room for line in lines):
         return []
-    card = style.size + (" landscape" if style.landscape else "")
-    card += f" (bound {style.binding})" if style.binding != "none" else ""
-    beside = "registration and logo" if style.logo is not None else "registration"
-    return [Problem("organization", f"does not fit in two lines of {max(room, 0):.0f} pt beside the {beside} "
-                    f"on a {card} card, even at the smallest type", "a shorter name, or a larger card", text)]
+    card = card_name(style)
+    if style.binding != "none":
+        card = Msg("{card} (bound {binding})", card=card, binding=style.binding)  # the style's words: "left", "top"
+    room_text = f"{max(room, 0):.0f}"
+    if style.logo is not None:
+        message = Msg("does not fit in two lines of {room} pt beside the registration and logo on a {card} card, "
+                      "even at the smallest type", room=room_text, card=card)
+    else:
+        message = Msg("does not fit in two lines of {room} pt beside the registration on a {card} card, even at the "
+                      "smallest type", room=room_text, card=card)
+    return [Problem("organization", message, Msg("a shorter name, or a larger card"), text)]
 
 
 def fitted(style: CardStyle | None, problems, where: str = "") -> tuple[CardStyle | None, list[Problem]]:

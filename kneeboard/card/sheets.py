@@ -13,7 +13,7 @@ from dataclasses import dataclass
 from kneeboard.card import fonts
 from kneeboard.card.geometry import MM, SHEET_SIZES
 from kneeboard.card.ops import SMALL, Line, Page, Part, SideText, Text
-from kneeboard.i18n import ENGLISH, translator
+from kneeboard.i18n import ENGLISH, Msg, Num, translator
 from kneeboard.problems import Told
 
 SHEET_MARGIN = 5 * MM  #: most printers print this close to the edge
@@ -64,8 +64,8 @@ def grid_for(card_w: float, card_h: float, sheet: str) -> Grid:
         if cols * rows and (best is None or cols * rows > best.per_sheet):
             best = Grid(sw, sh, cols, rows, card_w, card_h)
     if best is None:
-        raise SheetError(f"a {card_w / 72:.1f} x {card_h / 72:.1f} in card does not fit on a {sheet} sheet "
-                         "with room to cut it")
+        raise SheetError(Msg("a {width} x {height} in card does not fit on a {sheet} sheet with room to cut it",
+                             width=Num(f"{card_w / 72:.1f}"), height=Num(f"{card_h / 72:.1f}"), sheet=sheet))
     return best
 
 
@@ -120,7 +120,7 @@ def impose(cards: list[tuple[Page, ...]], sheet: str, language: str = ENGLISH) -
     first = cards[0][0]
     grid = grid_for(first.width, first.height, sheet)
     if any(p.width != first.width or p.height != first.height for c in cards for p in c):
-        raise SheetError("all cards on a sheet must have the same size")
+        raise SheetError(Msg("all cards on a sheet must have the same size"))
     note = _note(grid, flip_instruction(grid, language))
     sheets = []
     for start in range(0, len(cards), grid.per_sheet):

@@ -14,6 +14,7 @@ import re
 import xml.etree.ElementTree as ET
 from dataclasses import dataclass
 
+from kneeboard.i18n import Msg, Num
 from kneeboard.problems import Told
 
 MAX_ELEMENTS = 5_000  #: elements in the file
@@ -55,10 +56,11 @@ def check_svg(data: bytes) -> SvgFacts:
     _refuse_declarations(text)
     root = _parse(text)
     if _local(root.tag) != "svg":
-        raise SvgProblem(f"is not an SVG image (its outer element is <{_local(root.tag)}>)")
+        raise SvgProblem(Msg("is not an SVG image (its outer element is <{tag}>)", tag=_local(root.tag)))
     elements = list(root.iter())  # iterative in C: no recursion however deep the file
     if len(elements) > MAX_ELEMENTS:
-        raise SvgProblem(f"has {len(elements)} elements; a logo has at most {MAX_ELEMENTS:,}")
+        raise SvgProblem(Msg("has {count} elements; a logo has at most {most}", count=str(len(elements)),
+                             most=format(MAX_ELEMENTS, ",")))
     _check_depth(root)
     embedded = []
     ids = {}
@@ -66,22 +68,24 @@ def check_svg(data: bytes) -> SvgFacts:
     for element in elements:
         tag = _local(element.tag)
         if tag in ("script", "foreignObject"):
-            raise SvgProblem(f"holds a <{tag}> element; a logo is a drawing only")
+            raise SvgProblem(Msg("holds a <{tag}> element; a logo is a drawing only", tag=tag))
         uses += tag == "use"
         filters += tag == "filter"
         steps += tag.startswith("fe")
         if tag == "style":
-            _check_css(element.text or "", "its <style> element")
+            _check_css(element.text or "", Msg("its <style> element"))
         for name, value in element.attrib.items():
             embedded.extend(_check_attribute(tag, _local(name), value))
         identifier = element.get("id")
         if identifier is not None:
             ids.setdefault(identifier, element)
     if uses > MAX_USES:
-        raise SvgProblem(f"has {uses} <use> elements; a logo has at most {MAX_USES}")
+        raise SvgProblem(Msg("has {count} <use> elements; a logo has at most {most}", count=str(uses),
+                             most=str(MAX_USES)))
     if filters > MAX_FILTERS or steps > MAX_FILTER_STEPS:
-        raise SvgProblem(f"has {filters} filters of {steps} steps; a logo has at most {MAX_FILTERS} filters "
-                         f"of {MAX_FILTER_STEPS} steps in all")
+        raise SvgProblem(Msg("has {filters} filters of {steps} steps; a logo has at most {most} filters of "
+                             "{most_steps} steps in all", filters=str(filters), steps=str(steps), most=str(MAX_FILTERS),
+                             most_steps=str(MAX_FILTER_STEPS)))
     _Expansion(ids).check(root)
     width, height = _canvas(elements)
     return SvgFacts(width, height, tuple(embedded))
@@ -91,29 +95,30 @@ def _text(data: bytes) -> str:
     try:
         return data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
-        raise SvgProblem(f"is not UTF-8 text (byte {exc.start}); save the SVG as UTF-8") from None
+        raise SvgProblem(Msg("is not UTF-8 text (byte {byte}); save the SVG as UTF-8", byte=str(exc.start))) from None
 
 
 def _refuse_declarations(text: str) -> None:
     upper = text.upper()
     if "<!DOCTYPE" in upper or "<!ENTITY" in upper:
         # entities expand exponentially ("billion laughs") or name other files: no logo needs them
-        raise SvgProblem("declares a DOCTYPE or entities; a logo may not (remove the <!DOCTYPE ...> part)")
+        raise SvgProblem(Msg("declares a DOCTYPE or entities; a logo may not (remove the <!DOCTYPE ...> part)"))
     for name in _PROCESSING.findall(text):
         if name.lower() != "xml":  # <?xml-stylesheet href="..."?> would pull in another file
-            raise SvgProblem(f"holds a <?{name} ...?> instruction; a logo may not")
+            raise SvgProblem(Msg("holds a <?{name} ...?> instruction; a logo may not", name=name))
 
 
 def _parse(text: str) -> ET.Element:
     if not text.strip():
-        raise SvgProblem("is empty")
+        raise SvgProblem(Msg("is empty"))
     try:
         return ET.fromstring(text)
     except ET.ParseError as exc:
         line, column = exc.position
-        raise SvgProblem(f"is not well-formed XML (line {line}, column {column})") from None
+        raise SvgProblem(Msg("is not well-formed XML (line {line}, column {column})", line=str(line),
+                              column=str(column))) from None
     except (ValueError, RecursionError) as exc:
-        raise SvgProblem(f"cannot be read as XML ({str(exc)[:60]})") from None
+        raise SvgProblem(Msg("cannot be read as XML ({detail})", detail=str(exc)[:60])) from None
 
 
 def _local(name) -> str:
@@ -126,7 +131,7 @@ def _check_depth(root: ET.Element) -> None:
     while stack:
         element, depth = stack.pop()
         if depth > MAX_DEPTH:
-            raise SvgProblem(f"nests elements more than {MAX_DEPTH} deep")
+            raise SvgProblem(Msg("nests elements more than {most} deep", most=str(MAX_DEPTH)))
         stack.extend((child, depth + 1) for child in element)
 
 
@@ -139,21 +144,22 @@ def _check_attribute(tag: str, name: str, value: str) -> list[bytes]:
         if match and tag == "image":
             return [_decode_embedded(value.strip()[match.end():])]
         shown = value if len(value) <= 40 else value[:37] + "..."
-        raise SvgProblem(f"<{tag}> refers to {shown!r} outside the SVG; a logo may refer only to its own "
-                         "parts (#name) or embed a PNG or JPEG image as a data: URI")
+        raise SvgProblem(Msg("<{tag}> refers to {reference} outside the SVG; a logo may refer only to its own parts "
+                             "(#name) or embed a PNG or JPEG image as a data: URI", tag=tag, reference=repr(shown)))
     if name == "style":
-        _check_css(value, f"the style of a <{tag}>")
+        _check_css(value, Msg("the style of a <{tag}>", tag=tag))
     elif "url(" in value.lower():
         _check_urls(value, f"<{tag} {name}>")
     return []
 
 
 def _check_css(css: str, where: str) -> None:
+    """`where` names the CSS in the message: a `Msg`, or the element and attribute as written."""
     lowered = css.lower()
     if "@import" in lowered:
-        raise SvgProblem(f"{where} imports another style sheet; a logo may not")
+        raise SvgProblem(Msg("{where} imports another style sheet; a logo may not", where=where))
     if "\\" in css:  # a CSS escape could spell a reference the checks below would not see
-        raise SvgProblem(f"{where} holds a backslash escape; a logo's styles may not")
+        raise SvgProblem(Msg("{where} holds a backslash escape; a logo's styles may not", where=where))
     _check_urls(css, where)
 
 
@@ -161,17 +167,18 @@ def _check_urls(value: str, where: str) -> None:
     opened = value.lower().count("url(")
     found = _URL.findall(value)
     if len(found) != opened:
-        raise SvgProblem(f"{where} has a url( that cannot be read")
+        raise SvgProblem(Msg("{where} has a url( that cannot be read", where=where))
     for _quote, target in found:
         if not target.strip().startswith("#"):
-            raise SvgProblem(f"{where} refers to {target[:40]!r} outside the SVG; only url(#name) is allowed")
+            raise SvgProblem(Msg("{where} refers to {reference} outside the SVG; only url(#name) is allowed",
+                                  where=where, reference=repr(target[:40])))
 
 
 def _decode_embedded(payload: str) -> bytes:
     try:
         return base64.b64decode("".join(payload.split()), validate=True)
     except (binascii.Error, ValueError):
-        raise SvgProblem("embeds an image whose data: URI is not valid base64") from None
+        raise SvgProblem(Msg("embeds an image whose data: URI is not valid base64")) from None
 
 
 class _Expansion:
@@ -184,9 +191,10 @@ class _Expansion:
     def check(self, root: ET.Element) -> None:
         drawn, _chain, filtered = self.measure(root, ())
         if filtered > MAX_FILTERS:
-            raise SvgProblem(f"draws {filtered} elements through filters; a logo draws at most {MAX_FILTERS}")
+            raise SvgProblem(Msg("draws {count} elements through filters; a logo draws at most {most}",
+                                  count=str(filtered), most=str(MAX_FILTERS)))
         if drawn > MAX_DRAWN:  # measure stops early; this is the last word for a tree just under the bound
-            raise SvgProblem(f"draws more than {MAX_DRAWN:,} elements once its <use> copies are counted")
+            raise SvgProblem(_too_many_drawn())
 
     def measure(self, element: ET.Element, chain: tuple[str, ...]) -> tuple[int, int, int]:
         drawn = longest = filtered = 0
@@ -200,19 +208,19 @@ class _Expansion:
             if ref is None:
                 continue  # refers to nothing: drawn as nothing
             if ref in chain:
-                raise SvgProblem(f"a <use> of #{ref} refers back to itself; a logo's copies may not loop")
+                raise SvgProblem(Msg("a <use> of #{ref} refers back to itself; a logo's copies may not loop", ref=ref))
             if len(chain) + 1 > MAX_USE_CHAIN:
-                raise SvgProblem(f"chains <use> copies more than {MAX_USE_CHAIN} deep")
+                raise SvgProblem(Msg("chains <use> copies more than {most} deep", most=str(MAX_USE_CHAIN)))
             if ref not in self.done:
                 self.done[ref] = self.measure(self.ids[ref], chain + (ref,))
             sub_drawn, sub_chain, sub_filtered = self.done[ref]
             if len(chain) + 1 + sub_chain > MAX_USE_CHAIN:
-                raise SvgProblem(f"chains <use> copies more than {MAX_USE_CHAIN} deep")
+                raise SvgProblem(Msg("chains <use> copies more than {most} deep", most=str(MAX_USE_CHAIN)))
             drawn += sub_drawn
             filtered += sub_filtered
             longest = max(longest, 1 + sub_chain)
             if drawn > MAX_DRAWN:
-                raise SvgProblem(f"draws more than {MAX_DRAWN:,} elements once its <use> copies are counted")
+                raise SvgProblem(_too_many_drawn())
         return drawn, longest, filtered
 
     def _target(self, node: ET.Element) -> str | None:
@@ -220,6 +228,10 @@ class _Expansion:
             if _local(name) == "href" and value.startswith("#") and value[1:] in self.ids:
                 return value[1:]
         return None
+
+
+def _too_many_drawn() -> Msg:
+    return Msg("draws more than {most} elements once its <use> copies are counted", most=format(MAX_DRAWN, ","))
 
 
 def _canvas(elements: list[ET.Element]) -> tuple[float | None, float | None]:
@@ -236,7 +248,8 @@ def _canvas(elements: list[ET.Element]) -> tuple[float | None, float | None]:
             outer = (w, h)
             for a, b in ((w, h), box or (None, None)):
                 if a and b and max(a / b, b / a) > MAX_ASPECT:
-                    raise SvgProblem(f"is {a:g} x {b:g} units: a logo's sides differ at most {MAX_ASPECT:g} times")
+                    raise SvgProblem(Msg("is {width} x {height} units: a logo's sides differ at most {most} times",
+                                          width=Num(f"{a:g}"), height=Num(f"{b:g}"), most=Num(f"{MAX_ASPECT:g}")))
     return outer if outer is not None else (None, None)
 
 
@@ -245,13 +258,13 @@ def _length(value: str | None, name: str) -> float | None:
         return None
     m = _LENGTH.match(value)
     if not m:
-        raise SvgProblem(f"has a {name} that is not a length ({value[:30]!r})")
+        raise SvgProblem(Msg("has a {name} that is not a length ({value})", name=name, value=repr(value[:30])))
     if m.group(2) == "%":
         return None  # relative to what it is drawn into: the viewBox says the size
     number = float(m.group(1)) * _UNIT_PX[m.group(2)]
     if not 0 < number <= MAX_CANVAS:
-        raise SvgProblem(f"has a {name} of {value[:30]}; a logo's canvas is above 0 and at most "
-                         f"{MAX_CANVAS:,.0f} units")
+        raise SvgProblem(Msg("has a {name} of {value}; a logo's canvas is above 0 and at most {most} units", name=name,
+                              value=value[:30], most=format(MAX_CANVAS, ",.0f")))
     return number
 
 
@@ -264,9 +277,9 @@ def _view_box(value: str | None) -> tuple[float, float] | None:
     except ValueError:
         numbers = []
     if len(numbers) != 4:
-        raise SvgProblem(f"has a viewBox that is not four numbers ({value[:40]!r})")
+        raise SvgProblem(Msg("has a viewBox that is not four numbers ({value})", value=repr(value[:40])))
     x, y, w, h = numbers
     if not (0 < w <= MAX_CANVAS and 0 < h <= MAX_CANVAS and abs(x) <= MAX_CANVAS and abs(y) <= MAX_CANVAS):
-        raise SvgProblem(f"has a viewBox of {value[:40]}; a logo's canvas is above 0 and at most "
-                         f"{MAX_CANVAS:,.0f} units")
+        raise SvgProblem(Msg("has a viewBox of {value}; a logo's canvas is above 0 and at most {most} units",
+                             value=value[:40], most=format(MAX_CANVAS, ",.0f")))
     return w, h

@@ -5,7 +5,7 @@ from kneeboard import terms
 from kneeboard.card import fonts
 from kneeboard.card.draw import GREY, INK, WHITE, Context, DoesNotFit, Draw, weight_text
 from kneeboard.card.ops import CAUTION, SMALL
-from kneeboard.i18n import Translator, translator
+from kneeboard.i18n import Msg, Translator, translator
 from kneeboard.texts import CAUTION_CARD
 
 SHORT_WARNINGS = 2  #: warnings of at most this many lines are printed in full on every face, more on the first
@@ -80,7 +80,7 @@ def _caution(ctx: Context, width: float, page: int, pages: int):
         else:
             lines[-1] = candidate
     if len(lines) > 3 or any(fonts.width(line, fonts.REGULAR, ss) > room for line in lines):
-        raise DoesNotFit("caution", "the footer line is wider than the card")
+        raise DoesNotFit("caution", Msg("the footer line is wider than the card"))
     y -= ss * 0.3
     for k, line in enumerate(lines):
         y -= ss * 1.2

@@ -13,6 +13,7 @@ from functools import lru_cache
 from kneeboard.card import fonts
 from kneeboard.card.draw import GREY, HATCH, INK, SHADE, WHITE, DoesNotFit, Draw, baseline, fit_lines
 from kneeboard.card.ops import FIGURE, HEADING, LABEL, SMALL
+from kneeboard.i18n import Msg
 from kneeboard.printed import BLACK, HATCHED, NO_VALUE, Cell
 
 __all__ = ["BLACK", "HATCHED", "NO_VALUE", "Cell", "Grid"]
@@ -37,7 +38,8 @@ class Grid:
         for j, (x, w) in enumerate(columns):
             widest = _widest(tuple(r[j].text for r in rows)) * size
             if widest > w - 2:
-                raise DoesNotFit(block, f"column {j + 1} needs {widest:.0f} pt, has {w:.0f}")
+                raise DoesNotFit(block, Msg("column {column} needs {needs} pt, has {has}", column=str(j + 1),
+                                             needs=format(widest, ".0f"), has=format(w, ".0f")))
             self.edges.append(x + (w + widest) / 2)
 
     def height(self, start: int = 0, stop: int | None = None) -> float:

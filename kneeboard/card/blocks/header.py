@@ -6,7 +6,7 @@ from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, INK, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section, fit_lines
 from kneeboard.card.ops import HEADING, LABEL, SMALL, TITLE, Image
-from kneeboard.i18n import N_
+from kneeboard.i18n import N_, Msg
 from kneeboard.printed import weight_text
 
 NAME = "header"
@@ -33,7 +33,7 @@ class Header(Plan):
                 if org:
                     self.org_lines = fit_lines("header", org, fonts.BOLD, ls, max(right - reg_w - ls * 2, 1), 2)
                 elif reg_w > right:
-                    raise DoesNotFit("header", "the registration is wider than the card")
+                    raise DoesNotFit("header", Msg("the registration is wider than the card"))
                 break
             except DoesNotFit:
                 if reg * 0.9 >= ts:
@@ -42,7 +42,7 @@ class Header(Plan):
                 if org:  # no room beside the registration even so: the organization goes above it
                     self.org_lines, self.org_above = [], fit_lines("header", org, fonts.BOLD, ls, right, 2)
                 if fonts.width(t.registration, fonts.BOLD, reg) > width:
-                    raise DoesNotFit("header", "the registration is wider than the card") from None
+                    raise DoesNotFit("header", Msg("the registration is wider than the card")) from None
                 break
         self.reg, self.right = reg, right
         self.top = ls * 1.15 * len(self.org_above)  # room above the registration for an organization placed there

@@ -24,7 +24,7 @@ from kneeboard.card.blocks.grid import groups_of
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import SMALL, Circle, Path, Text
-from kneeboard.i18n import N_
+from kneeboard.i18n import N_, Msg
 
 NAME = "margin-chart"
 
@@ -168,7 +168,7 @@ def _draw(ctx: Context, width: float, height: float, group, legend, key):
     px0, px1 = label_w, width - pattern_w - ss * 0.6
     py1, py0 = -ss * PLOT_TOP, -plot_h + ss * PLOT_BOTTOM  # top and bottom of the plot area
     if px1 - px0 < 80 or py1 - py0 < MIN_PLOT - 0.01:
-        raise DoesNotFit(NAME, "too little room for a readable chart")
+        raise DoesNotFit(NAME, Msg("too little room for a readable chart"))
 
     def X(b):
         return px0 + b / x_max * (px1 - px0)

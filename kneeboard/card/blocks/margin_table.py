@@ -12,7 +12,7 @@ from kneeboard.card.blocks.grid import BLACK, HATCHED, Grid, GroupHeads, SubHead
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import GREY, HATCH, INK, RULE, WHITE, Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import LABEL, SMALL
-from kneeboard.i18n import N_
+from kneeboard.i18n import N_, Msg
 from kneeboard.printed import weight_text
 
 NAME = "margin-table"
@@ -26,7 +26,7 @@ class _Group:
         fs, ls = ctx.figure, ctx.size(LABEL)
         group_w = (width - bank_w - n_w) / len(configs)
         if group_w < fonts.width("188", fonts.BOLD, fs) * 2 + fs:
-            raise DoesNotFit(NAME, f"{len(configs)} configurations need more width")
+            raise DoesNotFit(NAME, Msg("{count} configurations need more width", count=str(len(configs))))
         self.configs = configs
         self.groups = [(c.name, bank_w + n_w + i * group_w, group_w) for i, c in enumerate(configs)]
         self.heads = GroupHeads(ctx, self.groups, NAME)

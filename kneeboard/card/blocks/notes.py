@@ -4,7 +4,7 @@ from kneeboard.card import fonts
 from kneeboard.card.blocks.registry import BlockSpec
 from kneeboard.card.draw import Context, DoesNotFit, Draw, Measure, Piece, Plan, Section
 from kneeboard.card.ops import HEADING, LABEL
-from kneeboard.i18n import N_
+from kneeboard.i18n import N_, Msg
 
 NAME = "notes"
 TITLE = N_("NOTES")
@@ -18,7 +18,7 @@ class Notes(Plan):
         self.hs, self.ls = hs, ls = ctx.size(HEADING), ctx.size(LABEL)
         self.lines = fonts.wrap(ctx.table.notes, fonts.REGULAR, ls, width)
         if any(fonts.width(line, fonts.REGULAR, ls) > width for line in self.lines):
-            raise DoesNotFit(NAME, "a word is wider than the card")
+            raise DoesNotFit(NAME, Msg("a word is wider than the card"))
         self.measure = Measure((Section(0.0, (ls * 1.25,) * len(self.lines)),), lead=hs * 1.3, foot=ls * 0.6,
                                again=hs * 1.3)
 
