@@ -75,6 +75,25 @@ def test_check_prints_the_caution_in_the_locales_language(german, capsys):
     assert ": in Ordnung: DEMO-TRN" in out and "Prüfsumme" in out
 
 
+def test_a_broken_profile_is_told_in_the_locales_language_with_what_was_written_as_written(german, capsys,
+                                                                                           tmp_path):
+    text = (SAMPLES / "demo_trainer.toml").read_text(encoding="utf-8")
+    broken = tmp_path / "kaputt.toml"
+    broken.write_text(text.replace('max_weight = "1650 lb"', 'max_weight = "1650 kt"')
+                      .replace('stall_speed = "48 kt"', "stall_speed = 48"), encoding="utf-8")
+    assert main(["check", str(broken)]) == 2
+    out = capsys.readouterr()
+    said = (out.out + out.err).splitlines()
+    weight = next(line for line in said if "aircraft.max_weight" in line)
+    assert weight.startswith(f"{broken}: Fehler: aircraft.max_weight: 'kt' ist eine Einheit")
+    assert "'1650 kt'" in weight and '"1650 lb"' in weight  # the value and the example stay as written
+    stall = next(line for line in said if "configuration[1].stall_speed" in line)
+    assert "bloße Zahl hat keine Einheit" in stall and "(gefunden: 48)" in stall
+    assert f"{broken}: 2 Fehler; keine Karte möglich" in said
+    english = ("error:", "is a unit of", "a bare number", "expected a", "no card can be made", "found")
+    assert not [word for word in english if word in out.out + out.err]
+
+
 def test_an_english_locale_keeps_the_english_help(monkeypatch, capsys):
     monkeypatch.setenv("LANG", "en_GB.UTF-8")
     monkeypatch.delenv("LANGUAGE")

@@ -125,6 +125,23 @@ def test_formula_help_puts_the_caution_first(qtbot):
         assert formula in text
 
 
+def test_formula_help_speaks_the_apps_language_and_keeps_formulas_and_sources_as_written(qtbot):
+    from kneeboard.app import words
+    from kneeboard.i18n import translator
+    from kneeboard.texts import FORMULAS_TITLE
+
+    words.use("de")  # the conftest puts English back after the test
+    dialog = FormulaHelpDialog()
+    qtbot.addWidget(dialog)
+    text = dialog.browser.toPlainText()
+    assert dialog.windowTitle() != "How the figures are computed"
+    assert text.startswith(translator("de")(CAUTION)) and not text.startswith(CAUTION)
+    # the formulas' symbols and the sources' numbers as written; the words in them are the language's
+    for formula in ("n = 1 / cos(Querneigung)", "Vs √n", "FAA-H-8083-25", "ICAO Doc 7488", "CS 22.337"):
+        assert formula in text
+    assert "cos(bank)" not in text and FORMULAS_TITLE not in text and translator("de")(FORMULAS_TITLE) in text
+
+
 def test_problems_dialog_lists_errors_before_warnings(qtbot):
     problems = [
         Problem("card.unknown_key", "unknown key, kept when saving", "a key of [card]", "x", WARNING),
