@@ -126,7 +126,8 @@ def test_a_refused_logo_keeps_the_svgs_message_and_its_decimal():
     _clean(message)
     assert str(err.value) == "is 2100.5 x 10 units: a logo's sides differ at most 20 times"
     USER.use("de")
-    assert str(err.value).startswith("is 2100,5 x 10 ")
+    assert str(err.value).startswith("ist 2100,5 x 10 ")  # the size as the SVG wrote it, with the German comma
+    assert "Logo" in str(err.value) and "sides" not in str(err.value)
 
 
 @pytest.mark.parametrize("data, kind, english", [

@@ -34,7 +34,7 @@ def _made_well(message) -> Msg:
     return message
 
 
-def test_a_physics_warning_reads_as_before_in_english_and_in_german_frame_and_decimal_comma():
+def test_a_physics_warning_reads_as_before_in_english_and_in_german_with_the_decimal_comma():
     [warning] = checked(MINIMAL + "pattern_factor = 1.2\n").problems
     _made_well(warning.message), _made_well(warning.expected)
     assert str(warning) == ("warning: configuration[1].pattern_factor: the pattern speed is 1.20 x the stall speed at "
@@ -43,7 +43,8 @@ def test_a_physics_warning_reads_as_before_in_english_and_in_german_frame_and_de
     USER.use("de")
     german = str(warning)
     assert german.startswith("Warnung: configuration[1].pattern_factor: ")  # the field's path as the file has it
-    assert "1,20 x" in german and "least usual 1,3" in german and "erwartet 1,3 x" in german
+    assert "1,20 x" in german and "Mindestwert 1,3 (FAA-H-8083-3)" in german and "erwartet 1,3 x" in german
+    assert "stall speed" not in german and "Überziehgeschwindigkeit" in german
     assert "1.2" not in german and "1.3" not in german
 
 
