@@ -86,6 +86,19 @@ def test_a_print_sends_the_card_and_remembers_it(controller, person):
     assert controller.session.last_printed("demo-trn").where == "the printer"
 
 
+def test_a_printer_that_refuses_is_told_and_nothing_counts_as_printed(controller, person):
+    from kneeboard.app.printing import PrinterProblem
+    from kneeboard.i18n import Msg
+
+    def refuses():
+        raise PrinterProblem(Msg("the printer {printer} could not start printing", printer="'Club laser'"))
+
+    person.answer("print_pdf", refuses)
+    assert controller.outputs.print_card() is False
+    assert person.problems == [("The card was not printed", "the printer 'Club laser' could not start printing")]
+    assert controller.session.last_printed("demo-trn") is None  # compare never takes it for the printed card
+
+
 @pytest.fixture
 def mixed_fleet(tmp_path):
     folder = tmp_path / "mixed"

@@ -166,7 +166,11 @@ class CardOutputs:
         from kneeboard.export import safe_name
 
         # the document's name, which print-to-file proposes as the file name: the registration, as exports name it
-        done = self.c.ui.print_pdf(pdf, f"{safe_name(self.c.doc.loaded.table.registration)}_card")
+        try:
+            done = self.c.ui.print_pdf(pdf, f"{safe_name(self.c.doc.loaded.table.registration)}_card")
+        except (OSError, ValueError) as exc:  # the printer refused to start or a page (printing.PrinterProblem)
+            self.c.ui.show_problems(tr("The card was not printed"), str(exc))
+            return False
         if done:
             self._printed(pdf, tr("the printer"))
         return done
