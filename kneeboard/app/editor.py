@@ -62,6 +62,10 @@ class ProfileEditor(QScrollArea):
         self.keys: dict[str, tuple] = {}
         self.sink_fields: set[str] = set()
         self.problem_list = QListWidget()
+        # a problem's line read whole, wrapped at the panel's width, never behind a sideways scroll
+        self.problem_list.setWordWrap(True)
+        self.problem_list.setResizeMode(QListWidget.ResizeMode.Adjust)
+        self.problem_list.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.all_clear = QLabel(tr("No input problems found."))
         self.all_clear.setStyleSheet("color: #1B5E20; font-weight: bold;")
         self.problem_list.itemActivated.connect(lambda item: self.focus_problem(item.data(256)))
