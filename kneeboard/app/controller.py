@@ -153,12 +153,10 @@ class Controller(QObject):
             return
         path = self._unchecked.pop(0)
         doc, source = self.doc, self.fleet.source(path)
-        if source is None:
-            pass
-        elif doc is not None and doc.path == path and not doc.modified and doc.plain() == source.data:
-            self.fleet.set_checked(path, doc.loaded)  # the open profile as saved: prepared once, not again
-        else:
-            self.fleet.set_checked(path, self.session.prepare_source(source))
+        if source is not None:  # None: the row left the list (a reload) before its turn came
+            same = doc is not None and doc.path == path and not doc.modified and doc.plain() == source.data
+            # the open profile as saved is prepared once, not again
+            self.fleet.set_checked(path, doc.loaded if same else self.session.prepare_source(source))
         self._check_timer.start(0)
 
     # --- opening ---------------------------------------------------------------------------------
