@@ -8,6 +8,7 @@ import io
 import re
 import subprocess
 import sys
+import threading
 from pathlib import Path
 
 import pytest
@@ -271,25 +272,43 @@ def test_an_edit_that_prints_nothing_new_renders_nothing(qtbot, controller):
     assert controller.renders.generation > requested and controller.shown.generation == controller.card_generation
 
 
-def test_an_input_error_makes_the_card_stale_and_drops_its_renders(qtbot, controller, person, tmp_path):
+def test_an_input_error_makes_the_card_stale_and_drops_its_renders(qtbot, controller, person, tmp_path,
+                                                                   monkeypatch):
     good = controller.shown.pdf
-    stale, withheld = [], []
+    stale, withheld, shown = [], [], []
     controller.cardStale.connect(lambda note, over: stale.append((note, over)))
     controller.figuresWithheld.connect(withheld.append)
+    controller.cardReady.connect(lambda _generation, pdf, _ms: shown.append(pdf))
+    # the render is held on its thread until the error is in, whatever the machine's load
+    started, gate = threading.Event(), threading.Event()
+    card_job = controller.card_job
+
+    def held(prepared, mode="card"):
+        job = card_job(prepared, mode)
+
+        def when_let_go():
+            started.set()
+            gate.wait(WAIT_MS / 1000)
+            return job()
+
+        return when_let_go
+
+    monkeypatch.setattr(controller, "card_job", held)
     edit(controller, "1500 lb")
-    qtbot.wait(controller.timer.interval() + 5)  # its render is running now
+    qtbot.waitUntil(started.is_set, timeout=WAIT_MS)  # its render is running now
     edit(controller, "1500 lb kt")  # an error before it ends
     qtbot.waitUntil(lambda: bool(stale), timeout=WAIT_MS)
     assert not controller.renders.busy()  # the running render's result is not wanted any more
     note, over = stale[-1]
     assert "1 error" in note and over.startswith("NOT CURRENT") and "as it was before them" in over
-    assert withheld and controller.shown.pdf == good  # its result never arrived
+    assert withheld and controller.shown.pdf == good
     person.answer("ask_save_path", tmp_path / "x.pdf")
     controller.outputs.export_card()  # the greyed card is never the one exported
     assert not (tmp_path / "x.pdf").exists() and person.problems[-1][0] == "No card" and person.asked == []
-    edit(controller, "1560 lb")  # the value as it was: the very card, drawn anew
+    gate.set()  # the 1500 lb card is drawn now, and comes back too late
+    edit(controller, "1560 lb")  # the value as it was: waits for the running render, then the very card, anew
     settle(qtbot, controller)
-    assert controller.shown.pdf == good
+    assert controller.shown.pdf == good and shown == [good]  # the 1500 lb card was never shown
 
 
 def test_a_sheet_is_rendered_for_the_preview_and_the_card_alone_is_exported(qtbot, controller, person, tmp_path):
